@@ -1,0 +1,16 @@
+import { notFound } from "next/navigation";
+import { requirePageViewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getFieldById } from "@/db/queries/fields";
+import { FieldIdParam } from "@/lib/validation/field";
+
+// The existence check lives in the layout, outside this segment's loading boundary,
+// so another organisation's field answers with a real 404 status.
+export default async function FieldLayout({ children, params }: { children: React.ReactNode; params: Promise<{ fieldId: string }> }) {
+  const viewer = await requirePageViewer();
+  const parsed = FieldIdParam.safeParse(await params);
+  if (!parsed.success) notFound();
+  const field = await getFieldById(await getDb(), { id: parsed.data.fieldId, orgId: viewer.orgId });
+  if (!field) notFound();
+  return children;
+}

@@ -1,0 +1,34 @@
+import type { Metadata } from "next";
+import { requirePageViewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { listFields } from "@/db/queries/fields";
+import { Empty, PageTitle, Panel, TextLink, formatMm } from "@/app/_components/ui";
+
+export const metadata: Metadata = { title: "Fields" };
+
+export default async function FieldsPage() {
+  const viewer = await requirePageViewer();
+  const fields = await listFields(await getDb(), { orgId: viewer.orgId });
+  return (
+    <>
+      <PageTitle sub={`${viewer.orgName} · ${fields.length} field${fields.length === 1 ? "" : "s"}`}>Fields</PageTitle>
+      <Panel title="All fields">
+        {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
+          <table className="w-full text-left text-sm" data-testid="field-list">
+            <thead className="text-ink-faint">
+              <tr><th className="py-1 font-medium">Field</th><th className="font-medium">Farm</th><th className="font-medium">CRS</th><th className="font-medium">Files</th><th className="font-medium">Latest horizontal RMSE</th></tr>
+            </thead>
+            <tbody className="divide-y divide-chalk-deep">
+              {fields.map((f) => (
+                <tr key={f.id}>
+                  <td className="py-2"><TextLink href={`/fields/${f.id}`}>{f.name}</TextLink></td>
+                  <td>{f.farm}</td><td className="font-mono text-xs">{f.crs}</td><td>{f.datasetCount}</td><td>{formatMm(f.latestAudit?.rmseR)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </Panel>
+    </>
+  );
+}

@@ -1,0 +1,140 @@
+import type { Metadata } from "next";
+import { requirePageViewer, type Viewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { listFields } from "@/db/queries/fields";
+import { listAudits, listRecentDatasets } from "@/db/queries/audits";
+import { listTeamMembers } from "@/db/queries/members";
+import { Empty, FieldSafetyNote, PageTitle, Panel, TextLink, formatDate, formatMm } from "@/app/_components/ui";
+import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
+
+export const metadata: Metadata = { title: "Home" };
+
+export default async function HomePage() {
+  const viewer = await requirePageViewer();
+  return (
+    <>
+      <PageTitle sub={ROLE_DUTY[viewer.role]}>{homeTitle(viewer)}</PageTitle>
+      <div className="grid gap-6" data-testid={`home-${viewer.role}`}>
+        {viewer.role === "technician" ? <TechnicianHome viewer={viewer} /> : null}
+        {viewer.role === "qa_lead" ? <QaLeadHome viewer={viewer} /> : null}
+        {viewer.role === "grower" ? <GrowerHome viewer={viewer} /> : null}
+        {viewer.role === "owner" ? <OwnerHome viewer={viewer} /> : null}
+      </div>
+    </>
+  );
+}
+
+function homeTitle(v: Viewer): string {
+  switch (v.role) {
+    case "technician": return "Your uploads and audits";
+    case "qa_lead": return "Audits waiting for your review";
+    case "grower": return "Your fields and how far to trust their records";
+    case "owner": return `${v.orgName}: team and fields`;
+  }
+}
+
+async function TechnicianHome({ viewer }: { viewer: Viewer }) {
+  const db = await getDb();
+  const [datasets, audits] = await Promise.all([
+    listRecentDatasets(db, { orgId: viewer.orgId, limit: 10 }),
+    listAudits(db, { orgId: viewer.orgId, limit: 10 }),
+  ]);
+  return (
+    <>
+      <FieldSafetyNote />
+      <div className="grid gap-6 md:grid-cols-2">
+        <Panel title="Recent uploads" action={<TextLink href="/fields">Choose a field</TextLink>}>
+          {datasets.length === 0 ? <Empty>No files uploaded yet. Open a field to upload its as-planted records and your survey.</Empty> : (
+            <ul className="divide-y divide-chalk-deep text-sm">
+              {datasets.map((d) => (
+                <li key={d.id} className="flex justify-between py-2">
+                  <span><span className="font-medium">{d.fileName}</span> · {d.kind === "planted" ? "as-planted" : "survey"} · {d.fieldName}</span>
+                  <span className="text-ink-faint">{d.rowCount} rows</span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </Panel>
+        <AuditList title="Recent audits" audits={audits} empty="No audits yet." />
+      </div>
+    </>
+  );
+}
+
+async function QaLeadHome({ viewer }: { viewer: Viewer }) {
+  const db = await getDb();
+  const [waiting, recent] = await Promise.all([
+    listAudits(db, { orgId: viewer.orgId, state: "submitted" }),
+    listAudits(db, { orgId: viewer.orgId, limit: 10 }),
+  ]);
+  return (
+    <div className="grid gap-6 md:grid-cols-2">
+      <AuditList title="Waiting for review" audits={waiting} empty="Nothing is waiting for your review." />
+      <AuditList title="Recent audits" audits={recent} empty="No audits yet." />
+    </div>
+  );
+}
+
+async function GrowerHome({ viewer }: { viewer: Viewer }) {
+  const fields = await listFields(await getDb(), { orgId: viewer.orgId });
+  return (
+    <Panel title="Fields">
+      {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
+        <table className="w-full text-left text-sm">
+          <thead className="text-ink-faint"><tr><th className="py-1 font-medium">Field</th><th className="font-medium">Latest audit</th><th className="font-medium">Horizontal RMSE</th></tr></thead>
+          <tbody className="divide-y divide-chalk-deep">
+            {fields.map((f) => (
+              <tr key={f.id}>
+                <td className="py-2"><TextLink href={`/fields/${f.id}`}>{f.name}</TextLink> <span className="text-ink-faint">· {f.farm}</span></td>
+                <td>{f.latestAudit ? `${f.latestAudit.title} (${f.latestAudit.state})` : "Not audited yet"}</td>
+                <td>{formatMm(f.latestAudit?.rmseR)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </Panel>
+  );
+}
+
+async function OwnerHome({ viewer }: { viewer: Viewer }) {
+  const db = await getDb();
+  const [members, fields] = await Promise.all([listTeamMembers(db, { orgId: viewer.orgId }), listFields(db, { orgId: viewer.orgId })]);
+  return (
+    <div className="grid gap-6 md:grid-cols-2">
+      <Panel title="Team" action={<TextLink href="/team">Manage team</TextLink>}>
+        <ul className="divide-y divide-chalk-deep text-sm">
+          {members.map((m) => (
+            <li key={m.memberId} className="flex justify-between py-2"><span>{m.name}</span><span className="text-ink-soft">{ROLE_LABEL[m.role]}</span></li>
+          ))}
+        </ul>
+      </Panel>
+      <Panel title="Fields" action={<TextLink href="/fields">All fields</TextLink>}>
+        {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
+          <ul className="divide-y divide-chalk-deep text-sm">
+            {fields.map((f) => (
+              <li key={f.id} className="flex justify-between py-2"><TextLink href={`/fields/${f.id}`}>{f.name}</TextLink><span className="text-ink-faint">{f.datasetCount} files</span></li>
+            ))}
+          </ul>
+        )}
+      </Panel>
+    </div>
+  );
+}
+
+function AuditList({ title, audits, empty }: { title: string; audits: Awaited<ReturnType<typeof listAudits>>; empty: string }) {
+  return (
+    <Panel title={title}>
+      {audits.length === 0 ? <Empty>{empty}</Empty> : (
+        <ul className="divide-y divide-chalk-deep text-sm">
+          {audits.map((a) => (
+            <li key={a.id} className="flex justify-between py-2">
+              <span><span className="font-medium">{a.title}</span> · {a.fieldName}</span>
+              <span className="text-ink-faint">{a.state} · {formatDate(a.updatedAt)}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </Panel>
+  );
+}

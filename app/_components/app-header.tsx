@@ -1,0 +1,33 @@
+import Link from "next/link";
+import { Wordmark } from "./mark";
+import { SignOutButton } from "./sign-out-button";
+import { ROLE_LABEL, type Role } from "@/lib/roles";
+import type { Viewer } from "@/lib/access";
+
+const NAV: { href: string; label: string; roles: readonly Role[] }[] = [
+  { href: "/", label: "Home", roles: ["owner", "qa_lead", "technician", "grower"] },
+  { href: "/fields", label: "Fields", roles: ["owner", "qa_lead", "technician", "grower"] },
+  { href: "/review", label: "Review", roles: ["owner", "qa_lead"] },
+  { href: "/team", label: "Team", roles: ["owner"] },
+];
+
+export function AppHeader({ viewer }: { viewer: Viewer }) {
+  return (
+    <header className="border-b border-chalk-line bg-white">
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-8 gap-y-2 px-6 py-3">
+        <Link href="/" aria-label="Plotproof home"><Wordmark /></Link>
+        <nav aria-label="Main" className="flex gap-5 text-sm font-medium">
+          {NAV.filter((n) => n.roles.includes(viewer.role)).map((n) => (
+            <Link key={n.href} href={n.href} className="text-ink-soft hover:text-ink">{n.label}</Link>
+          ))}
+        </nav>
+        <div className="ml-auto flex items-center gap-4 text-sm">
+          <span className="text-ink-soft" data-testid="viewer">
+            {viewer.name} · <span className="font-medium text-ink">{ROLE_LABEL[viewer.role]}</span> · {viewer.orgName}
+          </span>
+          <SignOutButton />
+        </div>
+      </div>
+    </header>
+  );
+}

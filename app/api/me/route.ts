@@ -1,0 +1,6 @@
+import { guardedRoute } from "@/lib/access";
+import { ANY_ROLE } from "@/lib/roles";
+
+export const GET = guardedRoute(ANY_ROLE, async ({ viewer }) =>
+  Response.json({ name: viewer.name, email: viewer.email, role: viewer.role, organisation: viewer.orgName }),
+);

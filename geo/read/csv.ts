@@ -1,0 +1,281 @@
+import Papa from "papaparse";
+import type { FileRole, InputIssue, PointTable } from "../types";
+import { IssueCollector } from "../validate/issues";
+import { planColumns, type ColumnGuess, type ColumnMapping } from "./columns";
+import { RowSink } from "./sink";
+import { NotTextError, textChunks, type TextInput } from "./text";
+import { parseNumber } from "./values";
+
+/** Options of the file readers. */
+export interface ReadOptions {
+  /** File name used in messages, e.g. "planted.csv". */
+  source: string;
+  role: FileRole;
+  /** Explicit column mapping; overrides guessing role by role. */
+  mapping?: ColumnMapping;
+  /** IANA time zone for times written without a UTC offset. */
+  timeZone?: string;
+  /** CSV delimiter; detected from the header line when omitted. */
+  delimiter?: "," | ";" | "\t" | "|";
+  /** Issues of one kind kept per file (default 50). */
+  issueCap?: number;
+}
+
+/** What a reader returns. `table` is null when any error was found. */
+export interface ReadResult {
+  table: PointTable | null;
+  issues: InputIssue[];
+  columns: ColumnGuess;
+  /** CRS named inside the file (GeoJSON legacy `crs` member), e.g. "EPSG:25832". */
+  crsHint?: string;
+}
+
+function isBlank(text: string, s: number, e: number): boolean {
+  for (let i = s; i < e; i++) if (text.charCodeAt(i) > 32) return false;
+  return true;
+}
+
+/** A quoted field longer than this (unbalanced quote) stops reading. */
+const MAX_PENDING = 32 << 20;
+
+const EMPTY_GUESS: ColumnGuess = { header: [], columns: {}, coordinates: null, rawCoordinates: null, unused: [] };
+
+/**
+ * Detects the delimiter from the header line: the most frequent of tab, semicolon, comma and pipe
+ * outside double quotes (ties: tab, then semicolon, then comma).
+ * @example detectDelimiter("plant_id;lat;lon") // ";"
+ */
+export function detectDelimiter(headerLine: string): "," | ";" | "\t" | "|" {
+  const counts: Record<string, number> = { "\t": 0, ";": 0, ",": 0, "|": 0 };
+  let quoted = false;
+  for (let i = 0; i < headerLine.length; i++) {
+    const c = headerLine[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && c in counts) counts[c]++;
+  }
+  let best: "," | ";" | "\t" | "|" = ",";
+  let n = 0;
+  for (const d of ["\t", ";", ",", "|"] as const) {
+    if (counts[d] > n) {
+      best = d;
+      n = counts[d];
+    }
+  }
+  return best;
+}
+
+/**
+ * Reads a CSV file of as-planted records or survey points into a column table.
+ *
+ * Streams: the input (a string or chunks of text/bytes) is read in slices of about 1 MB, carrying the
+ * unfinished last row to the next slice, so neither the whole text nor per-row objects are kept.
+ * Slices that contain a double quote go through papaparse's parser (`Papa.Parser`, the RFC 4180
+ * state machine `Papa.parse` streams with); quote-free slices, the common case for machine exports,
+ * are split by hand on newline and delimiter (what papaparse's own "fast mode" does) but without
+ * making a string per field: only the cells a role needs are read, numbers straight from the text.
+ * Handles comma, semicolon, tab or pipe delimiters (detected), decimal commas in files not delimited
+ * by commas, a UTF-8 BOM, CRLF/LF/CR line ends, quoted fields (also with line breaks: line numbers
+ * count the physical lines) and blank lines.
+ *
+ * Line numbers are 1-based with the header on line 1. Errors (missing coordinate columns, text or
+ * non-finite numbers in coordinate cells, unreadable input) mean `table: null`.
+ *
+ * @example
+ * const r = await readCsv("plant_id;lat;lon\nP1;52,1;9,2\n", { source: "p.csv", role: "planted" });
+ * r.table!.y[0]; // 52.1
+ */
+export async function readCsv(input: TextInput, options: ReadOptions): Promise<ReadResult> {
+  const issues = new IssueCollector(options.issueCap);
+  const file = options.source;
+  let columns: ColumnGuess = EMPTY_GUESS;
+  let sink: RowSink | null = null;
+  let parser: Papa.Parser | null = null;
+  let newline = "\n";
+  let delimiter: string = options.delimiter ?? ",";
+  let pending = "";
+  let line = 0;
+  let stopped = false;
+  let sawHeader = false;
+
+  const start = (text: string): boolean => {
+    // Decide newline and delimiter from the first line.
+    const nl = text.indexOf("\n");
+    const cr = text.indexOf("\r");
+    newline = nl >= 0 ? (nl > 0 && text[nl - 1] === "\r" ? "\r\n" : "\n") : cr >= 0 ? "\r" : "\n";
+    const end = text.indexOf(newline);
+    const headerLine = end >= 0 ? text.slice(0, end) : text;
+    delimiter = options.delimiter ?? detectDelimiter(headerLine);
+    parser = new Papa.Parser({ delimiter, newline: newline as "\n", quoteChar: '"' });
+    return true;
+  };
+
+  const handle = (rows: string[][], slowPath: boolean, errors: { row?: number; message: string }[]): void => {
+    let first = 0;
+    if (!sawHeader) {
+      // Skip blank lines before the header.
+      while (first < rows.length && rows[first].length === 1 && rows[first][0].trim() === "") {
+        line++;
+        first++;
+      }
+      if (first >= rows.length) return;
+      const header = rows[first];
+      line++;
+      first++;
+      sawHeader = true;
+      if (header.every((h) => h.trim() !== "" && Number.isFinite(parseNumber(h, delimiter !== ",") ?? NaN))) {
+        issues.add({
+          severity: "error",
+          code: "header-missing",
+          file,
+          line: 1,
+          value: header.join(delimiter),
+          message: "the first line holds numbers, not column names; add a header line such as plant_id,lat,lon",
+        });
+        stopped = true;
+        return;
+      }
+      const plan = planColumns(header, options.mapping);
+      columns = { ...plan.guess, delimiter, decimalComma: delimiter !== "," };
+      for (const p of plan.problems) issues.add({ ...p, file, line: 1 });
+      if (plan.problems.some((p) => p.severity === "error")) {
+        stopped = true;
+        return;
+      }
+      sink = new RowSink(plan, { source: file, role: options.role, timeZone: options.timeZone, decimalComma: delimiter !== "," }, issues);
+    }
+    const s = sink!;
+    const errorRows = new Map<number, string>();
+    for (const e of errors) if (e.row !== undefined) errorRows.set(e.row, e.message);
+    for (let r = first; r < rows.length; r++) {
+      const row = rows[r];
+      line++;
+      const at = line;
+      if (slowPath) for (const cell of row) for (let k = cell.indexOf("\n"); k >= 0; k = cell.indexOf("\n", k + 1)) line++;
+      if (row.length === 1 && row[0].trim() === "") continue;
+      const err = errorRows.get(r);
+      if (err !== undefined) {
+        issues.add({ severity: "error", code: "csv-malformed", file, line: at, message: `the row cannot be split into fields: ${err}` });
+        continue;
+      }
+      s.add(row, at);
+    }
+  };
+
+  /** Quote-free text: split rows and fields by hand, only the cells a role needs are read. */
+  const fastParse = (text: string, last: boolean): void => {
+    const s = sink!;
+    const { starts, ends } = s.spanBuffers();
+    const lastNeeded = s.lastNeeded;
+    const nlChar = newline === "\r" ? "\r" : "\n";
+    const crlf = newline === "\r\n";
+    const delim = delimiter;
+    let pos = 0;
+    const n = text.length;
+    for (;;) {
+      let nl = text.indexOf(nlChar, pos);
+      if (nl < 0) {
+        if (!last || pos >= n) break;
+        nl = n;
+      }
+      let end = nl;
+      if (crlf && end > pos && text.charCodeAt(end - 1) === 13) end--;
+      line++;
+      if (end > pos) {
+        let f = 0;
+        let a = pos;
+        for (;;) {
+          const d = text.indexOf(delim, a);
+          if (d < 0 || d >= end) {
+            if (f <= lastNeeded) {
+              starts[f] = a;
+              ends[f] = end;
+            }
+            f++;
+            break;
+          }
+          if (f <= lastNeeded) {
+            starts[f] = a;
+            ends[f] = d;
+          }
+          f++;
+          a = d + 1;
+          if (f > lastNeeded && f >= s.width) {
+            // Count the remaining fields only to warn about ragged rows.
+            while ((a = text.indexOf(delim, a)) >= 0 && a < end) {
+              f++;
+              a++;
+            }
+            f++;
+            break;
+          }
+        }
+        if (!(f === 1 && isBlank(text, pos, end))) s.addSpans(text, Math.min(f, lastNeeded + 1), line, f);
+      }
+      pos = nl + 1;
+      if (pos > n) break;
+    }
+    pending = last ? "" : text.substring(Math.min(pos, n));
+  };
+
+  const parse = (text: string, last: boolean): void => {
+    if (sink !== null && text.indexOf('"') < 0) {
+      fastParse(text, last);
+      return;
+    }
+    const p = parser!;
+    const res = p.parse(text, 0, !last) as { data: string[][]; errors: { row?: number; message: string }[]; meta: { cursor: number } };
+    pending = last ? "" : text.substring(res.meta.cursor);
+    handle(res.data, text.indexOf('"') >= 0, res.errors);
+  };
+
+  try {
+    for await (const chunk of textChunks(input)) {
+      if (stopped) break;
+      let text = pending + chunk;
+      if (parser === null) {
+        if (text.indexOf("\n") < 0 && text.indexOf("\r") < 0 && text.length < MAX_PENDING) {
+          pending = text;
+          continue;
+        }
+        start(text);
+      }
+      parse(text, false);
+      text = "";
+      if (pending.length > MAX_PENDING) {
+        issues.add({
+          severity: "error",
+          code: "row-too-long",
+          file,
+          line: line + 1,
+          message: "a row is longer than 32 MB; probably a quote (\") is not closed",
+        });
+        stopped = true;
+      }
+    }
+    if (!stopped) {
+      if (parser === null) {
+        if (pending.trim() !== "") start(pending);
+      }
+      if (parser !== null) parse(pending, true);
+    }
+  } catch (e) {
+    issues.add({
+      severity: "error",
+      code: e instanceof NotTextError ? "file-not-text" : "file-unreadable",
+      file,
+      message: e instanceof Error ? e.message : String(e),
+    });
+    return { table: null, issues: issues.finish(), columns };
+  }
+
+  if (!sawHeader && !issues.hasErrors()) {
+    issues.add({ severity: "error", code: "file-empty", file, message: "the file is empty; expected a header line and one row per point" });
+  }
+  if (sink === null) return { table: null, issues: issues.finish(), columns };
+  const table = (sink as RowSink).finish();
+  if (table.length === 0 && !issues.hasErrors()) {
+    issues.add({ severity: "error", code: "file-no-rows", file, message: "the file has a header but no rows with a position" });
+  }
+  const list = issues.finish();
+  return { table: list.some((i) => i.severity === "error") ? null : table, issues: list, columns };
+}
