@@ -19,7 +19,7 @@ const orgRoles = {
   grower: ac.newRole(memberAc.statements),
 };
 
-export function createAuth(db: DB, opts: { baseURL: string; secret: string }) {
+export function createAuth(db: DB, opts: { baseURL: string; secret: string; signInPerMinute?: number }) {
   const origin = new URL(opts.baseURL);
   return betterAuth({
     baseURL: opts.baseURL,
@@ -28,6 +28,8 @@ export function createAuth(db: DB, opts: { baseURL: string; secret: string }) {
     // Browsers may reach a local install as localhost or 127.0.0.1.
     trustedOrigins: [opts.baseURL, `${origin.protocol}//localhost:${origin.port || 3000}`, `${origin.protocol}//127.0.0.1:${origin.port || 3000}`],
     emailAndPassword: { enabled: true, autoSignIn: true, minPasswordLength: 10, maxPasswordLength: 128 },
+    // Sign-in attempts per minute per address; the browser tests raise it (AUTH_SIGNIN_PER_MINUTE).
+    rateLimit: { enabled: true, window: 60, max: 300, customRules: { "/sign-in/email": { window: 60, max: opts.signInPerMinute ?? 10 } } },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     plugins: [
       organization({ ac, roles: orgRoles, creatorRole: "owner", allowUserToCreateOrganization: true, invitationExpiresIn: 60 * 60 * 24 * 7 }),
@@ -45,7 +47,7 @@ export function getAuth(): Promise<Auth> {
   if (!g.__plotproofAuth) {
     g.__plotproofAuth = getDb().then((db) => {
       const e = env();
-      return createAuth(db, { baseURL: e.BETTER_AUTH_URL, secret: e.authSecret });
+      return createAuth(db, { baseURL: e.BETTER_AUTH_URL, secret: e.authSecret, signInPerMinute: e.AUTH_SIGNIN_PER_MINUTE });
     });
     g.__plotproofAuth.catch(() => { g.__plotproofAuth = undefined; });
   }

@@ -9,6 +9,7 @@ const EnvSchema = z.object({
   BETTER_AUTH_SECRET: z.string().min(32, "BETTER_AUTH_SECRET must be at least 32 characters").optional(),
   PGLITE_DIR: z.string().optional(),
   PLOTPROOF_DEMO: z.enum(["0", "1"]).default("0"),
+  AUTH_SIGNIN_PER_MINUTE: z.coerce.number().int().positive().default(10),
 });
 
 export type Env = z.infer<typeof EnvSchema> & { authSecret: string };

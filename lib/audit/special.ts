@@ -123,7 +123,7 @@ export function invRegIncBeta(p: number, a: number, b: number): number {
   let lo = 0;
   let hi = 1;
   let x = a / (a + b);
-  for (let iteration = 0; iteration < 400; iteration++) {
+  for (let iteration = 0; iteration < 2200; iteration++) {
     const f = regIncBeta(x, a, b) - p;
     if (f === 0) return x;
     if (f < 0) lo = x;
@@ -131,9 +131,8 @@ export function invRegIncBeta(p: number, a: number, b: number): number {
     const density = betaDensity(x, a, b, lnB);
     let next = density > 0 && Number.isFinite(density) ? x - f / density : Number.NaN;
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    const step = Math.abs(next - x);
+    if (next === x || next === lo || next === hi) return x; // no representable progress left: x is within an ulp or two
     x = next;
-    if (step <= 4e-16 * x || hi - lo <= 4e-16 * lo || x === lo || x === hi) return x;
   }
   return x;
 }

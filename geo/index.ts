@@ -1,0 +1,22 @@
+/**
+ * Public API of the audit core's geometry part: reading point files, CRS registry and projection,
+ * input validation, pairing and row bearing. Pure: no I/O, no clock, no environment.
+ */
+export * from "./types";
+export { readPoints, formatFromName, type PointFileFormat } from "./read";
+export { readCsv, detectDelimiter, type ReadOptions, type ReadResult } from "./read/csv";
+export { readGeoJson } from "./read/geojson";
+export { planColumns, normaliseHeader, COLUMN_ROLES, type ColumnGuess, type ColumnMapping, type ColumnRole, type CoordinateKind } from "./read/columns";
+export { normaliseFix, parseNumber, TimeReader, type FixQuality } from "./read/values";
+export type { TextInput } from "./read/text";
+export {
+  listCrs, findCrs, resolveCrs, utmFor, geographicOf, datumShiftBetween, containsLonLat,
+  type CrsEntry, type LonLatBox,
+} from "./crs/registry";
+export { projectTable, convertArrays, convertPoint, toLonLat, resolveWorkCrs, centreLonLat, medianOf, type CrsLike } from "./project";
+export { validateTable, type TableCheckOptions } from "./validate/table";
+export { validateFiles, type FilesCheckOptions, type FileInCrs } from "./validate/files";
+export { IssueCollector, formatIssue, hasErrors, DEFAULT_ISSUE_CAP } from "./validate/issues";
+export { pairPoints, DEFAULT_MAX_DISTANCE, type MatchMode, type PairInput, type PairOptions, type PairingNotes } from "./pair";
+export { deriveRowBearing, type RowBearing } from "./row-bearing";
+export { prepareAudit, type FileInput, type PrepareOptions, type Prepared } from "./prepare";

@@ -1,0 +1,10 @@
+import { convertPoint } from "./geo/project";
+import { geographicOf, resolveCrs } from "./geo/crs/registry";
+const g = (c: string) => geographicOf(resolveCrs(c).proj4);
+console.log(convertPoint(6, 53, g("EPSG:28992"), "EPSG:28992"), "196105.283, 557057.739");
+console.log(convertPoint(0.5, 50.5, g("EPSG:27700"), "EPSG:27700"), "577274.99, 69740.50");
+console.log(convertPoint(172.739193967, -34.444065991, g("EPSG:2193"), "EPSG:2193"), "1576041.150, 6188574.240");
+console.log(convertPoint(-177, 60, "EPSG:4326", "EPSG:32601"), "500000, 6651411.190362714");
+console.log(convertPoint(5, 50, g("EPSG:3035"), "EPSG:3035"), "3962799.45, 2999718.85");
+console.log(convertPoint(0.5, 50.5, "EPSG:4326", "EPSG:27700"), "with datum shift");
+console.log(g("EPSG:28992"));

@@ -1,0 +1,1 @@
+console.log(process.execArgv, process.argv.slice(0,2));
