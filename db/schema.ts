@@ -1,6 +1,9 @@
 import {
-  pgTable, text, timestamp, boolean, integer, doublePrecision, jsonb, uuid, bigint, index, uniqueIndex,
+  pgTable, text, timestamp, boolean, integer, doublePrecision, jsonb, uuid, bigint, index, uniqueIndex, primaryKey, customType, real,
 } from "drizzle-orm/pg-core";
+
+/** Raw bytes (uploaded files, columnar point blobs). */
+const bytea = customType<{ data: Uint8Array; driverData: Uint8Array }>({ dataType: () => "bytea" });
 
 // ---------------------------------------------------------------------------
 // Accounts and organisations (better-auth core + organization plugin tables).
@@ -122,9 +125,75 @@ export const dataset = pgTable("dataset", {
   sizeBytes: bigint("size_bytes", { mode: "number" }).notNull(),
   rowCount: integer("row_count").notNull().default(0),
   crs: text("crs").notNull(),
+  /** "csv" or "geojson". */
+  format: text("format").notNull().default("csv"),
+  /** The column mapping the file was read with (guessed, corrected or from a preset). */
+  mapping: jsonb("mapping"),
+  /** Warnings the uploader accepted when saving. */
+  acceptedWarnings: jsonb("accepted_warnings"),
+  /** Parsed points, columnar (see db/points-blob.ts), in the file's own CRS. */
+  points: bytea("points"),
   uploadedBy: text("uploaded_by").references(() => user.id, { onDelete: "set null" }),
   uploadedAt: timestamp("uploaded_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("dataset_org_field_idx").on(t.orgId, t.fieldId)]);
+
+/** The uploaded file exactly as received, kept apart so listings never load it. */
+export const datasetFile = pgTable("dataset_file", {
+  datasetId: uuid("dataset_id").primaryKey().references(() => dataset.id, { onDelete: "restrict" }),
+  contentType: text("content_type").notNull(),
+  bytes: bytea("bytes").notNull(),
+});
+
+/**
+ * Named limits tied to the operation that will use the records. Lengths in metres; a null limit is not checked.
+ * Audits keep a copy of the profile they were computed with, so editing a profile never changes a past verdict.
+ */
+export const toleranceProfile = pgTable("tolerance_profile", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  orgId: text("org_id").notNull().references(() => organization.id, { onDelete: "cascade" }),
+  name: text("name").notNull(),
+  operation: text("operation").notNull(),
+  radialM: doublePrecision("radial_m"),
+  crossM: doublePrecision("cross_m"),
+  alongM: doublePrecision("along_m"),
+  /** Share of checkpoints that must be within all limits, 0–1 (tested on the lower confidence bound). */
+  requiredShare: doublePrecision("required_share").notNull(),
+  confidence: doublePrecision("confidence").notNull().default(0.95),
+  minCheckpoints: integer("min_checkpoints").notNull(),
+  /** Seeded starting values (common practice, not a standard). */
+  builtIn: boolean("built_in").notNull().default(false),
+  note: text("note"),
+  updatedBy: text("updated_by").references(() => user.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [uniqueIndex("profile_org_name_uq").on(t.orgId, t.name)]);
+
+/** A saved column mapping, offered the next time a similar file is uploaded. */
+export const importPreset = pgTable("import_preset", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  orgId: text("org_id").notNull().references(() => organization.id, { onDelete: "cascade" }),
+  name: text("name").notNull(),
+  kind: text("kind").notNull(),
+  crs: text("crs"),
+  mapping: jsonb("mapping").notNull(),
+  createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [uniqueIndex("preset_org_kind_name_uq").on(t.orgId, t.kind, t.name)]);
+
+/** A key a farm's own scripts send as `Authorization: Bearer …`; carries its creator's organisation and role. */
+export const apiKey = pgTable("api_key", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  orgId: text("org_id").notNull().references(() => organization.id, { onDelete: "cascade" }),
+  userId: text("user_id").notNull().references(() => user.id, { onDelete: "cascade" }),
+  name: text("name").notNull(),
+  /** First characters of the key, shown so people can tell keys apart. */
+  prefix: text("prefix").notNull(),
+  /** SHA-256 of the whole key; the key itself is shown once and never stored. */
+  hash: text("hash").notNull().unique(),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
+  revokedAt: timestamp("revoked_at", { withTimezone: true }),
+}, (t) => [index("api_key_org_idx").on(t.orgId)]);
 
 /** One comparison of a survey against as-planted records. */
 export const audit = pgTable("audit", {
@@ -136,8 +205,20 @@ export const audit = pgTable("audit", {
   title: text("title").notNull(),
   /** Lifecycle state; see lib/audit-states.ts once review lands. */
   state: text("state").notNull().default("draft"),
+  profileId: uuid("profile_id").references(() => toleranceProfile.id, { onDelete: "set null" }),
+  /** The profile's limits as they were when the audit was computed. */
+  profileSnapshot: jsonb("profile_snapshot"),
+  /** Pairing and statistics settings (match mode, maximum distance, row bearing, time zone). */
   settings: jsonb("settings"),
+  /** The engine's JSON summary (same keys as the command line). */
   summary: jsonb("summary"),
+  /** Pass/fail per criterion of the profile. */
+  verdict: jsonb("verdict"),
+  /** 0–1 while computing. */
+  progress: real("progress").notNull().default(0),
+  progressStage: text("progress_stage"),
+  error: text("error"),
+  computedAt: timestamp("computed_at", { withTimezone: true }),
   createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
@@ -154,3 +235,58 @@ export const activity = pgTable("activity", {
   detail: jsonb("detail"),
   at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("activity_org_at_idx").on(t.orgId, t.at)]);
+
+/** Per-plant residuals of an audit (survey minus planted, metres, work CRS). */
+export const auditResidual = pgTable("audit_residual", {
+  auditId: uuid("audit_id").notNull().references(() => audit.id, { onDelete: "restrict" }),
+  seq: integer("seq").notNull(),
+  plantId: text("plant_id"),
+  surveyId: text("survey_id"),
+  crop: text("crop"),
+  bed: text("bed"),
+  row: text("row"),
+  arm: text("arm"),
+  fix: text("fix"),
+  /** Planting day in the field's time zone, YYYY-MM-DD. */
+  day: text("day"),
+  plantedE: doublePrecision("planted_e").notNull(),
+  plantedN: doublePrecision("planted_n").notNull(),
+  surveyE: doublePrecision("survey_e").notNull(),
+  surveyN: doublePrecision("survey_n").notNull(),
+  dE: doublePrecision("de").notNull(),
+  dN: doublePrecision("dn").notNull(),
+  along: doublePrecision("along"),
+  cross: doublePrecision("cross"),
+  radial: doublePrecision("radial").notNull(),
+  within: boolean("within"),
+  outlier: boolean("outlier").notNull(),
+  /** "id" or "position". */
+  pairedBy: text("paired_by").notNull(),
+  beyondMaxDistance: boolean("beyond_max_distance").notNull(),
+}, (t) => [primaryKey({ columns: [t.auditId, t.seq] }), index("residual_audit_radial_idx").on(t.auditId, t.radial)]);
+
+/** Points left unpaired by an audit. */
+export const auditUnpaired = pgTable("audit_unpaired", {
+  auditId: uuid("audit_id").notNull().references(() => audit.id, { onDelete: "restrict" }),
+  seq: integer("seq").notNull(),
+  /** "planted-not-found", "surveyed-not-planted" or "ambiguous". */
+  kind: text("kind").notNull(),
+  pointId: text("point_id"),
+  line: integer("line").notNull(),
+  e: doublePrecision("e").notNull(),
+  n: doublePrecision("n").notNull(),
+  crop: text("crop"),
+  bed: text("bed"),
+  row: text("row"),
+}, (t) => [primaryKey({ columns: [t.auditId, t.seq] }), index("unpaired_audit_kind_idx").on(t.auditId, t.kind)]);
+
+/**
+ * CSV reports written by the engine's own writers when the audit is computed (the same code the
+ * command line uses), so a download is exactly what was computed and never regenerated differently.
+ */
+export const auditReport = pgTable("audit_report", {
+  auditId: uuid("audit_id").notNull().references(() => audit.id, { onDelete: "restrict" }),
+  /** "residuals", "unpaired" or "summary". */
+  kind: text("kind").notNull(),
+  bytes: bytea("bytes").notNull(),
+}, (t) => [primaryKey({ columns: [t.auditId, t.kind] })]);

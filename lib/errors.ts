@@ -1,9 +1,11 @@
 /** One error vocabulary for route handlers, server actions and the SWR fetcher. */
 export type ErrorCode =
-  | "unauthenticated" | "forbidden" | "not_found" | "invalid_input" | "conflict" | "internal";
+  | "unauthenticated" | "forbidden" | "not_found" | "invalid_input" | "invalid_file" | "warnings_unaccepted"
+  | "conflict" | "payload_too_large" | "internal";
 
 const STATUS: Record<ErrorCode, number> = {
-  unauthenticated: 401, forbidden: 403, not_found: 404, invalid_input: 422, conflict: 409, internal: 500,
+  unauthenticated: 401, forbidden: 403, not_found: 404, invalid_input: 422, invalid_file: 422, warnings_unaccepted: 422,
+  conflict: 409, payload_too_large: 413, internal: 500,
 };
 
 export interface ErrorBody {

@@ -4,6 +4,7 @@ import { getAuth } from "@/lib/auth";
 import { getDb } from "@/db/client";
 import { deleteUserById, slugFor } from "@/db/queries/organisations";
 import { logActivity } from "@/db/queries/activity";
+import { seedDefaultProfiles } from "@/db/queries/profiles";
 import type { SignUpInput } from "@/lib/validation/account";
 
 /**
@@ -19,6 +20,7 @@ export async function createAccountWithOrganisation(input: SignUpInput, headers?
       body: { name: input.organisation, slug: slugFor(input.organisation, crypto.randomBytes(3).toString("hex")), userId: user.id, metadata: { kind: input.kind } },
     });
     if (!org) throw new Error("organisation was not created");
+    await seedDefaultProfiles(await getDb(), { orgId: org.id });
     await logActivity(await getDb(), { orgId: org.id, actorId: user.id, action: "organisation.created", subjectType: "organisation", subjectId: org.id, detail: { name: org.name } });
     return { userId: user.id, orgId: org.id };
   } catch (err) {

@@ -1,29 +1,31 @@
 import "server-only";
-import { and, desc, eq } from "drizzle-orm";
+import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from "drizzle-orm";
 import type { DB } from "@/db/client";
-import { audit, dataset, field } from "@/db/schema";
+import { audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
+import type {
+  AuditDto, AuditListItemDto, AuditSettingsDto, AuditState, AuditSummary, ChartDataDto, Page, ResidualRowDto,
+  ToleranceProfileDto, UnpairedRowDto, Verdict,
+} from "@/lib/api-types";
+import type { ResidualQueryInput } from "@/lib/validation/audit";
+import { logActivity } from "./activity";
 
-export interface AuditListItem {
-  id: string;
-  title: string;
-  state: string;
-  fieldId: string;
-  fieldName: string;
-  updatedAt: string;
-}
+export type AuditListItem = AuditListItemDto;
 
-export async function listAudits(db: DB, { orgId, fieldId, state, limit = 20 }: { orgId: string; fieldId?: string; state?: string; limit?: number }): Promise<AuditListItem[]> {
+export async function listAudits(db: DB, { orgId, fieldId, state, limit = 20 }: { orgId: string; fieldId?: string; state?: string; limit?: number }): Promise<AuditListItemDto[]> {
   const where = [eq(audit.orgId, orgId)];
   if (fieldId) where.push(eq(audit.fieldId, fieldId));
   if (state) where.push(eq(audit.state, state));
   const rows = await db
-    .select({ id: audit.id, title: audit.title, state: audit.state, fieldId: audit.fieldId, fieldName: field.name, updatedAt: audit.updatedAt })
+    .select({ id: audit.id, title: audit.title, state: audit.state, fieldId: audit.fieldId, fieldName: field.name, updatedAt: audit.updatedAt, summary: audit.summary, verdict: audit.verdict })
     .from(audit)
     .innerJoin(field, eq(field.id, audit.fieldId))
     .where(and(...where))
     .orderBy(desc(audit.updatedAt))
     .limit(limit);
-  return rows.map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() }));
+  return rows.map(({ summary, verdict, ...r }) => ({
+    ...r, state: r.state as AuditState, updatedAt: r.updatedAt.toISOString(),
+    rmseR: (summary as AuditSummary | null)?.rmseR ?? null, passed: (verdict as Verdict | null)?.passed ?? null,
+  }));
 }
 
 export interface DatasetListItem {
@@ -45,4 +47,174 @@ export async function listRecentDatasets(db: DB, { orgId, fieldId, limit = 20 }:
     .orderBy(desc(dataset.uploadedAt))
     .limit(limit);
   return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString() }));
+}
+
+export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
+
+export async function createAudit(db: DB, a: {
+  orgId: string; userId: string; fieldId: string; plantedDatasetId: string; surveyDatasetId: string;
+  profileId: string; profileSnapshot: ProfileSnapshot; settings: AuditSettingsDto; title: string;
+}): Promise<string> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.insert(audit).values({
+      orgId: a.orgId, fieldId: a.fieldId, plantedDatasetId: a.plantedDatasetId, surveyDatasetId: a.surveyDatasetId,
+      title: a.title, state: "computing", profileId: a.profileId, profileSnapshot: a.profileSnapshot, settings: a.settings,
+      createdBy: a.userId, progress: 0, progressStage: "queued",
+    }).returning({ id: audit.id });
+    await logActivity(tx, { orgId: a.orgId, actorId: a.userId, action: "audit.created", subjectType: "audit", subjectId: row.id, detail: { title: a.title } });
+    return row.id;
+  });
+}
+
+export async function setAuditProgress(db: DB, { id, progress, stage }: { id: string; progress: number; stage: string }): Promise<void> {
+  await db.update(audit).set({ progress, progressStage: stage, updatedAt: new Date() }).where(eq(audit.id, id));
+}
+
+export async function failAudit(db: DB, { id, orgId, error }: { id: string; orgId: string; error: string }): Promise<void> {
+  await db.transaction(async (tx) => {
+    await tx.update(audit).set({ state: "failed", error, progressStage: "failed", updatedAt: new Date() }).where(eq(audit.id, id));
+    await logActivity(tx, { orgId, actorId: null, action: "audit.failed", subjectType: "audit", subjectId: id, detail: { error } });
+  });
+}
+
+export type ResidualInsert = typeof auditResidual.$inferInsert;
+export type UnpairedInsert = typeof auditUnpaired.$inferInsert;
+
+const BATCH = 2000;
+
+/**
+ * Store an audit's results. Rows go in batches (so progress can be shown and other requests are
+ * not held up by one long transaction); the audit only turns "computed" — and its rows only count —
+ * in the final transaction. If anything fails, the rows written so far are removed again.
+ */
+export async function storeAuditResult(db: DB, r: {
+  id: string; orgId: string; summary: AuditSummary; verdict: Verdict; settings: AuditSettingsDto;
+  residuals: ResidualInsert[]; unpaired: UnpairedInsert[]; reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
+  onBatch?: (fraction: number) => Promise<void> | void;
+}): Promise<void> {
+  const total = r.residuals.length + r.unpaired.length;
+  let done = 0;
+  try {
+    for (let i = 0; i < r.residuals.length; i += BATCH) {
+      await db.insert(auditResidual).values(r.residuals.slice(i, i + BATCH));
+      done += Math.min(BATCH, r.residuals.length - i);
+      await r.onBatch?.(done / Math.max(1, total));
+    }
+    for (let i = 0; i < r.unpaired.length; i += BATCH) {
+      await db.insert(auditUnpaired).values(r.unpaired.slice(i, i + BATCH));
+      done += Math.min(BATCH, r.unpaired.length - i);
+      await r.onBatch?.(done / Math.max(1, total));
+    }
+    await db.transaction(async (tx) => {
+      for (const report of r.reports) await tx.insert(auditReport).values({ auditId: r.id, kind: report.kind, bytes: report.bytes });
+      await tx.update(audit).set({
+        state: "computed", summary: r.summary, verdict: r.verdict, settings: r.settings, progress: 1, progressStage: "done",
+        error: null, computedAt: new Date(), updatedAt: new Date(),
+      }).where(eq(audit.id, r.id));
+      await logActivity(tx, { orgId: r.orgId, actorId: null, action: "audit.computed", subjectType: "audit", subjectId: r.id,
+        detail: { pairs: r.summary.pairs, passed: r.verdict.passed } });
+    });
+  } catch (err) {
+    await removeAuditRows(db, { id: r.id });
+    throw err;
+  }
+}
+
+/** Remove the result rows of an audit that did not finish computing. */
+export async function removeAuditRows(db: DB, { id }: { id: string }): Promise<void> {
+  await db.transaction(async (tx) => {
+    await tx.delete(auditResidual).where(eq(auditResidual.auditId, id));
+    await tx.delete(auditUnpaired).where(eq(auditUnpaired.auditId, id));
+    await tx.delete(auditReport).where(eq(auditReport.auditId, id));
+  });
+}
+
+export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<AuditDto | null> {
+  const [row] = await db
+    .select({
+      id: audit.id, title: audit.title, state: audit.state, progress: audit.progress, progressStage: audit.progressStage, error: audit.error,
+      fieldId: field.id, fieldName: field.name, fieldCrs: field.crs, fieldTimeZone: field.timeZone,
+      plantedDatasetId: audit.plantedDatasetId, surveyDatasetId: audit.surveyDatasetId,
+      profile: audit.profileSnapshot, settings: audit.settings, summary: audit.summary, verdict: audit.verdict,
+      createdBy: user.name, createdAt: audit.createdAt, computedAt: audit.computedAt,
+    })
+    .from(audit)
+    .innerJoin(field, eq(field.id, audit.fieldId))
+    .leftJoin(user, eq(user.id, audit.createdBy))
+    .where(and(eq(audit.id, id), eq(audit.orgId, orgId)));
+  if (!row) return null;
+  const ids = [row.plantedDatasetId, row.surveyDatasetId].filter((x): x is string => !!x);
+  const ds = ids.length
+    ? await db.select({ id: dataset.id, fileName: dataset.fileName, sha256: dataset.sha256, rowCount: dataset.rowCount }).from(dataset).where(and(inArray(dataset.id, ids), eq(dataset.orgId, orgId)))
+    : [];
+  return {
+    id: row.id, title: row.title, state: row.state as AuditState, progress: row.progress, progressStage: row.progressStage, error: row.error,
+    field: { id: row.fieldId, name: row.fieldName, crs: row.fieldCrs, timeZone: row.fieldTimeZone },
+    planted: ds.find((d) => d.id === row.plantedDatasetId) ?? null,
+    survey: ds.find((d) => d.id === row.surveyDatasetId) ?? null,
+    profile: (row.profile as ProfileSnapshot | null) ?? null,
+    settings: (row.settings as AuditSettingsDto | null) ?? null,
+    summary: (row.summary as AuditSummary | null) ?? null,
+    verdict: (row.verdict as Verdict | null) ?? null,
+    createdBy: row.createdBy, createdAt: row.createdAt.toISOString(), computedAt: row.computedAt?.toISOString() ?? null,
+  };
+}
+
+const residualCols = {
+  seq: auditResidual.seq, plantId: auditResidual.plantId, surveyId: auditResidual.surveyId, crop: auditResidual.crop, bed: auditResidual.bed,
+  row: auditResidual.row, arm: auditResidual.arm, fix: auditResidual.fix, day: auditResidual.day, plantedE: auditResidual.plantedE,
+  plantedN: auditResidual.plantedN, surveyE: auditResidual.surveyE, surveyN: auditResidual.surveyN, dE: auditResidual.dE, dN: auditResidual.dN,
+  along: auditResidual.along, cross: auditResidual.cross, radial: auditResidual.radial, within: auditResidual.within, outlier: auditResidual.outlier,
+  pairedBy: auditResidual.pairedBy, beyondMaxDistance: auditResidual.beyondMaxDistance,
+};
+
+const SORT_COLUMN = {
+  seq: auditResidual.seq, plantId: auditResidual.plantId, radial: auditResidual.radial, dE: auditResidual.dE, dN: auditResidual.dN,
+  along: auditResidual.along, cross: auditResidual.cross, bed: auditResidual.bed, arm: auditResidual.arm,
+} as const;
+
+/** One page of residuals; the audit must already be known to belong to the caller's organisation. */
+export async function pageResiduals(db: DB, { auditId, query }: { auditId: string; query: ResidualQueryInput }): Promise<Page<ResidualRowDto>> {
+  const where: SQL[] = [eq(auditResidual.auditId, auditId)];
+  if (query.only === "out") where.push(eq(auditResidual.within, false));
+  if (query.only === "outliers") where.push(eq(auditResidual.outlier, true));
+  for (const key of ["arm", "crop", "bed", "fix", "day"] as const) if (query[key]) where.push(eq(auditResidual[key], query[key]!));
+  if (query.q) where.push(ilike(auditResidual.plantId, `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
+  const col = SORT_COLUMN[query.sort];
+  const [{ total }] = await db.select({ total: count() }).from(auditResidual).where(and(...where));
+  const rows = await db.select(residualCols).from(auditResidual).where(and(...where))
+    .orderBy(query.dir === "desc" ? sql`${col} desc nulls last` : sql`${col} asc nulls last`, asc(auditResidual.seq))
+    .limit(query.pageSize).offset((query.page - 1) * query.pageSize);
+  return { rows: rows.map((r) => ({ ...r, pairedBy: r.pairedBy as ResidualRowDto["pairedBy"] })), total, page: query.page, pageSize: query.pageSize };
+}
+
+export async function pageUnpaired(db: DB, { auditId, kind, page, pageSize }: { auditId: string; kind?: UnpairedRowDto["kind"]; page: number; pageSize: number }): Promise<Page<UnpairedRowDto>> {
+  const where = kind ? and(eq(auditUnpaired.auditId, auditId), eq(auditUnpaired.kind, kind)) : eq(auditUnpaired.auditId, auditId);
+  const [{ total }] = await db.select({ total: count() }).from(auditUnpaired).where(where);
+  const rows = await db.select({
+    seq: auditUnpaired.seq, kind: auditUnpaired.kind, pointId: auditUnpaired.pointId, line: auditUnpaired.line, e: auditUnpaired.e, n: auditUnpaired.n,
+    crop: auditUnpaired.crop, bed: auditUnpaired.bed, row: auditUnpaired.row,
+  }).from(auditUnpaired).where(where).orderBy(asc(auditUnpaired.seq)).limit(pageSize).offset((page - 1) * pageSize);
+  return { rows: rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })), total, page, pageSize };
+}
+
+const CHART_MAX = 20_000;
+
+export async function chartData(db: DB, { auditId }: { auditId: string }): Promise<ChartDataDto> {
+  const [{ total }] = await db.select({ total: count() }).from(auditResidual).where(eq(auditResidual.auditId, auditId));
+  const step = Math.max(1, Math.ceil(total / CHART_MAX));
+  const rows = await db.select({ dE: auditResidual.dE, dN: auditResidual.dN, radial: auditResidual.radial, cross: auditResidual.cross, within: auditResidual.within })
+    .from(auditResidual)
+    .where(step > 1 ? and(eq(auditResidual.auditId, auditId), sql`${auditResidual.seq} % ${step} = 0`) : eq(auditResidual.auditId, auditId))
+    .orderBy(asc(auditResidual.seq));
+  const hasCross = rows.some((r) => r.cross !== null);
+  return {
+    dE: rows.map((r) => r.dE), dN: rows.map((r) => r.dN), radial: rows.map((r) => r.radial),
+    cross: hasCross ? rows.map((r) => r.cross ?? NaN) : null, within: rows.map((r) => r.within), sampled: step > 1, total,
+  };
+}
+
+export async function getAuditReport(db: DB, { auditId, kind }: { auditId: string; kind: "residuals" | "unpaired" | "summary" }): Promise<Uint8Array | null> {
+  const [row] = await db.select({ bytes: auditReport.bytes }).from(auditReport).where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind)));
+  return row?.bytes ?? null;
 }

@@ -2,21 +2,11 @@ import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { audit, dataset, field } from "@/db/schema";
-import type { FieldInput } from "@/lib/validation/field";
+import type { FieldInput, FieldPatch } from "@/lib/validation/field";
+import type { FieldDto } from "@/lib/api-types";
 import { logActivity } from "./activity";
 
-export interface FieldDto {
-  id: string;
-  name: string;
-  farm: string;
-  crs: string;
-  timeZone: string;
-  rowBearingDeg: number | null;
-  bedSpacingM: number | null;
-  rowsPerBed: number | null;
-  rowSpacingM: number | null;
-  createdAt: string;
-}
+export type { FieldDto };
 
 export interface FieldListItem extends FieldDto {
   datasetCount: number;
@@ -26,11 +16,11 @@ export interface FieldListItem extends FieldDto {
 const fieldColumns = {
   id: field.id, name: field.name, farm: field.farm, crs: field.crs, timeZone: field.timeZone,
   rowBearingDeg: field.rowBearingDeg, bedSpacingM: field.bedSpacingM, rowsPerBed: field.rowsPerBed,
-  rowSpacingM: field.rowSpacingM, createdAt: field.createdAt,
+  rowSpacingM: field.rowSpacingM, boundary: field.boundary, createdAt: field.createdAt,
 };
 
-function toDto(row: { createdAt: Date } & Omit<FieldDto, "createdAt">): FieldDto {
-  return { ...row, createdAt: row.createdAt.toISOString() };
+function toDto(row: { createdAt: Date; boundary: unknown } & Omit<FieldDto, "createdAt" | "boundary">): FieldDto {
+  return { ...row, boundary: (row.boundary as FieldDto["boundary"]) ?? null, createdAt: row.createdAt.toISOString() };
 }
 
 export async function listFields(db: DB, { orgId }: { orgId: string }): Promise<FieldListItem[]> {
@@ -67,7 +57,16 @@ export async function createField(db: DB, { orgId, userId, input }: { orgId: str
   });
 }
 
-export async function fieldNameTaken(db: DB, { orgId, name }: { orgId: string; name: string }): Promise<boolean> {
-  const [row] = await db.select({ id: field.id }).from(field).where(and(eq(field.orgId, orgId), eq(field.name, name)));
-  return !!row;
+export async function fieldNameTaken(db: DB, { orgId, name, exceptId }: { orgId: string; name: string; exceptId?: string }): Promise<boolean> {
+  const rows = await db.select({ id: field.id }).from(field).where(and(eq(field.orgId, orgId), eq(field.name, name)));
+  return rows.some((r) => r.id !== exceptId);
+}
+
+export async function updateField(db: DB, { id, orgId, userId, patch }: { id: string; orgId: string; userId: string; patch: FieldPatch }): Promise<FieldDto | null> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.update(field).set({ ...patch, updatedAt: new Date() }).where(and(eq(field.id, id), eq(field.orgId, orgId))).returning(fieldColumns);
+    if (!row) return null;
+    await logActivity(tx, { orgId, actorId: userId, action: "field.updated", subjectType: "field", subjectId: id, detail: { changed: Object.keys(patch) } });
+    return toDto(row);
+  });
 }

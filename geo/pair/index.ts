@@ -1,4 +1,5 @@
 import KDBush from "kdbush";
+import { indexIds } from "../ids";
 import { PAIRED_BY_ID, PAIRED_BY_POSITION, type Pairing } from "../types";
 
 /** The part of a table pairing needs: positions in one metric CRS, and ids when present. */
@@ -92,11 +93,11 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
   if (mode !== "nearest") {
     const pid = planted.id, sid = survey.id;
     if (pid && sid) {
-      const index = new Map<string, number>();
-      for (let i = 0; i < np; i++) if (pid[i] !== "" && !index.has(pid[i])) index.set(pid[i], i);
+      const index = indexIds(pid);
       for (let s = 0; s < ns; s++) {
         const id = sid[s];
-        const p = id === "" ? undefined : index.get(id);
+        const found = id === "" ? -1 : index.lookup(id);
+        const p = found < 0 ? undefined : found;
         if (p !== undefined && partnerOfPlanted[p] < 0) {
           partnerOfPlanted[p] = s;
           partnerOfSurvey[s] = p;

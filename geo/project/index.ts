@@ -22,11 +22,38 @@ function converter(from: string, to: string): proj4.Converter {
   return c;
 }
 
+/** The part of a proj4 projection object the fast path uses. */
+interface ProjObject {
+  projName?: string;
+  to_meter?: number;
+  from_greenwich?: number;
+  axis?: string;
+  forward(p: { x: number; y: number }): { x: number; y: number } | undefined;
+}
+
+const projObjects = new Map<string, ProjObject>();
+
+function projObject(def: string): ProjObject {
+  let o = projObjects.get(def);
+  if (!o) {
+    o = new proj4.Proj(def) as unknown as ProjObject;
+    projObjects.set(def, o);
+  }
+  return o;
+}
+
+const D2R = Math.PI / 180;
+
 /**
  * Converts coordinate arrays from one CRS to another with proj4 (one converter, one reused point,
  * a plain loop). Geographic coordinates are [longitude, latitude] in degrees, projected ones
  * [easting, northing] in metres. NaN in gives NaN out; a point proj4 cannot convert gives NaN.
  * Returns the input arrays themselves when both definitions are identical (no copy, nothing changes).
+ *
+ * Fast path: from a geographic CRS into a projected one in metres, the projection's own `forward`
+ * is called on radians directly, skipping proj4's per-point wrapping (about 1.5× faster). It is used
+ * only when it reproduces proj4's full conversion exactly on up to 16 points of the data (so a datum
+ * shift, which the fast path would skip, always takes the full path).
  *
  * Source of the projection formulas: proj4js (Poder/Engsager transverse Mercator, EPSG oblique
  * stereographic, Snyder's equal-area azimuthal), checked in index.test.ts against IOGP 373-7-2
@@ -42,18 +69,18 @@ export function convertArrays(
   from: CrsLike,
   to: CrsLike,
 ): [Float64Array, Float64Array] {
-  const f = entry(from).proj4, t = entry(to).proj4;
+  const fe = entry(from), te = entry(to);
+  const f = fe.proj4, t = te.proj4;
   if (sameDefinition(f, t)) return [x, y];
   const c = converter(f, t);
   const n = x.length;
   const ox = new Float64Array(n), oy = new Float64Array(n);
-  const p = [0, 0];
-  for (let i = 0; i < n; i++) {
+  const slow = (i: number, p: number[]) => {
     const xi = x[i], yi = y[i];
     if (xi !== xi || yi !== yi) {
       ox[i] = NaN;
       oy[i] = NaN;
-      continue;
+      return;
     }
     p[0] = xi;
     p[1] = yi;
@@ -63,12 +90,58 @@ export function convertArrays(
     } catch {
       ox[i] = NaN;
       oy[i] = NaN;
-      continue;
+      return;
     }
     ox[i] = Number.isFinite(r[0]) ? r[0] : NaN;
     oy[i] = Number.isFinite(r[1]) ? r[1] : NaN;
+  };
+  const p = [0, 0];
+  if (fe.kind === "geographic" && te.kind === "projected" && n >= 64 && fastPathAgrees(x, y, f, t, c)) {
+    const dest = projObject(t);
+    const pt = { x: 0, y: 0 };
+    for (let i = 0; i < n; i++) {
+      const xi = x[i], yi = y[i];
+      if (xi !== xi || yi !== yi || yi > 90 || yi < -90) {
+        slow(i, p);
+        continue;
+      }
+      pt.x = xi * D2R;
+      pt.y = yi * D2R;
+      const r = dest.forward(pt);
+      if (!r || !(r.x - r.x === 0) || !(r.y - r.y === 0)) {
+        slow(i, p);
+        continue;
+      }
+      ox[i] = r.x;
+      oy[i] = r.y;
+    }
+    return [ox, oy];
   }
+  for (let i = 0; i < n; i++) slow(i, p);
   return [ox, oy];
+}
+
+/** True when calling the target projection's `forward` on radians equals proj4's full conversion on sample points. */
+function fastPathAgrees(x: Float64Array, y: Float64Array, f: string, t: string, c: proj4.Converter): boolean {
+  const src = projObject(f), dest = projObject(t);
+  if (src.projName !== "longlat" || src.from_greenwich || dest.from_greenwich) return false;
+  if ((dest.to_meter !== undefined && dest.to_meter !== 1) || (dest.axis !== undefined && dest.axis !== "enu")) return false;
+  const n = x.length;
+  let checked = 0;
+  for (let k = 0; k < 16; k++) {
+    const i = Math.floor(((k + 0.5) * n) / 16);
+    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i]) || Math.abs(y[i]) > 90) continue;
+    let full: number[];
+    try {
+      full = c.forward([x[i], y[i]]);
+    } catch {
+      return false;
+    }
+    const r = dest.forward({ x: x[i] * D2R, y: y[i] * D2R });
+    if (!r || r.x !== full[0] || r.y !== full[1]) return false;
+    checked++;
+  }
+  return checked > 0;
 }
 
 /**

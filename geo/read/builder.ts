@@ -1,63 +1,22 @@
 import type { AttributeName, CodedColumn, FileRole, PointTable } from "../types";
 
-/** A Float64Array that grows by doubling. */
-export class GrowF64 {
-  a: Float64Array;
-  n = 0;
-  constructor(capacity = 1024) {
-    this.a = new Float64Array(capacity);
-  }
-  push(v: number): void {
-    if (this.n === this.a.length) {
-      const b = new Float64Array(this.a.length * 2);
-      b.set(this.a);
-      this.a = b;
-    }
-    this.a[this.n++] = v;
-  }
-  /** Exact-length copy. */
-  done(): Float64Array {
-    return this.a.slice(0, this.n);
-  }
-}
-
-/** An Int32Array that grows by doubling. */
-export class GrowI32 {
-  a: Int32Array;
-  n = 0;
-  constructor(capacity = 1024) {
-    this.a = new Int32Array(capacity);
-  }
-  push(v: number): void {
-    if (this.n === this.a.length) {
-      const b = new Int32Array(this.a.length * 2);
-      b.set(this.a);
-      this.a = b;
-    }
-    this.a[this.n++] = v;
-  }
-  done(): Int32Array {
-    return this.a.slice(0, this.n);
-  }
-}
-
 /**
- * Builds a dictionary-coded text column. Consecutive equal values (common: a bed or row is planted
- * in one go) skip the dictionary look-up.
+ * Dictionary of one coded text column. Consecutive equal raw cells (a bed or row is planted in one
+ * go) skip the look-up; `codeOfSpan` compares the raw text in place, so no string is made for them.
  */
-export class CodedBuilder {
-  readonly codes = new GrowI32();
+export class Dictionary {
   readonly values: string[] = [];
   private readonly dict = new Map<string, number>();
   private last = "\u0000";
   private lastCode = -1;
 
-  push(raw: string): void {
-    if (raw === this.last) {
-      this.codes.push(this.lastCode);
-      return;
-    }
-    const v = raw.trim();
+  /** @param normalise turns a raw cell into the stored value (default: trim). */
+  constructor(private readonly normalise: (raw: string) => string = (s) => s.trim()) {}
+
+  /** Code of a raw cell (-1 for blank). */
+  code(raw: string): number {
+    if (raw === this.last) return this.lastCode;
+    const v = this.normalise(raw);
     let code = -1;
     if (v !== "") {
       const hit = this.dict.get(v);
@@ -69,93 +28,109 @@ export class CodedBuilder {
     }
     this.last = raw;
     this.lastCode = code;
-    this.codes.push(code);
+    return code;
   }
 
-  /** Pushes the text `text[s, e)`; no substring is made when it equals the previous cell. */
-  pushSpan(text: string, s: number, e: number): void {
+  /** Code of the raw cell `text[s, e)`. */
+  codeOfSpan(text: string, s: number, e: number): number {
     const last = this.last;
-    if (e - s === last.length && text.startsWith(last, s)) {
-      this.codes.push(this.lastCode);
-      return;
-    }
-    this.push(text.substring(s, e));
-  }
-
-  /** Pushes an already normalised value (no caching on the raw text). */
-  pushValue(v: string): void {
-    this.last = "\u0000";
-    let code = -1;
-    if (v !== "") {
-      const hit = this.dict.get(v);
-      if (hit === undefined) {
-        code = this.values.length;
-        this.values.push(v);
-        this.dict.set(v, code);
-      } else code = hit;
-    }
-    this.codes.push(code);
-  }
-
-  done(): CodedColumn {
-    return { codes: this.codes.done(), values: this.values.slice() };
+    if (e - s === last.length && text.startsWith(last, s)) return this.lastCode;
+    return this.code(text.substring(s, e));
   }
 }
 
-/** Which optional columns a builder should collect. */
-export interface BuilderShape {
+/** Which optional columns a store should hold. */
+export interface StoreShape {
   id: boolean;
   attrs: readonly AttributeName[];
   time: boolean;
   hdop: boolean;
   precision: boolean;
   raw: boolean;
+  /** Per-attribute normalisers (e.g. fix quality); default trim. */
+  normalise?: Partial<Record<AttributeName, (raw: string) => string>>;
 }
 
-/** Column-wise accumulator for one file; `finish` returns a PointTable of exact length. */
-export class TableBuilder {
-  readonly x = new GrowF64();
-  readonly y = new GrowF64();
-  readonly line = new GrowI32();
+/**
+ * Column store for one file: typed arrays that grow together by doubling (one capacity check per
+ * row). `finish` returns a PointTable of exact length.
+ */
+export class ColumnStore {
+  n = 0;
+  private cap = 4096;
+  x = new Float64Array(this.cap);
+  y = new Float64Array(this.cap);
+  line = new Int32Array(this.cap);
+  time: Float64Array | null;
+  hdop: Float64Array | null;
+  precision: Float64Array | null;
+  rawX: Float64Array | null;
+  rawY: Float64Array | null;
+  /** One code array per attribute, in `shape.attrs` order. */
+  codes: Int32Array[];
+  readonly dicts: Dictionary[];
   readonly id: string[] | null;
-  readonly attrs: Partial<Record<AttributeName, CodedBuilder>> = {};
-  readonly time: GrowF64 | null;
-  readonly hdop: GrowF64 | null;
-  readonly precision: GrowF64 | null;
-  readonly rawX: GrowF64 | null;
-  readonly rawY: GrowF64 | null;
 
-  constructor(readonly shape: BuilderShape) {
+  constructor(readonly shape: StoreShape) {
+    const f = (on: boolean) => (on ? new Float64Array(this.cap) : null);
+    this.time = f(shape.time);
+    this.hdop = f(shape.hdop);
+    this.precision = f(shape.precision);
+    this.rawX = f(shape.raw);
+    this.rawY = f(shape.raw);
+    this.codes = shape.attrs.map(() => new Int32Array(this.cap));
+    this.dicts = shape.attrs.map((a) => new Dictionary(shape.normalise?.[a]));
     this.id = shape.id ? [] : null;
-    for (const a of shape.attrs) this.attrs[a] = new CodedBuilder();
-    this.time = shape.time ? new GrowF64() : null;
-    this.hdop = shape.hdop ? new GrowF64() : null;
-    this.precision = shape.precision ? new GrowF64() : null;
-    this.rawX = shape.raw ? new GrowF64() : null;
-    this.rawY = shape.raw ? new GrowF64() : null;
   }
 
-  get length(): number {
-    return this.x.n;
+  /** Makes room for one more row. */
+  ensure(): void {
+    if (this.n < this.cap) return;
+    const cap = this.cap * 2;
+    const gf = (a: Float64Array) => {
+      const b = new Float64Array(cap);
+      b.set(a);
+      return b;
+    };
+    const gi = (a: Int32Array) => {
+      const b = new Int32Array(cap);
+      b.set(a);
+      return b;
+    };
+    this.x = gf(this.x);
+    this.y = gf(this.y);
+    this.line = gi(this.line);
+    if (this.time) this.time = gf(this.time);
+    if (this.hdop) this.hdop = gf(this.hdop);
+    if (this.precision) this.precision = gf(this.precision);
+    if (this.rawX) this.rawX = gf(this.rawX);
+    if (this.rawY) this.rawY = gf(this.rawY);
+    this.codes = this.codes.map(gi);
+    this.cap = cap;
   }
 
   finish(source: string, role: FileRole): PointTable {
+    const n = this.n;
     const attrs: PointTable["attrs"] = {};
-    for (const [k, b] of Object.entries(this.attrs) as [AttributeName, CodedBuilder][]) attrs[k] = b.done();
+    this.shape.attrs.forEach((a, k) => {
+      const col: CodedColumn = { codes: this.codes[k].slice(0, n), values: this.dicts[k].values.slice() };
+      attrs[a] = col;
+    });
+    const cut = (a: Float64Array | null) => (a ? a.slice(0, n) : null);
     return {
       source,
       role,
-      length: this.x.n,
-      x: this.x.done(),
-      y: this.y.done(),
-      line: this.line.done(),
+      length: n,
+      x: this.x.slice(0, n),
+      y: this.y.slice(0, n),
+      line: this.line.slice(0, n),
       id: this.id,
       attrs,
-      time: this.time ? this.time.done() : null,
-      hdop: this.hdop ? this.hdop.done() : null,
-      precision: this.precision ? this.precision.done() : null,
-      rawX: this.rawX ? this.rawX.done() : null,
-      rawY: this.rawY ? this.rawY.done() : null,
+      time: cut(this.time),
+      hdop: cut(this.hdop),
+      precision: cut(this.precision),
+      rawX: cut(this.rawX),
+      rawY: cut(this.rawY),
     };
   }
 }

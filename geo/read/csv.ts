@@ -19,6 +19,8 @@ export interface ReadOptions {
   delimiter?: "," | ";" | "\t" | "|";
   /** Issues of one kind kept per file (default 50). */
   issueCap?: number;
+  /** Characters per parsing slice (default about 1 MB); small values exercise slice boundaries in tests. */
+  sliceChars?: number;
 }
 
 /** What a reader returns. `table` is null when any error was found. */
@@ -164,7 +166,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   /** Quote-free text: split rows and fields by hand, only the cells a role needs are read. */
   const fastParse = (text: string, last: boolean): void => {
     const s = sink!;
-    const { starts, ends } = s.spanBuffers();
+    const { starts, ends } = s;
     const lastNeeded = s.lastNeeded;
     const nlChar = newline === "\r" ? "\r" : "\n";
     const crlf = newline === "\r\n";
@@ -229,11 +231,13 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   };
 
   try {
-    for await (const chunk of textChunks(input)) {
+    for await (const chunk of textChunks(input, options.sliceChars)) {
       if (stopped) break;
       let text = pending + chunk;
       if (parser === null) {
-        if (text.indexOf("\n") < 0 && text.indexOf("\r") < 0 && text.length < MAX_PENDING) {
+        // Wait for a whole first line; a lone "\r" at the end may be the first half of "\r\n".
+        const cr = text.indexOf("\r");
+        if (text.indexOf("\n") < 0 && (cr < 0 || cr === text.length - 1) && text.length < MAX_PENDING) {
           pending = text;
           continue;
         }

@@ -1,6 +1,6 @@
 import type { AttributeName, FileRole, PointTable } from "../types";
 import type { IssueCollector } from "../validate/issues";
-import { TableBuilder, type CodedBuilder } from "./builder";
+import { ColumnStore } from "./builder";
 import type { ColumnPlan, ColumnRole } from "./columns";
 import { normaliseFix, parseNumber, TimeReader } from "./values";
 
@@ -16,18 +16,26 @@ export interface SinkOptions {
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 
+/** Outcome codes of `parseSpanTo` (small integers, so nothing is boxed on the hot path). */
+export const NUM_OK = 0, NUM_BLANK = 1, NUM_TEXT = 2;
+
 /**
- * Parses the number written in `text[s, e)` without making a substring.
+ * Parses the number written in `text[s, e)` into `out[0]` without making a substring; returns
+ * NUM_OK, NUM_BLANK (only spaces) or NUM_TEXT (not a number; `out[0]` = NaN).
  * Plain decimals of at most 15 significant digits are computed as an exact integer divided by an
- * exact power of ten, which IEEE 754 rounds correctly (Clinger's fast path); anything else (exponents,
- * more digits) falls back to `parseNumber` on the substring. Blank → undefined, text → NaN.
+ * exact power of ten, which IEEE 754 division rounds correctly (Clinger's fast path, W. D. Clinger,
+ * "How to read floating point numbers accurately", PLDI 1990); anything else (exponents, more digits,
+ * "Infinity") falls back to `parseNumber` on the substring. With `decimalComma` one comma is the decimal mark.
  *
- * @example parseSpan("x,52.125,y", 2, 8, false) // 52.125
+ * @example const o = new Float64Array(1); parseSpanTo("x,52.125,y", 2, 8, false, o); o[0] // 52.125
  */
-export function parseSpan(text: string, s: number, e: number, decimalComma: boolean): number | undefined {
+export function parseSpanTo(text: string, s: number, e: number, decimalComma: boolean, out: Float64Array): number {
   while (s < e && text.charCodeAt(s) <= 32) s++;
   while (e > s && text.charCodeAt(e - 1) <= 32) e--;
-  if (s === e) return undefined;
+  if (s === e) {
+    out[0] = NaN;
+    return NUM_BLANK;
+  }
   let i = s;
   let neg = false;
   let c = text.charCodeAt(i);
@@ -48,41 +56,40 @@ export function parseSpan(text: string, s: number, e: number, decimalComma: bool
       seenDot = true;
     } else break;
   }
-  if (i === e && any && digits <= 15 && (frac > 0 || digits > 0 || any)) {
-    if (seenDot && frac === 0 && digits === 0) return neg ? -0 : 0;
+  if (i === e && any && digits <= 15) {
     const v = frac === 0 ? m : m / POW10[frac];
-    return neg ? -v : v;
+    out[0] = neg ? -v : v;
+    return NUM_OK;
   }
-  return parseNumber(text.substring(s, e), decimalComma);
+  const v = parseNumber(text.substring(s, e), decimalComma);
+  out[0] = v === undefined ? NaN : v;
+  return v === undefined ? NUM_BLANK : v === v ? NUM_OK : NUM_TEXT;
 }
 
 /**
  * Turns rows of cells into columns, reporting cell problems with file, line, column and value.
- * Rows come either as spans of one text (the CSV fast path: no per-row strings except ids) or as
- * arrays of strings (papaparse rows for quoted text, GeoJSON properties).
+ * A row is given as spans of one text (the CSV fast path: no string per cell except ids), or as an
+ * array of strings (papaparse rows of quoted text, GeoJSON properties), which is joined into one
+ * text with spans so both take the same path.
  */
 export class RowSink {
-  private readonly b: TableBuilder;
+  private readonly store: ColumnStore;
   private readonly ix: Record<ColumnRole, number>;
   private readonly names: string[];
-  private readonly attrIdx: [AttributeName, number, CodedBuilder][] = [];
+  private readonly attrCols: Int32Array;
   private readonly times: TimeReader | null;
-  private readonly fixCache = new Map<string, string>();
   private readonly decimalComma: boolean;
+  private readonly num = new Float64Array(1);
   readonly width: number;
-  /** Highest column index any role needs (the fast path stops splitting after it). */
+  /** Highest column index any role needs (the fast path stops storing spans after it). */
   readonly lastNeeded: number;
+  /** Span buffers: the fast path fills `starts[i]`/`ends[i]` for fields 0..n-1, then calls `addSpans`. */
+  readonly starts: Int32Array;
+  readonly ends: Int32Array;
   private noZoneFirst = -1;
   private noZoneCount = 0;
   private missingIds: number[] = [];
   private missingIdCount = 0;
-
-  // Current row: either `row` (array mode) or `text` + spans.
-  private row: readonly string[] | null = null;
-  private text = "";
-  private starts: Int32Array;
-  private ends: Int32Array;
-  private nFields = 0;
 
   constructor(
     plan: ColumnPlan,
@@ -95,17 +102,17 @@ export class RowSink {
     this.starts = new Int32Array(this.width + 1);
     this.ends = new Int32Array(this.width + 1);
     this.decimalComma = options.decimalComma;
-    const attrs: AttributeName[] = [];
-    for (const a of ATTR_ROLES) if (this.ix[a] >= 0) attrs.push(a);
-    this.b = new TableBuilder({
+    const attrs = ATTR_ROLES.filter((a) => this.ix[a] >= 0);
+    this.attrCols = Int32Array.from(attrs.map((a) => this.ix[a]));
+    this.store = new ColumnStore({
       id: this.ix.id >= 0,
       attrs,
       time: this.ix.time >= 0,
       hdop: this.ix.hdop >= 0,
       precision: this.ix.precision >= 0,
       raw: this.ix.rawX >= 0 && this.ix.rawY >= 0,
+      normalise: { fix: normaliseFix },
     });
-    for (const a of attrs) this.attrIdx.push([a, this.ix[a], this.b.attrs[a]!]);
     this.lastNeeded = Math.max(...Object.values(this.ix));
     this.times = this.ix.time >= 0 ? new TimeReader(options.timeZone) : null;
     if (this.times && options.timeZone && !this.times.zoneValid) {
@@ -120,179 +127,169 @@ export class RowSink {
   }
 
   get rows(): number {
-    return this.b.length;
-  }
-
-  /** Span buffers for the fast path: fill `starts[i]`/`ends[i]` for fields 0..n-1, then call `addSpans`. */
-  spanBuffers(): { starts: Int32Array; ends: Int32Array } {
-    return { starts: this.starts, ends: this.ends };
-  }
-
-  /** Adds a row given as spans of `text` (fields 0..nFields-1 filled in the span buffers). */
-  addSpans(text: string, nFields: number, line: number, fieldCount: number): boolean {
-    this.row = null;
-    this.text = text;
-    this.nFields = nFields;
-    return this.addCurrent(line, fieldCount);
+    return this.store.n;
   }
 
   /** Adds a row of string cells. `gx`/`gy` (GeoJSON geometry) replace the x/y cells when given. */
   add(row: readonly string[], line: number, gx?: number, gy?: number): boolean {
-    this.row = row;
-    this.nFields = row.length;
-    return this.addCurrent(line, gx === undefined ? row.length : this.width, gx, gy);
+    const n = Math.min(row.length, this.lastNeeded + 1);
+    let pos = 0;
+    for (let i = 0; i < n; i++) {
+      this.starts[i] = pos;
+      pos += row[i].length;
+      this.ends[i] = pos;
+    }
+    const text = n === 1 ? row[0] : row.slice(0, n).join("");
+    return this.addSpans(text, n, line, gx === undefined ? row.length : this.width, gx, gy);
   }
 
-  private has(col: number): boolean {
-    return col >= 0 && col < this.nFields;
+  /** The cell `col` of the current row as a string ("" when absent). */
+  private cell(text: string, nFields: number, col: number): string {
+    return col >= 0 && col < nFields ? text.substring(this.starts[col], this.ends[col]) : "";
   }
 
-  private cell(col: number): string {
-    if (!this.has(col)) return "";
-    return this.row ? this.row[col] : this.text.substring(this.starts[col], this.ends[col]);
-  }
-
-  private num(col: number): number | undefined {
-    if (!this.has(col)) return undefined;
-    return this.row ? parseNumber(this.row[col], this.decimalComma) : parseSpan(this.text, this.starts[col], this.ends[col], this.decimalComma);
-  }
-
-  private addCurrent(line: number, fieldCount: number, gx?: number, gy?: number): boolean {
-    const ix = this.ix;
-    const file = this.options.source;
+  /**
+   * Adds a row given as spans of `text` (fields 0..nFields-1 in the span buffers; `fieldCount` is the
+   * row's real number of fields, for the ragged-row warning). `gx`/`gy` replace the x/y cells.
+   */
+  addSpans(text: string, nFields: number, line: number, fieldCount: number, gx?: number, gy?: number): boolean {
+    const ix = this.ix, st = this.starts, en = this.ends, num = this.num, dc = this.decimalComma;
     if (fieldCount !== this.width) {
       this.issues.add({
         severity: "warning",
         code: "row-field-count",
-        file,
+        file: this.options.source,
         line,
         message: `row has ${fieldCount} fields, the header has ${this.width}; cells are matched by position`,
       });
     }
-    let x: number | undefined, y: number | undefined;
+    let x: number, y: number;
     if (gx !== undefined && gy !== undefined) {
       x = gx;
       y = gy;
     } else {
-      x = this.num(ix.x);
-      y = this.num(ix.y);
-      if (x !== x || y !== y) {
-        if (x !== x) this.badNumber(line, ix.x);
-        if (y !== y) this.badNumber(line, ix.y);
-        return false;
-      }
+      const cx = ix.x, cy = ix.y;
+      const kx = cx < nFields ? parseSpanTo(text, st[cx], en[cx], dc, num) : NUM_BLANK;
+      x = num[0];
+      const ky = cy < nFields ? parseSpanTo(text, st[cy], en[cy], dc, num) : NUM_BLANK;
+      y = num[0];
+      if (kx !== NUM_OK || ky !== NUM_OK) return this.badPosition(text, nFields, line, kx, ky);
     }
-    if (x === undefined || y === undefined) {
-      this.issues.add({
-        severity: "warning",
-        code: "coordinate-missing",
-        file,
-        line,
-        column: this.names[x === undefined ? ix.x : ix.y],
-        message: "the row has no position; it is left out",
-      });
-      return false;
-    }
-    if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      const bad = !Number.isFinite(x) ? ix.x : ix.y;
-      this.issues.add({
-        severity: "error",
-        code: "coordinate-not-finite",
-        file,
-        line,
-        column: this.names[bad],
-        value: gx === undefined ? this.cell(bad) : String(bad === ix.x ? x : y),
-        message: "expected a finite number",
-      });
-      return false;
-    }
-    const b = this.b;
-    b.x.push(x);
-    b.y.push(y);
-    b.line.push(line);
-    if (b.id) {
-      const id = this.cell(ix.id).trim();
-      b.id.push(id);
+    if (!(x - x === 0) || !(y - y === 0)) return this.notFinite(text, nFields, line, x, y, gx !== undefined);
+
+    const s = this.store;
+    s.ensure();
+    const r = s.n;
+    s.x[r] = x;
+    s.y[r] = y;
+    s.line[r] = line;
+    if (s.id) {
+      const c = ix.id;
+      const id = c < nFields ? text.substring(st[c], en[c]).trim() : "";
+      s.id.push(id);
       if (id === "") {
         this.missingIdCount++;
         if (this.missingIds.length < 20) this.missingIds.push(line);
       }
     }
-    for (let k = 0; k < this.attrIdx.length; k++) {
-      const a = this.attrIdx[k];
-      const c = a[1];
-      if (a[0] === "fix") {
-        const v = this.cell(c);
-        let f = this.fixCache.get(v);
-        if (f === undefined) {
-          f = normaliseFix(v);
-          if (this.fixCache.size < 1000) this.fixCache.set(v, f);
-        }
-        a[2].pushValue(f);
-      } else if (this.row) a[2].push(this.has(c) ? this.row[c] : "");
-      else if (this.has(c)) a[2].pushSpan(this.text, this.starts[c], this.ends[c]);
-      else a[2].push("");
+    const cols = this.attrCols;
+    for (let k = 0; k < cols.length; k++) {
+      const c = cols[k];
+      s.codes[k][r] = c < nFields ? s.dicts[k].codeOfSpan(text, st[c], en[c]) : -1;
     }
-    if (b.hdop) b.hdop.push(this.optionalNumber(ix.hdop, line));
-    if (b.precision) b.precision.push(this.optionalNumber(ix.precision, line));
-    if (b.rawX && b.rawY) {
-      b.rawX.push(this.optionalNumber(ix.rawX, line));
-      b.rawY.push(this.optionalNumber(ix.rawY, line));
+    if (s.hdop) s.hdop[r] = this.optionalNumber(text, nFields, ix.hdop, line);
+    if (s.precision) s.precision[r] = this.optionalNumber(text, nFields, ix.precision, line);
+    if (s.rawX && s.rawY) {
+      s.rawX[r] = this.optionalNumber(text, nFields, ix.rawX, line);
+      s.rawY[r] = this.optionalNumber(text, nFields, ix.rawY, line);
     }
-    if (b.time && this.times) {
-      const raw = this.cell(ix.time);
-      const t = this.times.parse(raw);
-      if (t.ok) b.time.push(t.ms);
-      else {
-        b.time.push(NaN);
-        if (t.reason === "no-zone") {
-          if (this.noZoneCount++ === 0) this.noZoneFirst = line;
-        } else if (t.reason === "not-a-time") {
-          this.issues.add({
-            severity: "warning",
-            code: "time-not-parseable",
-            file,
-            line,
-            column: this.names[ix.time],
-            value: raw,
-            message: "expected an ISO 8601 time such as 2025-05-03T08:15:00+02:00; the time is left empty",
-          });
-        }
-      }
-    }
+    if (s.time && this.times) s.time[r] = this.timeOf(text, nFields, line);
+    s.n = r + 1;
     return true;
   }
 
-  private badNumber(line: number, col: number): void {
+  private badPosition(text: string, nFields: number, line: number, kx: number, ky: number): false {
+    const ix = this.ix;
+    if (kx === NUM_TEXT || ky === NUM_TEXT) {
+      for (const [k, c] of [[kx, ix.x], [ky, ix.y]] as const) {
+        if (k !== NUM_TEXT) continue;
+        this.issues.add({
+          severity: "error",
+          code: "coordinate-not-numeric",
+          file: this.options.source,
+          line,
+          column: this.names[c],
+          value: this.cell(text, nFields, c),
+          message: this.decimalComma
+            ? "expected a number (decimal point or decimal comma)"
+            : "expected a number with a decimal point (this file is comma-separated, so a decimal comma cannot be read)",
+        });
+      }
+      return false;
+    }
     this.issues.add({
-      severity: "error",
-      code: "coordinate-not-numeric",
+      severity: "warning",
+      code: "coordinate-missing",
       file: this.options.source,
       line,
-      column: this.names[col],
-      value: this.cell(col),
-      message: this.decimalComma
-        ? "expected a number (decimal point or decimal comma)"
-        : "expected a number with a decimal point (this file is comma-separated, so a decimal comma cannot be read)",
+      column: this.names[kx === NUM_BLANK ? ix.x : ix.y],
+      message: "the row has no position; it is left out",
     });
+    return false;
   }
 
-  private optionalNumber(col: number, line: number): number {
-    const v = this.num(col);
-    if (v === undefined) return NaN;
-    if (!Number.isFinite(v)) {
+  private notFinite(text: string, nFields: number, line: number, x: number, y: number, geometry: boolean): false {
+    const bad = Number.isFinite(x) ? this.ix.y : this.ix.x;
+    this.issues.add({
+      severity: "error",
+      code: "coordinate-not-finite",
+      file: this.options.source,
+      line,
+      column: geometry ? "geometry" : this.names[bad],
+      value: geometry ? String(bad === this.ix.x ? x : y) : this.cell(text, nFields, bad),
+      message: "expected a finite number",
+    });
+    return false;
+  }
+
+  private optionalNumber(text: string, nFields: number, col: number, line: number): number {
+    if (col >= nFields) return NaN;
+    const k = parseSpanTo(text, this.starts[col], this.ends[col], this.decimalComma, this.num);
+    const v = this.num[0];
+    if (k === NUM_OK && v - v === 0) return v;
+    if (k !== NUM_BLANK) {
       this.issues.add({
         severity: "warning",
         code: "value-not-numeric",
         file: this.options.source,
         line,
         column: this.names[col],
-        value: this.cell(col),
-        message: "expected a number; the value is left empty",
+        value: this.cell(text, nFields, col),
+        message: "expected a finite number; the value is left empty",
       });
-      return NaN;
     }
-    return v;
+    return NaN;
+  }
+
+  private timeOf(text: string, nFields: number, line: number): number {
+    const col = this.ix.time;
+    const raw = this.cell(text, nFields, col);
+    const t = this.times!.parse(raw);
+    if (t.ok) return t.ms;
+    if (t.reason === "no-zone") {
+      if (this.noZoneCount++ === 0) this.noZoneFirst = line;
+    } else if (t.reason === "not-a-time") {
+      this.issues.add({
+        severity: "warning",
+        code: "time-not-parseable",
+        file: this.options.source,
+        line,
+        column: this.names[col],
+        value: raw,
+        message: "expected an ISO 8601 time such as 2025-05-03T08:15:00+02:00; the time is left empty",
+      });
+    }
+    return NaN;
   }
 
   /** Builds the table and adds the summary issues (missing ids, times without a zone). */
@@ -318,6 +315,6 @@ export class RowSink {
         message: `${this.noZoneCount} time(s) have no UTC offset; give the field's time zone (e.g. --timezone Europe/Berlin) to use them. Until then they are left empty`,
       });
     }
-    return this.b.finish(file, this.options.role);
+    return this.store.finish(file, this.options.role);
   }
 }

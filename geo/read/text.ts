@@ -19,17 +19,17 @@ export class NotTextError extends Error {}
 export const SLICE = 1 << 20;
 
 /**
- * Yields the input as strings of roughly `SLICE` characters (smaller chunks are joined, a large
+ * Yields the input as strings of roughly `slice` characters (default `SLICE`) (smaller chunks are joined, a large
  * string is sliced). The first string has no byte-order mark.
  * Throws NotTextError for zip/xlsx, gzip or binary (NUL bytes) content in the first chunk.
  *
  * @example for await (const s of textChunks("a,b\n1,2\n")) console.log(s) // "a,b\n1,2\n"
  */
-export async function* textChunks(input: TextInput): AsyncGenerator<string> {
+export async function* textChunks(input: TextInput, slice: number = SLICE): AsyncGenerator<string> {
   if (typeof input === "string") {
     const s = input.charCodeAt(0) === 0xfeff ? input.slice(1) : input;
     checkText(s.slice(0, 4096));
-    for (let i = 0; i < s.length; i += SLICE) yield s.slice(i, i + SLICE);
+    for (let i = 0; i < s.length; i += slice) yield s.slice(i, i + slice);
     return;
   }
   const decoder = new TextDecoder("utf-8");
@@ -51,7 +51,7 @@ export async function* textChunks(input: TextInput): AsyncGenerator<string> {
     if (s.length === 0) continue;
     pending.push(s);
     size += s.length;
-    if (size >= SLICE) {
+    if (size >= slice) {
       yield pending.length === 1 ? pending[0] : pending.join("");
       pending = [];
       size = 0;

@@ -2,6 +2,7 @@ import { containsLonLat, type CrsEntry } from "../crs/registry";
 import { medianOf, toLonLat } from "../project";
 import type { ColumnGuess } from "../read/columns";
 import type { InputIssue, PointTable } from "../types";
+import { findDuplicateIds } from "../ids";
 import { IssueCollector } from "./issues";
 
 /** Options of `validateTable`. */
@@ -145,23 +146,10 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
 
   // Duplicate ids.
   if (table.id) {
-    const first = new Map<string, number>();
-    let dups: Map<string, number[]> | null = null;
-    const ids = table.id;
-    for (let i = 0; i < n; i++) {
-      const id = ids[i];
-      if (id === "") continue;
-      const j = first.get(id);
-      if (j === undefined) first.set(id, i);
-      else {
-        dups ??= new Map();
-        let l = dups.get(id);
-        if (!l) dups.set(id, (l = [line[j]]));
-        l.push(line[i]);
-      }
-    }
-    if (dups) {
-      for (const [id, lines] of dups) {
+    const duplicates = findDuplicateIds(table.id);
+    if (duplicates) {
+      for (const [id, rows] of duplicates) {
+        const lines = rows.map((r) => line[r]);
         issues.add({
           severity: "error",
           code: "id-duplicate",

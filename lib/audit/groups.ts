@@ -49,21 +49,31 @@ const keyCollator = new Intl.Collator("en", { numeric: true, sensitivity: "varia
 /**
  * Statistics per group. `codes[i]` is the group of pair i (index into `values`, −1 = missing value); groups with no
  * pairs are left out; rows are ordered by key in natural order ("2" before "10"), the missing-value group last.
- * Percentiles: Hyndman & Fan type 7. Interval: Clopper–Pearson at `confidence`. Inputs are not modified.
+ * Percentiles: Hyndman & Fan type 7. Interval: Clopper–Pearson at `confidence`. Inputs are not modified; `scratch`
+ * (length ≥ n), when given, is used as work space and overwritten.
  *
  * Source: formulas as in rmse.ts, radii.ts and intervals.ts (FGDC-STD-007.3-1998; Hyndman & Fan 1996; Clopper & Pearson 1934).
  *
  * @example groupStatistics(Int32Array.of(0, 0, 1), ["L", "R"], errors, 0.95) // [{ key: "L", pairs: 2, ... }, { key: "R", pairs: 1, ... }]
  */
-export function groupStatistics(codes: Int32Array, values: readonly string[], errors: PairErrors, confidence: number): GroupRow[] {
+export function groupStatistics(
+  codes: Int32Array,
+  values: readonly string[],
+  errors: PairErrors,
+  confidence: number,
+  scratch?: Float64Array,
+): GroupRow[] {
   const n = codes.length;
   const { dE, dN, along, cross, radial, within } = errors;
   if (dE.length !== n || dN.length !== n || radial.length !== n) throw new Error("groupStatistics: column lengths differ");
   const g = values.length + 1; // last slot = missing value
-  const slotOf = (code: number): number => {
-    if (code < -1 || code >= values.length) throw new Error(`groupStatistics: code ${code} out of range`);
-    return code < 0 ? values.length : code;
-  };
+  const missing = values.length;
+  const slot = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    const code = codes[i];
+    if (code < -1 || code >= missing) throw new Error(`groupStatistics: code ${code} out of range`);
+    slot[i] = code < 0 ? missing : code;
+  }
   const count = new Float64Array(g);
   const sumE = new Float64Array(g);
   const sumN = new Float64Array(g);
@@ -73,22 +83,24 @@ export function groupStatistics(codes: Int32Array, values: readonly string[], er
   const sumC2 = new Float64Array(g);
   const inside = new Float64Array(g);
   for (let i = 0; i < n; i++) {
-    const s = slotOf(codes[i]);
+    const s = slot[i];
+    const e = dE[i];
+    const nn = dN[i];
     count[s]++;
-    sumE[s] += dE[i];
-    sumN[s] += dN[i];
-    sumE2[s] += dE[i] * dE[i];
-    sumN2[s] += dN[i] * dN[i];
-    if (along) sumA2[s] += along[i] * along[i];
-    if (cross) sumC2[s] += cross[i] * cross[i];
-    if (within) inside[s] += within[i];
+    sumE[s] += e;
+    sumN[s] += nn;
+    sumE2[s] += e * e;
+    sumN2[s] += nn * nn;
   }
+  if (along !== null) for (let i = 0; i < n; i++) sumA2[slot[i]] += along[i] * along[i];
+  if (cross !== null) for (let i = 0; i < n; i++) sumC2[slot[i]] += cross[i] * cross[i];
+  if (within !== null) for (let i = 0; i < n; i++) inside[slot[i]] += within[i];
   // Radial errors laid out group by group for the percentiles.
   const offset = new Int32Array(g + 1);
   for (let s = 0; s < g; s++) offset[s + 1] = offset[s] + count[s];
   const cursor = offset.slice(0, g);
-  const grouped = new Float64Array(n);
-  for (let i = 0; i < n; i++) grouped[cursor[slotOf(codes[i])]++] = radial[i];
+  const grouped = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
+  for (let i = 0; i < n; i++) grouped[cursor[slot[i]]++] = radial[i];
 
   const rows: GroupRow[] = [];
   for (let s = 0; s < g; s++) {

@@ -7,7 +7,7 @@
  */
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { applySimilarity, fitSimilarity } from "./helmert";
+import { applySimilarity, fitSimilarity, fitSimilarityToErrors } from "./helmert";
 
 // IOGP 373-7-2 / ICGC: source (ED50 / UTM 31N) and published target (ETRS89 / UTM 31N), metres
 const SOURCE_E = Float64Array.of(300000, 315000, 520000, 420000);
@@ -90,6 +90,21 @@ describe("helmert", () => {
     expect(() => fitSimilarity(Float64Array.of(1, 2), Float64Array.of(1), Float64Array.of(1, 2), Float64Array.of(1, 2))).toThrow(
       "fitSimilarity: coordinate arrays differ in length",
     );
+  });
+
+  it("fitSimilarityToErrors -- same fit from errors and row indices", () => {
+    // pairs listed in a different order, source rows reached through an index
+    const order = Int32Array.of(2, 0, 3, 1);
+    const dE = Float64Array.from(order, (r) => TARGET_E[r] - SOURCE_E[r]);
+    const dN = Float64Array.from(order, (r) => TARGET_N[r] - SOURCE_N[r]);
+    const a = fitSimilarity(SOURCE_E, SOURCE_N, TARGET_E, TARGET_N)!;
+    const b = fitSimilarityToErrors(SOURCE_E, SOURCE_N, order, dE, dN)!;
+    expect(b.scale).toBeCloseTo(a.scale, 13);
+    expect(b.rotationArcsec).toBeCloseTo(a.rotationArcsec, 8);
+    expect(b.tE).toBeCloseTo(a.tE, 6);
+    expect(b.tN).toBeCloseTo(a.tN, 6);
+    expect(b.residualMax).toBeCloseTo(a.residualMax, 9);
+    expect(() => fitSimilarityToErrors(SOURCE_E, SOURCE_N, Int32Array.of(0), dE, dN)).toThrow("fitSimilarity: coordinate arrays differ in length");
   });
 
   it("fitSimilarity -- inputs not mutated", () => {

@@ -64,52 +64,96 @@ export function fitSimilarity(
   if (srcY.length !== n || dstE.length !== n || dstN.length !== n) {
     throw new Error("fitSimilarity: coordinate arrays differ in length");
   }
+  const x = Float64Array.from(srcX);
+  const y = Float64Array.from(srcY);
+  const dE = new Float64Array(n);
+  const dN = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    dE[i] = dstE[i] - x[i];
+    dN[i] = dstN[i] - y[i];
+  }
+  return fitSimilarityToErrors(x, y, null, dE, dN);
+}
+
+/**
+ * The same least-squares similarity fit as {@link fitSimilarity}, from source coordinates and the errors
+ * (target − source) of each pair, without building target arrays: pair i uses source row `rows[i]` (or i when
+ * `rows` is null) and errors dE[i], dN[i]. Working with errors keeps M − 1 precise: with centred source x, y and
+ * centred errors u, v, a − 1 = Σ(x·u + y·v)/S and b = Σ(y·u − x·v)/S, S = Σ(x² + y²). Metres. Inputs not modified.
+ *
+ * Source: IOGP Publication 373-7-2 (EPSG method 9621).
+ *
+ * @example fitSimilarityToErrors(Float64Array.of(0, 1), Float64Array.of(0, 0), null, Float64Array.of(5, 5), Float64Array.of(7, 7))
+ *   // { scale: 1, rotationArcsec: 0, tE: 5, tN: 7, ... }
+ */
+export function fitSimilarityToErrors(
+  srcX: Float64Array,
+  srcY: Float64Array,
+  rows: Int32Array | null,
+  dE: Float64Array,
+  dN: Float64Array,
+): SimilarityFit | null {
+  const n = dE.length;
+  if (dN.length !== n || (rows !== null && rows.length !== n) || (rows === null && (srcX.length !== n || srcY.length !== n))) {
+    throw new Error("fitSimilarity: coordinate arrays differ in length");
+  }
   if (n < 2) return null;
+  // Source centroid taken relative to the first point, so sums of UTM-sized values keep the millimetres.
+  const first = rows === null ? 0 : rows[0];
+  const x0 = srcX[first];
+  const y0 = srcY[first];
   let mx = 0;
   let my = 0;
-  let me = 0;
-  let mn = 0;
+  let mu = 0;
+  let mv = 0;
   for (let i = 0; i < n; i++) {
-    mx += srcX[i];
-    my += srcY[i];
-    me += dstE[i];
-    mn += dstN[i];
+    const r = rows === null ? i : rows[i];
+    mx += srcX[r] - x0;
+    my += srcY[r] - y0;
+    mu += dE[i];
+    mv += dN[i];
   }
   mx /= n;
   my /= n;
-  me /= n;
-  mn /= n;
+  mu /= n;
+  mv /= n;
   let sxx = 0;
   let sa = 0;
   let sb = 0;
   for (let i = 0; i < n; i++) {
-    const x = srcX[i] - mx;
-    const y = srcY[i] - my;
-    const e = dstE[i] - me;
-    const nn = dstN[i] - mn;
+    const r = rows === null ? i : rows[i];
+    const x = srcX[r] - x0 - mx;
+    const y = srcY[r] - y0 - my;
+    const u = dE[i] - mu;
+    const v = dN[i] - mv;
     sxx += x * x + y * y;
-    sa += x * e + y * nn;
-    sb += y * e - x * nn;
+    sa += x * u + y * v;
+    sb += y * u - x * v;
   }
   if (!(sxx > 0)) return null;
-  const a = sa / sxx;
+  const am1 = sa / sxx; // a − 1
   const b = sb / sxx;
   let ss = 0;
   let maxR2 = 0;
   for (let i = 0; i < n; i++) {
-    const x = srcX[i] - mx;
-    const y = srcY[i] - my;
-    const ve = dstE[i] - me - (a * x + b * y);
-    const vn = dstN[i] - mn - (-b * x + a * y);
+    const r = rows === null ? i : rows[i];
+    const x = srcX[r] - x0 - mx;
+    const y = srcY[r] - y0 - my;
+    const ve = dE[i] - mu - (am1 * x + b * y);
+    const vn = dN[i] - mv - (-b * x + am1 * y);
     const r2 = ve * ve + vn * vn;
     ss += r2;
     if (r2 > maxR2) maxR2 = r2;
   }
+  const a = 1 + am1;
+  // Shifts of the un-centred formula: tE = Ē − aX̄ − bȲ with Ē = X̄ + ū, i.e. tE = ū − (a − 1)X̄ − bȲ; likewise tN.
+  const cx = x0 + mx;
+  const cy = y0 + my;
   return {
     scale: Math.hypot(a, b),
     rotationArcsec: Math.atan2(b, a) * ARCSEC_PER_RADIAN,
-    tE: me - a * mx - b * my,
-    tN: mn + b * mx - a * my,
+    tE: mu - am1 * cx - b * cy,
+    tN: mv + b * cx - am1 * cy,
     pairs: n,
     rmse: Math.sqrt(ss / n),
     residualMax: Math.sqrt(maxR2),

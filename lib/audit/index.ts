@@ -5,12 +5,12 @@
 import type { AttributeName, CodedColumn, Pairing, ProjectedTable } from "@/geo/types";
 import { PAIRED_BY_ID } from "@/geo/types";
 import { groupStatistics, type GroupRow, type PairErrors } from "./groups";
-import { fitSimilarity } from "./helmert";
+import { fitSimilarityToErrors } from "./helmert";
 import { localDayCodes } from "./local-day";
 import { parseAuditOptions, type AuditOptions, type GroupName } from "./options";
 import { flagOutliers } from "./outliers";
 import { quantilesInPlace } from "./quantiles";
-import { mean, rmse, rmseRadial } from "./rmse";
+import { rmseRadial } from "./rmse";
 import { rowFrame } from "./row-frame";
 import { finiteOrNull, headlineStatistics, type ErrorColumns } from "./summary";
 import { hasLimits, withinToleranceFlags, type ToleranceLimits } from "./tolerance";
@@ -35,7 +35,7 @@ export {
 export type { Radii } from "./radii";
 export { nssdaHorizontal, NSSDA_CASE1_FACTOR_R, NSSDA_CASE1_FACTOR_X, NSSDA_MIN_CHECKPOINTS } from "./nssda";
 export type { NssdaResult } from "./nssda";
-export { fitSimilarity, applySimilarity } from "./helmert";
+export { fitSimilarity, fitSimilarityToErrors, applySimilarity } from "./helmert";
 export type { SimilarityFit, SimilarityParameters } from "./helmert";
 export { flagOutliers, DEFAULT_OUTLIER_RULE, MAD_TO_SD } from "./outliers";
 export type { OutlierRule, OutlierResult } from "./outliers";
@@ -46,6 +46,7 @@ export { localDay, localDayCodes, isKnownTimeZone } from "./local-day";
 export { headlineStatistics } from "./summary";
 export {
   neutraliseCell,
+  csvNumberFormatter,
   residualsCsv,
   unpairedCsv,
   summaryCsv,
@@ -71,15 +72,19 @@ function checkTable(t: ProjectedTable, name: string): void {
 }
 
 function checkPairing(p: Pairing, planted: ProjectedTable, survey: ProjectedTable): void {
-  const n = p.plantedIndex.length;
-  if (p.surveyIndex.length !== n || p.method.length !== n || p.beyondMaxDistance.length !== n) {
+  const pi = p.plantedIndex;
+  const si = p.surveyIndex;
+  const n = pi.length;
+  if (si.length !== n || p.method.length !== n || p.beyondMaxDistance.length !== n) {
     throw new Error("audit: pairing arrays differ in length");
   }
+  const np = planted.length;
+  const ns = survey.length;
   for (let i = 0; i < n; i++) {
-    const a = p.plantedIndex[i];
-    const b = p.surveyIndex[i];
-    if (a < 0 || a >= planted.length) throw new Error(`audit: pair ${i} refers to planted row ${a}, outside 0..${planted.length - 1}`);
-    if (b < 0 || b >= survey.length) throw new Error(`audit: pair ${i} refers to survey row ${b}, outside 0..${survey.length - 1}`);
+    const a = pi[i];
+    const b = si[i];
+    if (a < 0 || a >= np) throw new Error(`audit: pair ${i} refers to planted row ${a}, outside 0..${np - 1}`);
+    if (b < 0 || b >= ns) throw new Error(`audit: pair ${i} refers to survey row ${b}, outside 0..${ns - 1}`);
   }
 }
 
@@ -114,29 +119,39 @@ function pairCodes(
   return { codes, values: column.values };
 }
 
-/** Mean, RMSE and empirical radii of the pairs not flagged as outliers; null without pairs. */
-function statsWithoutOutliers(dE: Float64Array, dN: Float64Array, radial: Float64Array, flags: Uint8Array, count: number): WithoutOutliers | null {
+/** Mean, RMSE and empirical radii of the pairs not flagged as outliers; null without pairs. `scratch` is overwritten. */
+function statsWithoutOutliers(
+  dE: Float64Array,
+  dN: Float64Array,
+  radial: Float64Array,
+  flags: Uint8Array,
+  scratch: Float64Array,
+): WithoutOutliers | null {
   const n = dE.length;
   if (n === 0) return null;
-  const m = n - count;
-  const e = new Float64Array(m);
-  const nn = new Float64Array(m);
-  const r = new Float64Array(m);
-  for (let i = 0, j = 0; i < n; i++) {
+  let m = 0;
+  let sumE = 0;
+  let sumN = 0;
+  let sumE2 = 0;
+  let sumN2 = 0;
+  for (let i = 0; i < n; i++) {
     if (flags[i]) continue;
-    e[j] = dE[i];
-    nn[j] = dN[i];
-    r[j] = radial[i];
-    j++;
+    const e = dE[i];
+    const nn = dN[i];
+    sumE += e;
+    sumN += nn;
+    sumE2 += e * e;
+    sumN2 += nn * nn;
+    scratch[m++] = radial[i];
   }
   if (m === 0) return { pairs: 0, meanDE: null, meanDN: null, rmseE: null, rmseN: null, rmseR: null, cep50: null, r95: null };
-  const rmseE = rmse(e);
-  const rmseN = rmse(nn);
-  const [cep50, r95] = quantilesInPlace(r, [0.5, 0.95]);
+  const rmseE = Math.sqrt(sumE2 / m);
+  const rmseN = Math.sqrt(sumN2 / m);
+  const [cep50, r95] = quantilesInPlace(scratch.subarray(0, m), [0.5, 0.95]);
   return {
     pairs: m,
-    meanDE: finiteOrNull(mean(e)),
-    meanDN: finiteOrNull(mean(nn)),
+    meanDE: sumE / m,
+    meanDN: sumN / m,
     rmseE,
     rmseN,
     rmseR: rmseRadial(rmseE, rmseN),
@@ -155,16 +170,20 @@ function errorColumns(
   limits: ToleranceLimits,
   keep: Int32Array | null,
 ): ErrorColumns {
-  const n = keep ? keep.length : pairing.plantedIndex.length;
+  const pi = pairing.plantedIndex;
+  const si = pairing.surveyIndex;
+  const sx = survey.x;
+  const sy = survey.y;
+  const n = keep ? keep.length : pi.length;
   const dE = new Float64Array(n);
   const dN = new Float64Array(n);
   const radial = new Float64Array(n);
   for (let j = 0; j < n; j++) {
-    const i = keep ? keep[j] : j;
-    const p = pairing.plantedIndex[i];
-    const s = pairing.surveyIndex[i];
-    const e = survey.x[s] - plantedX[p];
-    const nn = survey.y[s] - plantedY[p];
+    const i = keep === null ? j : keep[j];
+    const p = pi[i];
+    const s = si[i];
+    const e = sx[s] - plantedX[p];
+    const nn = sy[s] - plantedY[p];
     if (!Number.isFinite(e) || !Number.isFinite(nn)) {
       throw new Error(`audit: pair ${i} (planted row ${p}, survey row ${s}) has a non-finite coordinate`);
     }
@@ -216,31 +235,32 @@ export function computeAudit(input: AuditInput): AuditResult {
   const { confidence } = options;
 
   const columns = errorColumns(planted.x, planted.y, survey, pairing, bearing, limits, null);
-  const headline = headlineStatistics(columns, limits, confidence);
-  const outliers = flagOutliers(columns.dE, columns.dN, options.outlierRule);
-  const withoutOutliers = statsWithoutOutliers(columns.dE, columns.dN, columns.radial, outliers.flags, outliers.count);
+  const scratch = new Float64Array(n); // work space for percentiles, reused by every step below
+  const headline = headlineStatistics(columns, limits, confidence, scratch);
+  const outliers = flagOutliers(columns.dE, columns.dN, options.outlierRule, scratch);
+  const withoutOutliers: WithoutOutliers | null =
+    n > 0 && outliers.count === 0
+      ? {
+          pairs: n,
+          meanDE: headline.meanDE,
+          meanDN: headline.meanDN,
+          rmseE: headline.rmseE,
+          rmseN: headline.rmseN,
+          rmseR: headline.rmseR,
+          cep50: headline.cep50,
+          r95: headline.r95,
+        }
+      : statsWithoutOutliers(columns.dE, columns.dN, columns.radial, outliers.flags, scratch);
 
-  // Helmert fit planted → survey.
-  const px = new Float64Array(n);
-  const py = new Float64Array(n);
-  const sx = new Float64Array(n);
-  const sy = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const p = pairing.plantedIndex[i];
-    const s = pairing.surveyIndex[i];
-    px[i] = planted.x[p];
-    py[i] = planted.y[p];
-    sx[i] = survey.x[s];
-    sy[i] = survey.y[s];
-  }
-  const helmert = fitSimilarity(px, py, sx, sy);
+  // Helmert fit planted → survey, from the planted coordinates and the errors of each pair.
+  const helmert = fitSimilarityToErrors(planted.x, planted.y, pairing.plantedIndex, columns.dE, columns.dN);
 
   // Breakdowns.
   const errors: PairErrors = columns;
   const groups: Partial<Record<GroupName, GroupRow[]>> = {};
   for (const name of options.groupBy) {
     const { codes, values } = pairCodes(name, planted, survey, pairing, options.timeZone);
-    groups[name] = groupStatistics(codes, values, errors, confidence);
+    groups[name] = groupStatistics(codes, values, errors, confidence, scratch);
   }
 
   // Raw GNSS positions (before camera correction).
@@ -252,14 +272,15 @@ export function computeAudit(input: AuditInput): AuditResult {
     const ry = planted.rawY;
     rawDE = new Float64Array(n).fill(Number.NaN);
     rawDN = new Float64Array(n).fill(Number.NaN);
+    const pi = pairing.plantedIndex;
     let m = 0;
     for (let i = 0; i < n; i++) {
-      const p = pairing.plantedIndex[i];
+      const p = pi[i];
       if (Number.isFinite(rx[p]) && Number.isFinite(ry[p])) m++;
     }
     const keep = new Int32Array(m);
     for (let i = 0, j = 0; i < n; i++) {
-      const p = pairing.plantedIndex[i];
+      const p = pi[i];
       if (Number.isFinite(rx[p]) && Number.isFinite(ry[p])) keep[j++] = i;
     }
     if (m > 0) {
@@ -268,15 +289,17 @@ export function computeAudit(input: AuditInput): AuditResult {
         rawDE[keep[j]] = rawColumns.dE[j];
         rawDN[keep[j]] = rawColumns.dN[j];
       }
-      raw = { ...headlineStatistics(rawColumns, limits, confidence), missingRaw: n - m };
+      raw = { ...headlineStatistics(rawColumns, limits, confidence, scratch), missingRaw: n - m };
     }
   }
 
   let byId = 0;
   let beyond = 0;
+  const method = pairing.method;
+  const beyondFlags = pairing.beyondMaxDistance;
   for (let i = 0; i < n; i++) {
-    if (pairing.method[i] === PAIRED_BY_ID) byId++;
-    beyond += pairing.beyondMaxDistance[i] ? 1 : 0;
+    if (method[i] === PAIRED_BY_ID) byId++;
+    if (beyondFlags[i]) beyond++;
   }
 
   const notes: AuditNote[] = [];

@@ -57,11 +57,13 @@ export function localDay(epochMs: number, timeZone: string): string {
 }
 
 const MINUTE_MS = 60_000;
+const HOUR_MS = 3_600_000;
 
 /**
  * Planting-day codes for selected rows of a time column: `codes[i]` indexes `values` (days sorted ascending) for
- * `times[rows[i]]`, −1 when the time is missing (NaN). One Intl call per distinct UTC minute (a minute's two ends are
- * checked to share the date, else each instant is formatted), so a million plants cost little. Inputs not modified.
+ * `times[rows[i]]`, −1 when the time is missing (NaN). Cached so a million plants need few Intl calls: per UTC hour
+ * when both ends of the hour fall on the same local date, else per UTC minute (same check), else per instant.
+ * Inputs not modified.
  *
  * @example localDayCodes(Float64Array.of(Date.UTC(2025, 4, 12, 23, 30)), Int32Array.of(0), "Europe/Amsterdam")
  *   // { codes: Int32Array [0], values: ["2025-05-13"] }
@@ -72,10 +74,8 @@ export function localDayCodes(
   timeZone: string,
 ): { codes: Int32Array; values: string[] } {
   const formatter = dayFormatter(timeZone);
-  const dayOfMinute = new Map<number, string | null>(); // null = minute straddles a date change
   const dayIndex = new Map<string, number>();
   const values: string[] = [];
-  const raw = new Int32Array(rows.length);
   const codeFor = (day: string): number => {
     let c = dayIndex.get(day);
     if (c === undefined) {
@@ -85,21 +85,44 @@ export function localDayCodes(
     }
     return c;
   };
+  // Code of a whole span [start, start + length) when its two ends share the local date, else −1.
+  const spanCode = (start: number, length: number): number => {
+    const a = formatDay(formatter, start);
+    return a === formatDay(formatter, start + length - 1) ? codeFor(a) : -1;
+  };
+  const hourCode = new Map<number, number>();
+  const minuteCode = new Map<number, number>();
+  const raw = new Int32Array(rows.length);
+  let lastHour = Number.NaN;
+  let lastHourCode = -1;
   for (let i = 0; i < rows.length; i++) {
     const t = times[rows[i]];
     if (!Number.isFinite(t)) {
       raw[i] = -1;
       continue;
     }
-    const minute = Math.floor(t / MINUTE_MS);
-    let day = dayOfMinute.get(minute);
-    if (day === undefined) {
-      const start = formatDay(formatter, minute * MINUTE_MS);
-      const end = formatDay(formatter, minute * MINUTE_MS + MINUTE_MS - 1);
-      day = start === end ? start : null;
-      dayOfMinute.set(minute, day);
+    const hour = Math.floor(t / HOUR_MS);
+    let code: number;
+    if (hour === lastHour) {
+      code = lastHourCode;
+    } else {
+      const cached = hourCode.get(hour);
+      code = cached ?? spanCode(hour * HOUR_MS, HOUR_MS);
+      if (cached === undefined) hourCode.set(hour, code);
+      lastHour = hour;
+      lastHourCode = code;
     }
-    raw[i] = codeFor(day ?? formatDay(formatter, t));
+    if (code < 0) {
+      // the local date changes within this hour: resolve per minute, then per instant
+      const minute = Math.floor(t / MINUTE_MS);
+      let m = minuteCode.get(minute);
+      if (m === undefined) {
+        m = spanCode(minute * MINUTE_MS, MINUTE_MS);
+        minuteCode.set(minute, m);
+      }
+      code = m >= 0 ? m : codeFor(formatDay(formatter, t));
+    }
+    raw[i] = code;
   }
   // Renumber so codes follow the sorted day order (stable output whatever the row order).
   const sorted = [...values].sort();

@@ -29,37 +29,48 @@ function assertP(p: number): void {
 
 /**
  * Rearranges a[left..right] so that a[k] holds the value it would have after sorting, everything before it is ≤ a[k]
- * and everything after it is ≥ a[k]. Hoare partitioning around a median-of-three pivot; falls back to sorting the
- * remaining range when partitioning makes too little progress, so the worst case stays O(n log n). NaN-free input.
+ * and everything after it is ≥ a[k]. Floyd & Rivest, "Algorithm 489: SELECT", Comm. ACM 18 (1975) 173: partition
+ * around an element chosen from a small recursive sample, so about n + min(k, n − k) comparisons are expected.
+ * Falls back to sorting the remaining range if partitioning makes too little progress (worst case O(n log n)).
+ * Input must be NaN-free.
  */
 function selectInPlace(a: Float64Array, k: number, left: number, right: number): void {
-  let budget = 2 * Math.ceil(Math.log2(right - left + 2)) + 16;
+  let budget = 4 * Math.ceil(Math.log2(right - left + 2)) + 16;
   while (right > left) {
     if (budget-- <= 0) {
       a.subarray(left, right + 1).sort();
       return;
     }
-    const mid = left + ((right - left) >>> 1);
-    // median of three into a[mid]
-    if (a[mid] < a[left]) swap(a, mid, left);
-    if (a[right] < a[left]) swap(a, right, left);
-    if (a[right] < a[mid]) swap(a, right, mid);
-    const pivot = a[mid];
+    if (right - left > 600) {
+      // Narrow the range with a sample first (constants as published).
+      const n = right - left + 1;
+      const i = k - left + 1;
+      const z = Math.log(n);
+      const s = 0.5 * Math.exp((2 * z) / 3);
+      const sd = 0.5 * Math.sqrt((z * s * (n - s)) / n) * (i - n / 2 < 0 ? -1 : 1);
+      const newLeft = Math.max(left, Math.floor(k - (i * s) / n + sd));
+      const newRight = Math.min(right, Math.floor(k + ((n - i) * s) / n + sd));
+      selectInPlace(a, k, newLeft, newRight);
+    }
+    const t = a[k];
     let i = left;
     let j = right;
-    while (i <= j) {
-      while (a[i] < pivot) i++;
-      while (a[j] > pivot) j--;
-      if (i <= j) {
-        swap(a, i, j);
-        i++;
-        j--;
-      }
+    swap(a, left, k);
+    if (a[right] > t) swap(a, right, left);
+    while (i < j) {
+      swap(a, i, j);
+      i++;
+      j--;
+      while (a[i] < t) i++;
+      while (a[j] > t) j--;
     }
-    // a[left..j] ≤ pivot, a[i..right] ≥ pivot, a[j+1..i−1] = pivot
-    if (k <= j) right = j;
-    else if (k >= i) left = i;
-    else return;
+    if (a[left] === t) swap(a, left, j);
+    else {
+      j++;
+      swap(a, j, right);
+    }
+    if (j <= k) left = j + 1;
+    if (k <= j) right = j - 1;
   }
 }
 
@@ -108,7 +119,7 @@ export function quantilesInPlace(scratch: Float64Array, ps: readonly number[]): 
  * @example quantiles(Float64Array.of(0.01, 0.03, 0.02), [0.5]) // [0.02]
  */
 export function quantiles(values: ArrayLike<number>, ps: readonly number[]): number[] {
-  return quantilesInPlace(Float64Array.from(values), ps);
+  return quantilesInPlace(values instanceof Float64Array ? values.slice() : Float64Array.from(values), ps);
 }
 
 /**
@@ -129,7 +140,8 @@ export function median(values: ArrayLike<number>): number {
  */
 export function medianAbsoluteDeviation(values: ArrayLike<number>, centre?: number): number {
   const c = centre ?? median(values);
-  const dev = new Float64Array(values.length);
-  for (let i = 0; i < values.length; i++) dev[i] = Math.abs(values[i] - c);
+  const n = values.length;
+  const dev = new Float64Array(n);
+  for (let i = 0; i < n; i++) dev[i] = Math.abs(values[i] - c);
   return quantilesInPlace(dev, [0.5])[0];
 }

@@ -49,20 +49,12 @@ export function sampleSd(values: ArrayLike<number>, knownMean?: number): number 
 export function rmse(errors: ArrayLike<number>): number {
   const n = errors.length;
   if (n === 0) return Number.NaN;
-  // Scale by the largest magnitude so squares cannot underflow or overflow.
-  let scale = 0;
-  for (let i = 0; i < n; i++) {
-    const a = Math.abs(errors[i]);
-    if (a > scale) scale = a;
-  }
-  if (scale === 0) return 0;
-  if (!Number.isFinite(scale)) return scale;
   let ss = 0;
   for (let i = 0; i < n; i++) {
-    const d = errors[i] / scale;
+    const d = errors[i];
     ss += d * d;
   }
-  return scale * Math.sqrt(ss / n);
+  return Math.sqrt(ss / n);
 }
 
 /**

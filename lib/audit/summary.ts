@@ -9,7 +9,11 @@ import { mean, rmse, rmseRadial, sampleSd } from "./rmse";
 import { hasLimits, withinToleranceShare, type ToleranceLimits } from "./tolerance";
 import type { HeadlineStats } from "./types";
 
-/** Finite number or null (never NaN in a summary). */
+/**
+ * Finite number or null, so a summary never holds NaN.
+ *
+ * @example finiteOrNull(Number.NaN) // null
+ */
 export function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
 }
@@ -31,14 +35,20 @@ export interface ErrorColumns {
 /**
  * Headline statistics: bias with t-intervals, sample SDs (n − 1), RMSE_E/N/r, empirical and circular-normal CEP/R95,
  * NSSDA 95 %, along/cross components and the share within tolerance. Nulls (never NaN) where a statistic is undefined:
- * everything but `pairs` for 0 pairs; SDs and intervals for 1 pair. Inputs are not modified.
+ * everything but `pairs` for 0 pairs; SDs and intervals for 1 pair. Inputs are not modified; `scratch` (length ≥ n),
+ * when given, is used as work space for the percentiles and overwritten.
  *
  * Source: FGDC-STD-007.3-1998 Appendix 3-A (RMSE, RMSE_r, NSSDA); Hyndman & Fan 1996 type 7 (percentiles);
  * Student 1908 (t-interval); Clopper & Pearson 1934 (share within tolerance).
  *
  * @example headlineStatistics(columns, { radial: 0.03, cross: null, along: null }, 0.95).rmseR
  */
-export function headlineStatistics(columns: ErrorColumns, limits: ToleranceLimits, confidence: number): HeadlineStats {
+export function headlineStatistics(
+  columns: ErrorColumns,
+  limits: ToleranceLimits,
+  confidence: number,
+  scratch?: Float64Array,
+): HeadlineStats {
   const { dE, dN, along, cross, radial, within } = columns;
   const n = dE.length;
   const withinTolerance = within && hasLimits(limits) ? withinToleranceShare(within, confidence, limits) : null;
@@ -76,7 +86,9 @@ export function headlineStatistics(columns: ErrorColumns, limits: ToleranceLimit
   const sdDN = sampleSd(dN, meanDN);
   const rmseE = rmse(dE);
   const rmseN = rmse(dN);
-  const [cep50, r95] = quantilesInPlace(Float64Array.from(radial), [0.5, 0.95]);
+  const work = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
+  work.set(radial);
+  const [cep50, r95] = quantilesInPlace(work, [0.5, 0.95]);
   const model = modelRadii(rmseE, rmseN);
   const nssda = nssdaHorizontal(rmseE, rmseN, r95, n);
   const meanAlong = along ? mean(along) : Number.NaN;

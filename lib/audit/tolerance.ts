@@ -30,7 +30,11 @@ export interface WithinTolerance {
   limits: ToleranceLimits;
 }
 
-/** True when at least one limit is set. */
+/**
+ * True when at least one tolerance limit (metres) is set.
+ *
+ * @example hasLimits({ radial: 0.03, cross: null, along: null }) // true
+ */
 export function hasLimits(limits: ToleranceLimits): boolean {
   return limits.radial !== null || limits.cross !== null || limits.along !== null;
 }

@@ -6,8 +6,8 @@
  *  - true plant positions lie on straight rows at the field's bearing, evenly spaced;
  *  - camera-corrected record = true position + arm bias + N(0, 2 mm) per axis (RTK fixed);
  *    arm 3 is miscalibrated: +3 mm cross-row (to the right of the row direction);
- *  - in bed 3, rows 2–3, plants 40–69 were planted while the fix was RTK float: an extra
- *    offset of 35 mm cross-row and 20 mm along-row plus N(0, 6 mm);
+ *  - in bed 3, rows 2–3, plants 30–109 were planted while the fix was RTK float: an extra
+ *    offset of 30 mm along-row and 12 mm cross-row plus noise (6 mm along, 4 mm cross);
  *  - raw GNSS position (before camera correction) = record + slowly drifting GNSS error
  *    (about 20 mm amplitude) + N(0, 12 mm);
  *  - survey point = true position + N(0, 1.5 mm) (total station, stated precision 2 mm);
@@ -72,10 +72,10 @@ export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
         const trueE = spec.originE + along[0] * a + right[0] * offset;
         const trueN = spec.originN + along[1] * a + right[1] * offset;
         const arm = row;
-        const float = bed === 3 && (row === 2 || row === 3) && k >= 40 && k < 70;
+        const float = bed === 3 && (row === 2 || row === 3) && k >= 30 && k < 110;
         let dAlong = g() * 0.002;
         let dCross = ARM_CROSS_BIAS_M[arm - 1] + g() * 0.002;
-        if (float) { dAlong += 0.02 + g() * 0.006; dCross += 0.035 + g() * 0.006; }
+        if (float) { dAlong += 0.03 + g() * 0.006; dCross += 0.012 + g() * 0.004; }
         const recE = trueE + along[0] * dAlong + right[0] * dCross;
         const recN = trueN + along[1] * dAlong + right[1] * dCross;
         const drift = 0.02 * Math.sin(driftPhase + k / 25);

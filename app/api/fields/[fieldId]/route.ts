@@ -1,10 +1,12 @@
 import { guardedRoute } from "@/lib/access";
 import { getDb } from "@/db/client";
-import { getFieldById } from "@/db/queries/fields";
-import { listAudits, listRecentDatasets } from "@/db/queries/audits";
-import { notFound } from "@/lib/errors";
-import { ANY_ROLE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { fieldNameTaken, getFieldById, updateField } from "@/db/queries/fields";
+import { listAudits } from "@/db/queries/audits";
+import { listDatasets } from "@/db/queries/datasets";
+import { AppError, notFound } from "@/lib/errors";
+import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
+import { FieldIdParam, FieldPatch } from "@/lib/validation/field";
+import { parseJsonBody } from "@/lib/validation/request";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const parsed = FieldIdParam.safeParse(params);
@@ -14,8 +16,21 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
   const fieldRow = await getFieldById(db, { id: parsed.data.fieldId, orgId: viewer.orgId });
   if (!fieldRow) throw notFound("Field");
   const [datasets, audits] = await Promise.all([
-    listRecentDatasets(db, { orgId: viewer.orgId, fieldId: fieldRow.id }),
+    listDatasets(db, { orgId: viewer.orgId, fieldId: fieldRow.id }),
     listAudits(db, { orgId: viewer.orgId, fieldId: fieldRow.id }),
   ]);
   return Response.json({ field: fieldRow, datasets, audits });
+});
+
+export const PATCH = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
+  const parsed = FieldIdParam.safeParse(params);
+  if (!parsed.success) throw notFound("Field");
+  const patch = await parseJsonBody(req, FieldPatch);
+  const db = await getDb();
+  if (patch.name && (await fieldNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: parsed.data.fieldId }))) {
+    throw new AppError("conflict", `A field named "${patch.name}" already exists.`, [{ path: ["name"], message: "Name already used" }]);
+  }
+  const updated = await updateField(db, { id: parsed.data.fieldId, orgId: viewer.orgId, userId: viewer.userId, patch });
+  if (!updated) throw notFound("Field");
+  return Response.json({ field: updated });
 });

@@ -1,0 +1,16 @@
+import { notFound } from "next/navigation";
+import { requirePageViewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getAuditById } from "@/db/queries/audits";
+import { AuditIdParam } from "./params";
+
+// The existence check lives in the layout, outside any loading boundary,
+// so another organisation's audit answers with a real 404 status.
+export default async function AuditLayout({ children, params }: { children: React.ReactNode; params: Promise<{ auditId: string }> }) {
+  const viewer = await requirePageViewer();
+  const parsed = AuditIdParam.safeParse(await params);
+  if (!parsed.success) notFound();
+  const audit = await getAuditById(await getDb(), { id: parsed.data.auditId, orgId: viewer.orgId });
+  if (!audit) notFound();
+  return children;
+}

@@ -1,0 +1,3 @@
+import { z } from "zod";
+
+export const AuditIdParam = z.object({ auditId: z.uuid() });

@@ -1,0 +1,27 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { requirePageViewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getFieldById } from "@/db/queries/fields";
+import { CAN_PREPARE } from "@/lib/roles";
+import { FieldIdParam } from "@/lib/validation/field";
+import { PageTitle, TextLink } from "@/app/_components/ui";
+import { NewAuditForm } from "./new-audit-form";
+
+export const metadata: Metadata = { title: "New audit" };
+
+export default async function NewAuditPage({ params }: { params: Promise<{ fieldId: string }> }) {
+  const viewer = await requirePageViewer(CAN_PREPARE);
+  const parsed = FieldIdParam.safeParse(await params);
+  if (!parsed.success) notFound();
+  const field = await getFieldById(await getDb(), { id: parsed.data.fieldId, orgId: viewer.orgId });
+  if (!field) notFound();
+  return (
+    <>
+      <PageTitle sub={<>Compare a survey of checkpoints with the as-planted records of <TextLink href={`/fields/${field.id}`}>{field.name}</TextLink>.</>}>
+        New audit
+      </PageTitle>
+      <NewAuditForm field={{ id: field.id, name: field.name, crs: field.crs, rowBearingDeg: field.rowBearingDeg }} />
+    </>
+  );
+}

@@ -1,0 +1,22 @@
+import type { Metadata } from "next";
+import { requirePageViewer } from "@/lib/access";
+import { CAN_REVIEW } from "@/lib/roles";
+import { PageTitle } from "@/app/_components/ui";
+import { ProfilesManager } from "./profiles-manager";
+
+export const metadata: Metadata = { title: "Tolerance profiles" };
+
+export default async function ProfilesPage() {
+  const viewer = await requirePageViewer();
+  const canEdit = CAN_REVIEW.includes(viewer.role);
+  return (
+    <>
+      <PageTitle sub={canEdit
+        ? "The limits an audit is judged against, one set per field operation. Editing a profile never changes the verdict of a past audit."
+        : "The limits an audit is judged against, one set per field operation. QA leads and owners edit them."}>
+        Tolerance profiles
+      </PageTitle>
+      <ProfilesManager canEdit={canEdit} />
+    </>
+  );
+}

@@ -1,0 +1,10 @@
+import { guardedRoute } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { chartData } from "@/db/queries/audits";
+import { ANY_ROLE } from "@/lib/roles";
+import { auditForViewer } from "@/lib/services/audit-access";
+
+export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const audit = await auditForViewer(viewer, params);
+  return Response.json(await chartData(await getDb(), { auditId: audit.id }));
+});

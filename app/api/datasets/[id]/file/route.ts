@@ -1,0 +1,18 @@
+import { guardedRoute } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getDatasetFile } from "@/db/queries/datasets";
+import { notFound } from "@/lib/errors";
+import { ANY_ROLE } from "@/lib/roles";
+import { IdParam } from "@/lib/validation/profile";
+import { contentDisposition } from "@/lib/http";
+
+/** The uploaded file exactly as received; its SHA-256 in a header so a script can check it. */
+export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const p = IdParam.safeParse(params);
+  if (!p.success) throw notFound("Dataset");
+  const file = await getDatasetFile(await getDb(), { id: p.data.id, orgId: viewer.orgId });
+  if (!file) throw notFound("Dataset");
+  return new Response(file.bytes as BodyInit, {
+    headers: { "content-type": file.contentType, "content-disposition": contentDisposition(file.fileName), "x-content-sha256": file.sha256 },
+  });
+});

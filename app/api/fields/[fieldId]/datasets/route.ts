@@ -1,0 +1,76 @@
+import { guardedRoute } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getFieldById } from "@/db/queries/fields";
+import { listDatasets } from "@/db/queries/datasets";
+import { AppError, notFound } from "@/lib/errors";
+import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
+import { FieldIdParam } from "@/lib/validation/field";
+import { MAX_UPLOAD_BYTES, UploadFields } from "@/lib/validation/upload";
+import { ingestDataset, type IngestRequest } from "@/lib/services/ingest-dataset";
+import type { UploadStreamLine } from "@/lib/api-types";
+
+export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const p = FieldIdParam.safeParse(params);
+  if (!p.success) throw notFound("Field");
+  const db = await getDb();
+  if (!(await getFieldById(db, { id: p.data.fieldId, orgId: viewer.orgId }))) throw notFound("Field");
+  return Response.json({ datasets: await listDatasets(db, { orgId: viewer.orgId, fieldId: p.data.fieldId }) });
+});
+
+/**
+ * Upload an as-planted or survey file (multipart: file, kind, crs?, mapping?, acceptWarnings?, presetName?).
+ * With `Accept: application/x-ndjson` the answer streams progress lines and ends with the result.
+ */
+export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
+  const p = FieldIdParam.safeParse(params);
+  if (!p.success) throw notFound("Field");
+  if (!(await getFieldById(await getDb(), { id: p.data.fieldId, orgId: viewer.orgId }))) throw notFound("Field");
+  const declared = Number(req.headers.get("content-length") ?? 0);
+  if (declared > MAX_UPLOAD_BYTES) throw new AppError("payload_too_large", `Files up to ${MAX_UPLOAD_BYTES / 1024 / 1024} MB can be uploaded.`);
+
+  let form: FormData;
+  try {
+    form = await req.formData();
+  } catch {
+    throw new AppError("invalid_input", "Send the upload as multipart/form-data with a 'file' part.");
+  }
+  const file = form.get("file");
+  if (!(file instanceof File)) throw new AppError("invalid_input", "The 'file' part is missing.", [{ path: ["file"], message: "Choose a file to upload" }]);
+  const fields = UploadFields.safeParse(Object.fromEntries([...form.entries()].filter(([k]) => k !== "file")));
+  if (!fields.success) {
+    const issues = fields.error.issues.map((i) => ({ path: i.path, message: i.message }));
+    throw new AppError("invalid_input", `Invalid ${issues.map((i) => i.path.join(".")).join(", ")}.`, issues);
+  }
+  const request: IngestRequest = {
+    viewer, fieldId: p.data.fieldId, kind: fields.data.kind, fileName: file.name || "upload.csv", contentType: file.type,
+    bytes: new Uint8Array(await file.arrayBuffer()), crs: fields.data.crs, mapping: fields.data.mapping,
+    acceptWarnings: fields.data.acceptWarnings, presetName: fields.data.presetName,
+  };
+
+  if (!(req.headers.get("accept") ?? "").includes("application/x-ndjson")) {
+    return Response.json(await ingestDataset(request), { status: 201 });
+  }
+  const encoder = new TextEncoder();
+  const stream = new ReadableStream<Uint8Array>({
+    async start(controller) {
+      const send = (line: UploadStreamLine) => controller.enqueue(encoder.encode(JSON.stringify(line) + "\n"));
+      let last = -1;
+      request.onProgress = (stage, fraction) => {
+        const step = Math.floor(fraction * 20);
+        if (stage !== "reading" || step !== last) send({ type: "progress", stage, fraction });
+        last = step;
+      };
+      try {
+        send({ type: "done", status: 201, body: await ingestDataset(request) });
+      } catch (err) {
+        if (err instanceof AppError) send({ type: "done", status: err.status, body: err.toBody() as never });
+        else {
+          console.error("[plotproof] upload failed", err);
+          send({ type: "done", status: 500, body: { error: { code: "internal", message: "The upload failed on our side; nothing was saved." } } });
+        }
+      }
+      controller.close();
+    },
+  });
+  return new Response(stream, { status: 200, headers: { "content-type": "application/x-ndjson; charset=utf-8", "cache-control": "no-store" } });
+});

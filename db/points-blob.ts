@@ -1,0 +1,77 @@
+/**
+ * Columnar storage of a dataset's parsed points: one bytea per dataset instead of one row per plant,
+ * so a million-plant file is saved and loaded in one step and reaches the map as typed arrays.
+ *
+ * Layout (little-endian): "PPT1" | u32 header length | header JSON (UTF-8) | zero padding to 8 bytes |
+ * the typed arrays named in header.arrays, each 8-byte aligned.
+ */
+import type { AttributeName, CodedColumn, PointTable } from "@/geo/types";
+
+const MAGIC = "PPT1";
+
+type ArrayName = "x" | "y" | "line" | "time" | "hdop" | "precision" | "rawX" | "rawY" | `attr:${string}`;
+
+interface Header {
+  source: string;
+  role: PointTable["role"];
+  length: number;
+  id: string[] | null;
+  attrValues: Record<string, string[]>;
+  arrays: { name: ArrayName; type: "f64" | "i32"; offset: number }[];
+}
+
+const pad8 = (n: number) => (n + 7) & ~7;
+
+export function encodePoints(table: PointTable): Uint8Array {
+  const arrays: { name: ArrayName; data: Float64Array | Int32Array }[] = [
+    { name: "x", data: table.x }, { name: "y", data: table.y }, { name: "line", data: table.line },
+  ];
+  for (const key of ["time", "hdop", "precision", "rawX", "rawY"] as const) {
+    const a = table[key];
+    if (a) arrays.push({ name: key, data: a });
+  }
+  const attrValues: Record<string, string[]> = {};
+  for (const [name, col] of Object.entries(table.attrs) as [AttributeName, CodedColumn][]) {
+    attrValues[name] = col.values;
+    arrays.push({ name: `attr:${name}`, data: col.codes });
+  }
+  let offset = 0;
+  const layout = arrays.map((a) => {
+    const entry = { name: a.name, type: a.data instanceof Float64Array ? "f64" as const : "i32" as const, offset };
+    offset = pad8(offset + a.data.byteLength);
+    return entry;
+  });
+  const header: Header = { source: table.source, role: table.role, length: table.length, id: table.id, attrValues, arrays: layout };
+  const headerBytes = new TextEncoder().encode(JSON.stringify(header));
+  const start = pad8(8 + headerBytes.length);
+  const out = new Uint8Array(start + offset);
+  out.set(new TextEncoder().encode(MAGIC), 0);
+  new DataView(out.buffer).setUint32(4, headerBytes.length, true);
+  out.set(headerBytes, 8);
+  arrays.forEach((a, i) => out.set(new Uint8Array(a.data.buffer, a.data.byteOffset, a.data.byteLength), start + layout[i].offset));
+  return out;
+}
+
+export function decodePoints(bytes: Uint8Array): PointTable {
+  if (new TextDecoder().decode(bytes.subarray(0, 4)) !== MAGIC) throw new Error("points blob: unknown format");
+  const headerLength = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(4, true);
+  const header = JSON.parse(new TextDecoder().decode(bytes.subarray(8, 8 + headerLength))) as Header;
+  const start = pad8(8 + headerLength);
+  // Copy into fresh, aligned buffers: the driver's Uint8Array may start at any offset.
+  const read = (entry: Header["arrays"][number]) => {
+    const byteLength = header.length * (entry.type === "f64" ? 8 : 4);
+    const copy = bytes.slice(start + entry.offset, start + entry.offset + byteLength);
+    return entry.type === "f64" ? new Float64Array(copy.buffer) : new Int32Array(copy.buffer);
+  };
+  const arrays = new Map(header.arrays.map((e) => [e.name, read(e)]));
+  const f64 = (name: ArrayName) => (arrays.get(name) as Float64Array | undefined) ?? null;
+  const attrs: Partial<Record<AttributeName, CodedColumn>> = {};
+  for (const [name, values] of Object.entries(header.attrValues)) {
+    attrs[name as AttributeName] = { values, codes: arrays.get(`attr:${name}`) as Int32Array };
+  }
+  return {
+    source: header.source, role: header.role, length: header.length,
+    x: f64("x")!, y: f64("y")!, line: arrays.get("line") as Int32Array,
+    id: header.id, attrs, time: f64("time"), hdop: f64("hdop"), precision: f64("precision"), rawX: f64("rawX"), rawY: f64("rawY"),
+  };
+}

@@ -1,0 +1,44 @@
+import { describe, expect, it } from "vitest";
+import { findDuplicateIds, fnv1a, indexIds } from "./index";
+
+describe("ids", () => {
+  it("fnv1a -- published 32-bit FNV-1a test vectors", () => {
+    // FNV-1a 32-bit test vectors ("", "a", "foobar") from the FNV reference test suite (draft-eastlake-fnv); from memory
+    expect(fnv1a("")).toBe(0x811c9dc5);
+    expect(fnv1a("a")).toBe(0xe40c292c);
+    expect(fnv1a("foobar")).toBe(0xbf9cf968);
+  });
+
+  it("indexIds -- finds first rows and lists every row of repeated ids", () => {
+    // self-constructed: truth by construction
+    const ids = ["P1", "P2", "", "P1", "P3", "P1", "", "P2"];
+    const idx = indexIds(ids);
+    expect(idx.size).toBe(3);
+    expect(idx.lookup("P1")).toBe(0);
+    expect(idx.lookup("P3")).toBe(4);
+    expect(idx.lookup("nope")).toBe(-1);
+    expect(idx.lookup("")).toBe(-1);
+    expect(idx.duplicates).toEqual(new Map([["P1", [0, 3, 5]], ["P2", [1, 7]]]));
+  });
+
+  it("indexIds -- agrees with a Map on many ids with hash collisions in the table", () => {
+    // independent oracle: JavaScript's built-in Map
+    const ids = Array.from({ length: 20000 }, (_, i) => `X${(i * 7919) % 15000}`);
+    const idx = indexIds(ids);
+    const first = new Map<string, number>();
+    ids.forEach((id, i) => {
+      if (!first.has(id)) first.set(id, i);
+    });
+    expect(idx.size).toBe(first.size);
+    for (const [id, i] of first) expect(idx.lookup(id)).toBe(i);
+    expect(idx.duplicates!.size).toBe(5000);
+  });
+
+  it("findDuplicateIds -- sorted ids need no hashing, unsorted ones are checked", () => {
+    // by construction
+    expect(findDuplicateIds(["A1", "", "A2", "B"])).toBeNull();
+    expect(findDuplicateIds(["A2", "A1", "A2"])).toEqual(new Map([["A2", [0, 2]]]));
+    expect(findDuplicateIds(["A1", "A1"])).toEqual(new Map([["A1", [0, 1]]]));
+    expect(findDuplicateIds(["b", "a"])).toBeNull();
+  });
+});

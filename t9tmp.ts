@@ -1,1 +1,0 @@
-console.log(process.execArgv, process.argv.slice(0,2));
