@@ -4,6 +4,8 @@ import { forbidden, redirect } from "next/navigation";
 import { getAuth } from "@/lib/auth";
 import { getDb } from "@/db/client";
 import { getMembershipForUser } from "@/db/queries/members";
+import { findLiveApiKey } from "@/db/queries/api-keys";
+import { bearerKey, hashApiKey } from "@/lib/api-keys";
 import { AppError, errorResponse, notSignedIn, wrongRole } from "@/lib/errors";
 import { ANY_ROLE, ROLE_LABEL, type Role } from "@/lib/roles";
 
@@ -17,8 +19,20 @@ export interface Viewer {
   role: Role;
 }
 
-/** Session → membership. Null when not signed in or not a member of any organisation. */
+/**
+ * Session (or API key) → membership. Null when not signed in, the key is unknown or revoked, or the
+ * person is not a member of the organisation. A key acts with its creator's current role in the key's organisation.
+ */
 export async function getViewer(headers: Headers): Promise<Viewer | null> {
+  const key = bearerKey(headers);
+  if (key) {
+    const db = await getDb();
+    const owner = await findLiveApiKey(db, { hash: hashApiKey(key) });
+    if (!owner) return null;
+    const membership = await getMembershipForUser(db, { userId: owner.userId, activeOrgId: owner.orgId });
+    if (!membership || membership.orgId !== owner.orgId) return null;
+    return { userId: owner.userId, name: owner.name, email: owner.email, ...membership };
+  }
   const auth = await getAuth();
   const session = await auth.api.getSession({ headers });
   if (!session) return null;

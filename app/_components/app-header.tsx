@@ -7,8 +7,10 @@ import type { Viewer } from "@/lib/access";
 const NAV: { href: string; label: string; roles: readonly Role[] }[] = [
   { href: "/", label: "Home", roles: ["owner", "qa_lead", "technician", "grower"] },
   { href: "/fields", label: "Fields", roles: ["owner", "qa_lead", "technician", "grower"] },
+  { href: "/profiles", label: "Tolerance profiles", roles: ["owner", "qa_lead", "technician", "grower"] },
   { href: "/review", label: "Review", roles: ["owner", "qa_lead"] },
   { href: "/team", label: "Team", roles: ["owner"] },
+  { href: "/settings/keys", label: "API keys", roles: ["owner"] },
 ];
 
 export function AppHeader({ viewer }: { viewer: Viewer }) {

@@ -2,7 +2,7 @@ import Papa from "papaparse";
 import type { FileRole, InputIssue, PointTable } from "../types";
 import { IssueCollector } from "../validate/issues";
 import { planColumns, type ColumnGuess, type ColumnMapping } from "./columns";
-import { RowSink } from "./sink";
+import { RowSink, tallyIssues, type Tally } from "./sink";
 import { NotTextError, textChunks, type TextInput } from "./text";
 import { parseNumber } from "./values";
 
@@ -30,6 +30,11 @@ export interface ReadResult {
   columns: ColumnGuess;
   /** CRS named inside the file (GeoJSON legacy `crs` member), e.g. "EPSG:25832". */
   crsHint?: string;
+  /** Counts behind the summary warnings (see `appendReadResults`). */
+  tally?: Tally;
+  /** CSV: physical lines read, and whether any double quote was seen (a quoted field may span lines). */
+  linesRead?: number;
+  sawQuote?: boolean;
 }
 
 function isBlank(text: string, s: number, e: number): boolean {
@@ -98,6 +103,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   let line = 0;
   let stopped = false;
   let sawHeader = false;
+  let sawQuote = false;
 
   const start = (text: string): boolean => {
     // Decide newline and delimiter from the first line.
@@ -220,14 +226,16 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   };
 
   const parse = (text: string, last: boolean): void => {
-    if (sink !== null && text.indexOf('"') < 0) {
+    const quoted = text.indexOf('"') >= 0;
+    if (quoted) sawQuote = true;
+    if (sink !== null && !quoted) {
       fastParse(text, last);
       return;
     }
     const p = parser!;
     const res = p.parse(text, 0, !last) as { data: string[][]; errors: { row?: number; message: string }[]; meta: { cursor: number } };
     pending = last ? "" : text.substring(res.meta.cursor);
-    handle(res.data, text.indexOf('"') >= 0, res.errors);
+    handle(res.data, quoted, res.errors);
   };
 
   try {
@@ -276,10 +284,13 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
     issues.add({ severity: "error", code: "file-empty", file, message: "the file is empty; expected a header line and one row per point" });
   }
   if (sink === null) return { table: null, issues: issues.finish(), columns };
-  const table = (sink as RowSink).finish();
+  const done = sink as RowSink;
+  const table = done.finish();
+  const tally = done.tally();
+  issues.addAll(tallyIssues(tally, file));
   if (table.length === 0 && !issues.hasErrors()) {
     issues.add({ severity: "error", code: "file-no-rows", file, message: "the file has a header but no rows with a position" });
   }
   const list = issues.finish();
-  return { table: list.some((i) => i.severity === "error") ? null : table, issues: list, columns };
+  return { table: list.some((i) => i.severity === "error") ? null : table, issues: list, columns, tally, linesRead: line, sawQuote };
 }

@@ -1,7 +1,7 @@
 import { IssueCollector } from "../validate/issues";
 import type { ReadOptions, ReadResult } from "./csv";
 import { planColumns, type ColumnGuess, type CoordinateKind } from "./columns";
-import { RowSink } from "./sink";
+import { RowSink, tallyIssues } from "./sink";
 import { NotTextError, readAllText, type TextInput } from "./text";
 
 const FEATURE_ID = "@id";
@@ -132,6 +132,7 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
     sink.add(row, line, c[0], c[1]);
   }
   const table = sink.finish();
+  issues.addAll(tallyIssues(sink.tally(), file));
   if (table.length === 0 && !issues.hasErrors()) {
     issues.add({ severity: "error", code: "file-no-rows", file, message: "the FeatureCollection has no point features" });
   }

@@ -1,4 +1,4 @@
-import type { AttributeName, FileRole, PointTable } from "../types";
+import type { AttributeName, FileRole, InputIssue, PointTable } from "../types";
 import type { IssueCollector } from "../validate/issues";
 import { ColumnStore } from "./builder";
 import type { ColumnPlan, ColumnRole } from "./columns";
@@ -292,29 +292,75 @@ export class RowSink {
     return NaN;
   }
 
-  /** Builds the table and adds the summary issues (missing ids, times without a zone). */
-  finish(): PointTable {
-    const file = this.options.source;
-    if (this.missingIdCount > 0) {
-      this.issues.add({
-        severity: "warning",
-        code: "id-missing",
-        file,
-        line: this.missingIds[0],
-        column: this.names[this.ix.id],
-        message: `${this.missingIdCount} row(s) have no plant id (lines ${this.missingIds.join(", ")}${this.missingIdCount > this.missingIds.length ? ", …" : ""}); they can only be paired by position`,
-      });
-    }
-    if (this.noZoneCount > 0) {
-      this.issues.add({
-        severity: "warning",
-        code: "time-without-zone",
-        file,
-        line: this.noZoneFirst,
-        column: this.names[this.ix.time],
-        message: `${this.noZoneCount} time(s) have no UTC offset; give the field's time zone (e.g. --timezone Europe/Berlin) to use them. Until then they are left empty`,
-      });
-    }
-    return this.store.finish(file, this.options.role);
+  /** Counts behind the summary issues, so two parts of one file can be summarised together. */
+  tally(): Tally {
+    return {
+      missingIdCount: this.missingIdCount,
+      missingIdLines: this.missingIds.slice(),
+      noZoneCount: this.noZoneCount,
+      noZoneFirst: this.noZoneFirst,
+      idColumn: this.names[this.ix.id],
+      timeColumn: this.names[this.ix.time],
+    };
   }
+
+  /** Builds the table (summary issues are made from `tally()` with `tallyIssues`). */
+  finish(): PointTable {
+    return this.store.finish(this.options.source, this.options.role);
+  }
+}
+
+/** Rows without ids and times without a zone, counted while reading. */
+export interface Tally {
+  missingIdCount: number;
+  /** First (up to 20) lines without an id. */
+  missingIdLines: number[];
+  noZoneCount: number;
+  noZoneFirst: number;
+  idColumn?: string;
+  timeColumn?: string;
+}
+
+/**
+ * Adds two tallies; `lineOffset` is added to the second one's lines.
+ * @example addTallies(a, b, 1000).missingIdCount // a.missingIdCount + b.missingIdCount
+ */
+export function addTallies(a: Tally, b: Tally, lineOffset: number): Tally {
+  return {
+    missingIdCount: a.missingIdCount + b.missingIdCount,
+    missingIdLines: [...a.missingIdLines, ...b.missingIdLines.map((l) => l + lineOffset)].slice(0, 20),
+    noZoneCount: a.noZoneCount + b.noZoneCount,
+    noZoneFirst: a.noZoneCount > 0 ? a.noZoneFirst : b.noZoneCount > 0 ? b.noZoneFirst + lineOffset : -1,
+    idColumn: a.idColumn ?? b.idColumn,
+    timeColumn: a.timeColumn ?? b.timeColumn,
+  };
+}
+
+/**
+ * The summary warnings of a tally: rows without a plant id, times without a UTC offset.
+ * @example tallyIssues({ missingIdCount: 2, missingIdLines: [3, 9], noZoneCount: 0, noZoneFirst: -1 }, "p.csv")[0].code // "id-missing"
+ */
+export function tallyIssues(t: Tally, file: string): InputIssue[] {
+  const out: InputIssue[] = [];
+  if (t.missingIdCount > 0) {
+    out.push({
+      severity: "warning",
+      code: "id-missing",
+      file,
+      line: t.missingIdLines[0],
+      column: t.idColumn,
+      message: `${t.missingIdCount} row(s) have no plant id (lines ${t.missingIdLines.join(", ")}${t.missingIdCount > t.missingIdLines.length ? ", …" : ""}); they can only be paired by position`,
+    });
+  }
+  if (t.noZoneCount > 0) {
+    out.push({
+      severity: "warning",
+      code: "time-without-zone",
+      file,
+      line: t.noZoneFirst,
+      column: t.timeColumn,
+      message: `${t.noZoneCount} time(s) have no UTC offset; give the field's time zone (e.g. --timezone Europe/Berlin) to use them. Until then they are left empty`,
+    });
+  }
+  return out;
 }

@@ -47,7 +47,7 @@ export function rowFrame(dE: Float64Array, dN: Float64Array, bearingDeg: number)
   const cross = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     along[i] = dE[i] * s + dN[i] * c;
-    cross[i] = -dE[i] * c + dN[i] * s;
+    cross[i] = dE[i] * c - dN[i] * s;
   }
   return { along, cross };
 }

@@ -35,7 +35,7 @@ export async function seedDemo(): Promise<"created" | "present"> {
       orgId, userId: ownerId,
       input: {
         name: f.name, farm: f.farm, crs: DEMO_CRS, timeZone: DEMO_TIME_ZONE, rowBearingDeg: f.bearingDeg,
-        bedSpacingM: f.bedSpacingM, rowsPerBed: f.rowsPerBed, rowSpacingM: f.rowSpacingM,
+        bedSpacingM: f.bedSpacingM, rowsPerBed: f.rowsPerBed, rowSpacingM: f.rowSpacingM, boundary: null,
       },
     });
   }
@@ -45,7 +45,7 @@ export async function seedDemo(): Promise<"created" | "present"> {
   });
   await createField(db, {
     orgId: other.orgId, userId: other.userId,
-    input: { ...OTHER_FIELD, rowBearingDeg: null, bedSpacingM: null, rowsPerBed: null, rowSpacingM: null },
+    input: { ...OTHER_FIELD, rowBearingDeg: null, bedSpacingM: null, rowsPerBed: null, rowSpacingM: null, boundary: null },
   });
   return "created";
 }

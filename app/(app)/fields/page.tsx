@@ -2,7 +2,9 @@ import type { Metadata } from "next";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
+import Link from "next/link";
 import { Empty, PageTitle, Panel, TextLink, formatMm } from "@/app/_components/ui";
+import { CAN_PREPARE } from "@/lib/roles";
 
 export const metadata: Metadata = { title: "Fields" };
 
@@ -12,7 +14,7 @@ export default async function FieldsPage() {
   return (
     <>
       <PageTitle sub={`${viewer.orgName} · ${fields.length} field${fields.length === 1 ? "" : "s"}`}>Fields</PageTitle>
-      <Panel title="All fields">
+      <Panel title="All fields" action={CAN_PREPARE.includes(viewer.role) ? <Link href="/fields/new" className="rounded-plot bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:bg-leaf-deep">New field</Link> : undefined}>
         {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
           <table className="w-full text-left text-sm" data-testid="field-list">
             <thead className="text-ink-faint">
