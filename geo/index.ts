@@ -6,6 +6,8 @@ export * from "./types";
 export { readPoints, formatFromName, type PointFileFormat } from "./read";
 export { readCsv, detectDelimiter, type ReadOptions, type ReadResult } from "./read/csv";
 export { readGeoJson } from "./read/geojson";
+export { appendReadResults } from "./read/merge";
+export { tallyIssues, addTallies, type Tally } from "./read/sink";
 export { planColumns, normaliseHeader, COLUMN_ROLES, type ColumnGuess, type ColumnMapping, type ColumnRole, type CoordinateKind } from "./read/columns";
 export { normaliseFix, parseNumber, TimeReader, type FixQuality } from "./read/values";
 export type { TextInput } from "./read/text";

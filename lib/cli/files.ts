@@ -1,16 +1,20 @@
 import { isAscii } from "node:buffer";
-import { createReadStream } from "node:fs";
+import { closeSync, createReadStream, openSync, readSync, statSync } from "node:fs";
 import { StringDecoder } from "node:string_decoder";
 import { Worker } from "node:worker_threads";
-import { readPoints, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
+import { appendReadResults, formatFromName, readPoints, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
 
-/** One file to read. */
+/** One file (or the tail of one) to read. */
 export interface ReadJob {
   path: string;
   role: FileRole;
   timeZone?: string;
   mapping?: ColumnMapping;
   format?: PointFileFormat;
+  /** Read from this byte offset on, led by `prefix` (the file's header line), instead of the whole file. */
+  start?: number;
+  end?: number;
+  prefix?: Uint8Array;
 }
 
 /** True when `b` does not end inside a UTF-8 multi-byte sequence. */
@@ -27,15 +31,20 @@ function endsOnCharBoundary(b: Buffer): boolean {
 }
 
 /**
- * UTF-8 text of a file in 1 MB chunks. Chunks that are pure ASCII (the usual machine export) are
- * turned into strings as Latin-1, which is the same text for ASCII and about twice as fast as UTF-8
- * decoding; other chunks go through a streaming UTF-8 decoder. A leading UTF-8 BOM is dropped.
+ * UTF-8 text of a file (or of a byte range led by a prefix) in 1 MB chunks. Chunks that are pure
+ * ASCII (the usual machine export) are turned into strings as Latin-1, which is the same text for
+ * ASCII and about twice as fast as UTF-8 decoding; other chunks go through a streaming UTF-8 decoder.
+ * A leading UTF-8 BOM is dropped.
  */
-export async function* fileText(path: string): AsyncGenerator<string> {
+export async function* fileText(path: string, range: { start?: number; end?: number; prefix?: Uint8Array } = {}): AsyncGenerator<string> {
   const decoder = new StringDecoder("utf8");
   let pending = false; // decoder holds part of a character
   let first = true;
-  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 }) as AsyncIterable<Buffer>) {
+  async function* bytes(): AsyncGenerator<Buffer> {
+    if (range.prefix) yield Buffer.from(range.prefix);
+    yield* createReadStream(path, { highWaterMark: 1 << 20, start: range.start, end: range.end === undefined ? undefined : range.end - 1 }) as AsyncIterable<Buffer>;
+  }
+  for await (const chunk of bytes()) {
     let b = chunk;
     if (first) {
       first = false;
@@ -55,9 +64,9 @@ export async function* fileText(path: string): AsyncGenerator<string> {
   if (tail) yield tail;
 }
 
-/** Reads a point file as a stream of text; the file name in messages is the path as given. */
+/** Reads a point file (or a part of one) as a stream of text; the file name in messages is the path as given. */
 export function readFileJob(job: ReadJob): Promise<ReadResult> {
-  return readPoints(fileText(job.path), {
+  return readPoints(fileText(job.path, job), {
     source: job.path,
     role: job.role,
     timeZone: job.timeZone,
@@ -78,22 +87,88 @@ export function transferList(r: ReadResult): ArrayBuffer[] {
 }
 
 /**
- * Reads a file on a worker thread (the other file is read on the main thread meanwhile; each takes
- * one of the two cores). Typed arrays are transferred back, not copied.
+ * Reads files on a worker thread, one after the other; typed arrays are transferred back, not copied.
+ * Under tsx a small .mjs entry registers the TypeScript loader first (Node 20 worker threads do not
+ * inherit tsx's hooks); starting it costs about half a second, so callers use it for large files only.
  */
-export function readFileInWorker(job: ReadJob): Promise<ReadResult> {
+export function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
   return new Promise((resolve, reject) => {
-    // Node 20 worker threads do not inherit tsx's loader hooks: a small .mjs entry registers tsx first.
     const boot = new URL("./worker-boot.mjs", import.meta.url);
     const entry = new URL("./read-worker.ts", import.meta.url).href;
-    const worker = new Worker(boot, { workerData: { ...job, entry } });
-    worker.once("message", (r: ReadResult) => {
+    const worker = new Worker(boot, { workerData: { jobs, entry } });
+    worker.once("message", (r: ReadResult[]) => {
       resolve(r);
       void worker.terminate();
     });
     worker.once("error", reject);
     worker.once("exit", (code) => {
-      if (code !== 0) reject(new Error(`reading ${job.path} on a worker thread stopped with code ${code}`));
+      if (code !== 0) reject(new Error(`reading ${jobs.map((j) => j.path).join(", ")} on a worker thread stopped with code ${code}`));
     });
   });
+}
+
+function sizeOf(path: string): number {
+  try {
+    return statSync(path).size;
+  } catch {
+    return 0;
+  }
+}
+
+/** Bytes [0, n) of a file (fewer at its end). */
+function head(path: string, at: number, n: number): Buffer {
+  const fd = openSync(path, "r");
+  try {
+    const b = Buffer.alloc(n);
+    const got = readSync(fd, b, 0, n, at);
+    return b.subarray(0, got);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** Below this combined size both files are read on the main thread (a worker costs more than it saves). */
+const PARALLEL_MIN_BYTES = 8e6;
+
+/**
+ * Reads the as-planted and survey files using both cores: the survey file on a worker thread and the
+ * planted file on the main thread; when one CSV file is much larger, its tail (from a line start
+ * chosen so both threads get about half the bytes) is read on the worker too, led by the header
+ * line, and the two parts are appended (`appendReadResults`). If a double quote appears anywhere in
+ * a split file (a quoted field could span the cut), that file is read again whole on the main thread.
+ */
+export async function readBoth(planted: ReadJob, survey: ReadJob, parallel?: boolean): Promise<[ReadResult, ReadResult]> {
+  const sp = sizeOf(planted.path), ss = sizeOf(survey.path);
+  const useWorker = parallel ?? sp + ss >= PARALLEL_MIN_BYTES;
+  if (!useWorker) return [await readFileJob(planted), await readFileJob(survey)];
+
+  const csv = (j: ReadJob) => (j.format ?? formatFromName(j.path)) === "csv";
+  const bigIsPlanted = sp >= ss;
+  const big = bigIsPlanted ? planted : survey, small = bigIsPlanted ? survey : planted;
+  const bigSize = Math.max(sp, ss), total = sp + ss;
+  let cut = -1, prefix: Buffer | null = null;
+  if (csv(big) && bigSize > total / 2 + 1e6) {
+    const first = head(big.path, 0, 1 << 16);
+    const nl = first.indexOf(0x0a);
+    const target = Math.floor(total / 2);
+    const probe = head(big.path, target, 1 << 16);
+    const k = probe.indexOf(0x0a);
+    if (nl >= 0 && k >= 0 && target + k + 1 < bigSize) {
+      prefix = first.subarray(0, nl + 1);
+      cut = target + k + 1;
+    }
+  }
+
+  if (cut < 0) {
+    const [s] = await Promise.all([readInWorker([small]), readFileJob(big)]).then(async ([w, b]) => [[w[0], b] as const]);
+    return bigIsPlanted ? [s[1], s[0]] : [s[0], s[1]];
+  }
+  const [workerResults, head1] = await Promise.all([
+    readInWorker([small, { ...big, start: cut, prefix: prefix! }]),
+    readFileJob({ ...big, end: cut }),
+  ]);
+  const [smallResult, tail] = workerResults;
+  const bigResult =
+    head1.sawQuote || tail.sawQuote ? await readFileJob(big) : appendReadResults(head1, tail, (head1.linesRead ?? 1) - 1);
+  return bigIsPlanted ? [bigResult, smallResult] : [smallResult, bigResult];
 }

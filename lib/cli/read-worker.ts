@@ -1,6 +1,7 @@
-/** Worker thread entry: reads one point file and posts the ReadResult back (typed arrays transferred). */
+/** Worker thread entry: reads the point files given and posts the ReadResults back (typed arrays transferred). */
 import { parentPort, workerData } from "node:worker_threads";
 import { readFileJob, transferList, type ReadJob } from "./files";
 
-const result = await readFileJob(workerData as ReadJob);
-parentPort!.postMessage(result, transferList(result));
+const results = [];
+for (const job of (workerData as { jobs: ReadJob[] }).jobs) results.push(await readFileJob(job));
+parentPort!.postMessage(results, results.flatMap(transferList));

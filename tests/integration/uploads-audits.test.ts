@@ -19,7 +19,7 @@ let profilesRoute: typeof import("@/app/api/profiles/route");
 
 function upload(cookie: string, file: Buffer | string, name: string, fields: Record<string, string>, targetField = fieldId) {
   const form = new FormData();
-  form.set("file", new File([file], name, { type: "text/csv" }));
+  form.set("file", new File([typeof file === "string" ? file : new Uint8Array(file)], name, { type: "text/csv" }));
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
   const r = new Request(`http://localhost:3000/api/fields/${targetField}/datasets`, { method: "POST", body: form, headers: { cookie } });
   return datasetsRoute.POST(r, ctx({ fieldId: targetField }));
