@@ -37,7 +37,7 @@ export const RESIDUALS_CSV_COLUMNS = [
 /** Columns of the unpaired-points CSV, in order. */
 export const UNPAIRED_CSV_COLUMNS = ["kind", "id", "file", "line", "e", "n", "crop", "bed", "row", "arm", "fix"] as const;
 
-const DANGEROUS_FIRST = new Set(["=", "+", "@", "\t", "\r"]);
+const DANGEROUS_FIRST = new Set(["=", "+", "-", "@", "\t", "\r"]);
 const NEEDS_QUOTES = /[",\r\n]/;
 
 /**

@@ -1,6 +1,7 @@
 import { isAscii } from "node:buffer";
 import { closeSync, createReadStream, openSync, readSync, statSync } from "node:fs";
 import { StringDecoder } from "node:string_decoder";
+import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { appendReadResults, formatFromName, readPoints, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
 
@@ -88,13 +89,14 @@ export function transferList(r: ReadResult): ArrayBuffer[] {
 
 /**
  * Reads files on a worker thread, one after the other; typed arrays are transferred back, not copied.
- * Under tsx a small .mjs entry registers the TypeScript loader first (Node 20 worker threads do not
- * inherit tsx's hooks); starting it costs about half a second, so callers use it for large files only.
+ * Under tsx a small CommonJS entry registers tsx's in-thread hook first (Node 20 worker threads do
+ * not inherit tsx's loader); starting it still costs a few hundred milliseconds, so callers use it
+ * for large files only.
  */
 export function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
   return new Promise((resolve, reject) => {
-    const boot = new URL("./worker-boot.mjs", import.meta.url);
-    const entry = new URL("./read-worker.ts", import.meta.url).href;
+    const boot = new URL("./worker-boot.cjs", import.meta.url);
+    const entry = fileURLToPath(new URL("./read-worker.ts", import.meta.url));
     const worker = new Worker(boot, { workerData: { jobs, entry } });
     worker.once("message", (r: ReadResult[]) => {
       resolve(r);
@@ -160,8 +162,8 @@ export async function readBoth(planted: ReadJob, survey: ReadJob, parallel?: boo
   }
 
   if (cut < 0) {
-    const [s] = await Promise.all([readInWorker([small]), readFileJob(big)]).then(async ([w, b]) => [[w[0], b] as const]);
-    return bigIsPlanted ? [s[1], s[0]] : [s[0], s[1]];
+    const [[smallResult], bigResult] = await Promise.all([readInWorker([small]), readFileJob(big)]);
+    return bigIsPlanted ? [bigResult, smallResult] : [smallResult, bigResult];
   }
   const [workerResults, head1] = await Promise.all([
     readInWorker([small, { ...big, start: cut, prefix: prefix! }]),

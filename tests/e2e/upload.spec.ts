@@ -114,11 +114,13 @@ test("upload -- the demo as-planted file is previewed, its columns checked, the 
 
   // One column cannot play two parts.
   await upload.role("Longitude").selectOption("lat");
-  await expect(page.locator('[data-field-error="map-x"]')).toContainText("already used as Latitude");
+  await expect(page.locator('[data-field-error="map-x"]')).toContainText("also chosen as Latitude");
+  await expect(page.locator('[data-field-error="map-y"]')).toContainText("also chosen as Longitude");
   await upload.save();
   await expect(upload.transferBar).toHaveCount(0);
   await upload.role("Longitude").selectOption("lon");
   await expect(page.locator('[data-field-error="map-x"]')).toHaveCount(0);
+  await expect(page.locator('[data-field-error="map-y"]')).toHaveCount(0);
 
   await page.getByLabel("Save this mapping as a preset named").check();
   await page.getByLabel("Preset name").fill("Sedge planter export");
@@ -168,7 +170,8 @@ test("upload -- the survey file needs one column corrected, and its warning acce
   await upload.acceptWarningsAndSave();
   await expect(upload.saved).toBeVisible({ timeout: 30_000 });
   await upload.expectComplete();
-  await expect(page.getByTestId("saved-rows")).toHaveText("382");
+  const surveyRows = fs.readFileSync(SURVEY, "utf8").split("\n").filter((l) => l.trim() !== "").length - 1;
+  await expect(page.getByTestId("saved-rows")).toHaveText(surveyRows.toLocaleString("en-GB"));
 
   const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as { kind: string; mapping: Record<string, string> }[];
   expect(datasets).toHaveLength(1);

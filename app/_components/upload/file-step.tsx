@@ -319,7 +319,7 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
                 : chosen && samples.has(chosen) ? `e.g. ${samples.get(chosen)}` : undefined;
               return (
                 <FieldRow key={role} id={id} label={label(role)} error={err} hint={hint}>
-                  <select id={id} {...register(`columns.${role}`)} aria-invalid={err ? true : undefined}
+                  <select id={id} {...register(`columns.${role}`, { deps: roles.filter((o) => o !== role).map((o) => `columns.${o}` as const) })} aria-invalid={err ? true : undefined}
                     aria-describedby={describedBy(id, { error: err, hint })} className={inputClass(!!err)}>
                     <option value="">— not in this file —</option>
                     {header.map((h, i) => <option key={`${i}-${h}`} value={h}>{h}</option>)}

@@ -131,7 +131,7 @@ export function mappingSchema(header: readonly string[], format: FileFormat, kin
           if (!v.columns[r]) ctx.addIssue({ code: "custom", path: ["columns", r], message: `Choose the column that holds the ${label(r).toLowerCase()}.` });
         }
       }
-      const usedBy = new Map<string, ColumnRole>();
+      const rolesOf = new Map<string, ColumnRole[]>();
       for (const r of COLUMN_ROLES) {
         const name = v.columns[r];
         if (!name) continue;
@@ -139,9 +139,15 @@ export function mappingSchema(header: readonly string[], format: FileFormat, kin
           ctx.addIssue({ code: "custom", path: ["columns", r], message: `“${name}” is not a column of this file; choose one of its columns.` });
           continue;
         }
-        const other = usedBy.get(name);
-        if (other) ctx.addIssue({ code: "custom", path: ["columns", r], message: `“${name}” is already used as ${label(other)}; one column can play only one part.` });
-        else usedBy.set(name, r);
+        rolesOf.set(name, [...(rolesOf.get(name) ?? []), r]);
+      }
+      // A column chosen twice: both choices say so, whichever was changed last.
+      for (const [name, rs] of rolesOf) {
+        if (rs.length < 2) continue;
+        for (const r of rs) {
+          const others = rs.filter((o) => o !== r).map(label).join(" and ");
+          ctx.addIssue({ code: "custom", path: ["columns", r], message: `“${name}” is also chosen as ${others}; one column can play only one part.` });
+        }
       }
       if (!!v.columns.rawX !== !!v.columns.rawY) {
         const missing = v.columns.rawX ? "rawY" : "rawX";
