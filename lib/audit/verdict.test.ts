@@ -14,7 +14,7 @@ describe("verdict", () => {
     const radial = new Float64Array(20).fill(0.004);
     const cross = new Float64Array(20).fill(0.003);
     // Newcombe 1998 / closed form: 20/20 gives a Clopper–Pearson lower bound of 0.025^(1/20) = 0.8316.
-    const cp = clopperPearson(20, 20, 0.95);
+    const cp = clopperPearson(20, 20, 0.95)!;
     expect(cp.lower).toBeCloseTo(0.8316, 4);
     const v = evaluateVerdict(profile, { pairs: 20, radial, cross, along: null, within: { share: 1, lower95: cp.lower } });
     expect(v.criteria.map((c) => [c.id, c.passed])).toEqual([["checkpoints", true], ["radial", true], ["cross", true], ["share", false]]);
