@@ -187,7 +187,8 @@ export interface ChartDataDto {
   dE: number[];
   dN: number[];
   radial: number[];
-  cross: number[] | null;
+  /** null entries where a pair has no cross-row value. */
+  cross: (number | null)[] | null;
   within: (boolean | null)[];
   sampled: boolean;
   total: number;

@@ -210,7 +210,7 @@ export async function chartData(db: DB, { auditId }: { auditId: string }): Promi
   const hasCross = rows.some((r) => r.cross !== null);
   return {
     dE: rows.map((r) => r.dE), dN: rows.map((r) => r.dN), radial: rows.map((r) => r.radial),
-    cross: hasCross ? rows.map((r) => r.cross ?? NaN) : null, within: rows.map((r) => r.within), sampled: step > 1, total,
+    cross: hasCross ? rows.map((r) => r.cross) : null, within: rows.map((r) => r.within), sampled: step > 1, total,
   };
 }
 

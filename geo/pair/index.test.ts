@@ -163,5 +163,11 @@ describe("pairing", () => {
     const r = pairPoints(planted, survey, { mode: "nearest" });
     expect(r.plantedIndex.length).toBe(n);
     for (let k = 0; k < n; k++) expect(r.surveyIndex[k]).toBe(n - 1 - r.plantedIndex[k]);
+    // the same survey in scattered order (visited in grid order internally): same pairs
+    const perm = Array.from({ length: n }, (_, i) => (i * 7919) % n);
+    const scattered = pts(perm.map((j) => [planted.x[j] + 0.004, planted.y[j] - 0.003]));
+    const q = pairPoints(planted, scattered, { mode: "nearest" });
+    expect(q.plantedIndex.length).toBe(n);
+    for (let k = 0; k < n; k++) expect(perm[q.surveyIndex[k]]).toBe(q.plantedIndex[k]);
   });
 });

@@ -275,7 +275,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
 }
 
 /**
- * Indices of the survey points flagged in `use` (and with finite positions), ordered by a coarse
+ * Indices of the survey points flagged in `use` (and with finite positions), kept in file order when
+ * consecutive points are already close (median step under 1/1000 of the extent), else ordered by a coarse
  * 1024 × 1024 grid over the central 99.8 % of their extent (row-major; counting sort, stable by index). Only the
  * visiting order changes; results do not depend on it.
  */
@@ -287,7 +288,13 @@ function spatialOrder(x: Float64Array, y: Float64Array, use: Uint8Array): Int32A
   let k = 0;
   for (let i = 0; i < n; i++) if (use[i] && x[i] === x[i] && y[i] === y[i]) idx[k++] = i;
   if (count < 4096) return idx;
+  // Already in walking order (consecutive points close together, the usual survey file)? Keep it.
+  const steps: number[] = [];
+  const stride = Math.max(1, Math.floor(count / 2000));
+  for (let j = 0; j + 1 < count; j += stride) steps.push(Math.hypot(x[idx[j + 1]] - x[idx[j]], y[idx[j + 1]] - y[idx[j]]));
+  steps.sort((p, q) => p - q);
   const [x0, x1] = spread(x, idx), [y0, y1] = spread(y, idx);
+  if (steps[steps.length >> 1] < Math.max(x1 - x0, y1 - y0) / 1000) return idx;
   const fx = x1 > x0 ? 1023 / (x1 - x0) : 0, fy = y1 > y0 ? 1023 / (y1 - y0) : 0;
   const cells = new Int32Array(count);
   const counts = new Int32Array(1024 * 1024 + 1);

@@ -111,19 +111,22 @@ export class ColumnStore {
 
   finish(source: string, role: FileRole): PointTable {
     const n = this.n;
+    // Exact-length copies that own their buffers (callers may pass `.buffer` on or transfer it).
+    const cutF = (a: Float64Array) => a.slice(0, n);
+    const cutI = (a: Int32Array) => a.slice(0, n);
     const attrs: PointTable["attrs"] = {};
     this.shape.attrs.forEach((a, k) => {
-      const col: CodedColumn = { codes: this.codes[k].slice(0, n), values: this.dicts[k].values.slice() };
+      const col: CodedColumn = { codes: cutI(this.codes[k]), values: this.dicts[k].values.slice() };
       attrs[a] = col;
     });
-    const cut = (a: Float64Array | null) => (a ? a.slice(0, n) : null);
+    const cut = (a: Float64Array | null) => (a ? cutF(a) : null);
     return {
       source,
       role,
       length: n,
-      x: this.x.slice(0, n),
-      y: this.y.slice(0, n),
-      line: this.line.slice(0, n),
+      x: cutF(this.x),
+      y: cutF(this.y),
+      line: cutI(this.line),
       id: this.id,
       attrs,
       time: cut(this.time),

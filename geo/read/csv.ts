@@ -172,55 +172,39 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   /** Quote-free text: split rows and fields by hand, only the cells a role needs are read. */
   const fastParse = (text: string, last: boolean): void => {
     const s = sink!;
-    const { starts, ends } = s;
+    const starts = s.starts, ends = s.ends;
     const lastNeeded = s.lastNeeded;
-    const nlChar = newline === "\r" ? "\r" : "\n";
+    const nlCode = newline === "\r" ? 13 : 10;
     const crlf = newline === "\r\n";
-    const delim = delimiter;
-    let pos = 0;
+    const dc = delimiter.charCodeAt(0);
     const n = text.length;
+    let pos = 0; // start of the current row
     for (;;) {
-      let nl = text.indexOf(nlChar, pos);
-      if (nl < 0) {
-        if (!last || pos >= n) break;
-        nl = n;
-      }
-      let end = nl;
-      if (crlf && end > pos && text.charCodeAt(end - 1) === 13) end--;
-      line++;
-      if (end > pos) {
-        let f = 0;
-        let a = pos;
-        for (;;) {
-          const d = text.indexOf(delim, a);
-          if (d < 0 || d >= end) {
-            if (f <= lastNeeded) {
-              starts[f] = a;
-              ends[f] = end;
-            }
-            f++;
-            break;
-          }
+      if (pos >= n) break;
+      // One pass over the row's characters: field boundaries up to the newline.
+      let f = 0, a = pos, j = pos;
+      for (; j < n; j++) {
+        const c = text.charCodeAt(j);
+        if (c === dc) {
           if (f <= lastNeeded) {
             starts[f] = a;
-            ends[f] = d;
+            ends[f] = j;
           }
           f++;
-          a = d + 1;
-          if (f > lastNeeded && f >= s.width) {
-            // Count the remaining fields only to warn about ragged rows.
-            while ((a = text.indexOf(delim, a)) >= 0 && a < end) {
-              f++;
-              a++;
-            }
-            f++;
-            break;
-          }
-        }
-        if (!(f === 1 && isBlank(text, pos, end))) s.addSpans(text, Math.min(f, lastNeeded + 1), line, f);
+          a = j + 1;
+        } else if (c === nlCode) break;
       }
-      pos = nl + 1;
-      if (pos > n) break;
+      if (j >= n && !last) break; // unfinished row: carried to the next slice
+      let end = j;
+      if (crlf && end > a && text.charCodeAt(end - 1) === 13) end--;
+      if (f <= lastNeeded) {
+        starts[f] = a;
+        ends[f] = end;
+      }
+      f++;
+      line++;
+      if (end > pos && !(f === 1 && isBlank(text, pos, end))) s.addSpans(text, Math.min(f, lastNeeded + 1), line, f);
+      pos = j + 1;
     }
     pending = last ? "" : text.substring(Math.min(pos, n));
   };

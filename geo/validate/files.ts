@@ -41,7 +41,8 @@ export function validateFiles(planted: FileInCrs, survey: FileInCrs, options: Fi
   for (const f of [planted, survey]) {
     const p = f.projected;
     for (let i = 0; i < p.length; i++) {
-      if (!Number.isFinite(p.x[i]) || !Number.isFinite(p.y[i])) {
+      const x = p.x[i], y = p.y[i];
+      if (!(x - x === 0) || !(y - y === 0)) {
         issues.add({
           severity: "error",
           code: "projection-failed",
@@ -77,8 +78,10 @@ export function validateFiles(planted: FileInCrs, survey: FileInCrs, options: Fi
     const mx = medianOf(p.x), my = medianOf(p.y);
     let count = 0;
     const lines: number[] = [];
+    const stray2 = stray * stray;
     for (let i = 0; i < p.length; i++) {
-      if (Math.hypot(p.x[i] - mx, p.y[i] - my) > stray) {
+      const dx = p.x[i] - mx, dy = p.y[i] - my;
+      if (dx * dx + dy * dy > stray2) {
         count++;
         if (lines.length < 20) lines.push(p.line[i]);
       }

@@ -15,6 +15,7 @@
 import { spawnSync } from "node:child_process";
 import { createWriteStream, existsSync, mkdirSync } from "node:fs";
 import { once } from "node:events";
+import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { parseArgs } from "node:util";
 import proj4 from "proj4";
@@ -137,6 +138,8 @@ async function runOnce(n: number, parallel: boolean): Promise<void> {
       n,
       exitCode: result.exitCode,
       timingsMs: Object.fromEntries(Object.entries(result.timings).map(([k, v]) => [k, Math.round(v)])),
+      cpuMs: Object.fromEntries(Object.entries(result.cpuTimings).map(([k, v]) => [k, Math.round(v)])),
+      loadAverage1m: Math.round(loadavg()[0] * 100) / 100,
       peakRssSampledMB: Math.round(peak / 1e6),
       maxRssMB: Math.round(maxRss / 1e6),
       pairs: s?.pairs,
@@ -186,12 +189,15 @@ async function main(): Promise<void> {
       process.stdout.write(line + "\n");
     }
   }
-  process.stdout.write("\n| N | read | validate | project | check | pair | row bearing | statistics | total | peak RSS (maxRSS) |\n|---|---|---|---|---|---|---|---|---|---|\n");
+  process.stdout.write(
+    "\nwall ms (CPU ms of all threads)\n| N | read | validate | project | check | pair | row bearing | statistics | total | peak RSS sampled (maxRSS) | load avg |\n|---|---|---|---|---|---|---|---|---|---|---|\n",
+  );
   for (const l of rows) {
     const r = JSON.parse(l);
-    const t = r.timingsMs;
+    const t = r.timingsMs, c = r.cpuMs;
+    const cell = (k: string) => `${t[k]} (${c[k]})`;
     process.stdout.write(
-      `| ${r.n.toLocaleString("en")} | ${t.read} | ${t.validate} | ${t.project} | ${t["check-files"]} | ${t.pair} | ${t["row-bearing"]} | ${t.statistics} | ${t.total} ms | ${r.peakRssSampledMB} MB (${r.maxRssMB} MB) |\n`,
+      `| ${r.n.toLocaleString("en")} | ${cell("read")} | ${cell("validate")} | ${cell("project")} | ${cell("check-files")} | ${cell("pair")} | ${cell("row-bearing")} | ${cell("statistics")} | ${cell("total")} | ${r.peakRssSampledMB} MB (${r.maxRssMB} MB) | ${r.loadAverage1m} |\n`,
     );
   }
 }

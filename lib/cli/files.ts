@@ -139,20 +139,35 @@ const PARALLEL_MIN_BYTES = 8e6;
  * line, and the two parts are appended (`appendReadResults`). If a double quote appears anywhere in
  * a split file (a quoted field could span the cut), that file is read again whole on the main thread.
  */
-export async function readBoth(planted: ReadJob, survey: ReadJob, parallel?: boolean): Promise<[ReadResult, ReadResult]> {
+export async function readBoth(
+  planted: ReadJob,
+  survey: ReadJob,
+  options: { parallel?: boolean; splitSlackBytes?: number } = {},
+): Promise<[ReadResult, ReadResult]> {
   const sp = sizeOf(planted.path), ss = sizeOf(survey.path);
-  const useWorker = parallel ?? sp + ss >= PARALLEL_MIN_BYTES;
-  if (!useWorker) return [await readFileJob(planted), await readFileJob(survey)];
+  const useWorker = options.parallel ?? sp + ss >= PARALLEL_MIN_BYTES;
+  if (useWorker) {
+    try {
+      return await readOnTwoThreads(planted, survey, sp, ss, options.splitSlackBytes ?? 1e6);
+    } catch {
+      // A worker thread could not run (e.g. no TypeScript loader): read on this thread instead.
+    }
+  }
+  return [await readFileJob(planted), await readFileJob(survey)];
+}
 
+async function readOnTwoThreads(planted: ReadJob, survey: ReadJob, sp: number, ss: number, slack: number): Promise<[ReadResult, ReadResult]> {
   const csv = (j: ReadJob) => (j.format ?? formatFromName(j.path)) === "csv";
   const bigIsPlanted = sp >= ss;
   const big = bigIsPlanted ? planted : survey, small = bigIsPlanted ? survey : planted;
   const bigSize = Math.max(sp, ss), total = sp + ss;
   let cut = -1, prefix: Buffer | null = null;
-  if (csv(big) && bigSize > total / 2 + 1e6) {
+  if (csv(big) && bigSize > total / 2 + slack) {
     const first = head(big.path, 0, 1 << 16);
     const nl = first.indexOf(0x0a);
-    const target = Math.floor(total / 2);
+    // The main thread starts parsing at once while the worker starts up (a few hundred ms), so the
+    // main thread takes a little more than half of the bytes.
+    const target = Math.min(bigSize - (1 << 17), Math.floor(total / 2 + 4e6));
     const probe = head(big.path, target, 1 << 16);
     const k = probe.indexOf(0x0a);
     if (nl >= 0 && k >= 0 && target + k + 1 < bigSize) {

@@ -26,7 +26,8 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   });
   await form.submit();
 
-  await expect(page).toHaveURL(/\/audits\/[0-9a-f-]{36}$/);
+  // The server computes in the same process, so the result page may take a few seconds to answer.
+  await expect(page).toHaveURL(/\/audits\/[0-9a-f-]{36}$/, { timeout: 30_000 });
   const result = new AuditResultPage(page);
   auditId = result.auditIdFromUrl();
   await result.waitUntilComputed();
@@ -78,12 +79,22 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   // Filter: only plants out of tolerance, counted by the server over all pairs.
   const out = s.withinTolerance!.n - s.withinTolerance!.within;
   expect(out).toBeGreaterThan(0);
-  await result.showOnly("only out of tolerance", "out");
+  await result.filter("Show", "only out of tolerance", "only", "out");
   await expect(result.residualStatus).toContainText(`of ${out}`);
   await expect(result.residualRows).toHaveCount(Math.min(out, 25));
   const marks = page.getByTestId("residual-row").locator("[data-pass]").filter({ hasText: /^(Within|Out)$/ });
   await expect(marks).toHaveCount(Math.min(out, 25));
   for (const flag of await marks.evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.pass))) expect(flag).toBe("false");
+
+  // Bed and plant id filters, also answered by the server.
+  await result.clearFilters();
+  const bed3 = s.groups.bed!.find((g) => g.key === "3")!;
+  await result.filter("Bed", "3", "bed", "3");
+  await expect(result.residualStatus).toContainText(`of ${bed3.pairs}`);
+  await result.filter("Plant id contains", "LA-3-2-", "q", "LA-3-2-");
+  const searched = await result.residualRowsData();
+  expect(searched.length).toBeGreaterThan(0);
+  for (const r of searched) { expect(r.plant).toContain("LA-3-2-"); expect(r.bed).toBe("3"); }
 
   // The per-plant CSV: one row per pair, largest radial errors from bed 3 (the RTK-float stretch).
   const { download, text } = await result.download("Per-plant errors (CSV)");

@@ -108,12 +108,12 @@ export function ProfilesManager({ canEdit }: { canEdit: boolean }) {
                       {p.note ? <span className="block text-xs text-ink-faint">{p.note}</span> : null}
                       <span className="block text-xs text-ink-faint">Changed {formatDate(p.updatedAt)}</span>
                     </th>
-                    <td className="pr-3 text-right align-top" data-col="radial">{p.radialM !== null ? formatMm(p.radialM) : "–"}</td>
-                    <td className="pr-3 text-right align-top" data-col="cross">{p.crossM !== null ? formatMm(p.crossM) : "–"}</td>
-                    <td className="pr-3 text-right align-top" data-col="along">{p.alongM !== null ? formatMm(p.alongM) : "–"}</td>
-                    <td className="pr-3 text-right align-top">{formatPct(p.requiredShare, 0)}</td>
-                    <td className="pr-3 text-right align-top">{formatPct(p.confidence, 0)}</td>
-                    <td className="pr-3 text-right align-top">{p.minCheckpoints}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap" data-col="radial">{p.radialM !== null ? formatMm(p.radialM) : "–"}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap" data-col="cross">{p.crossM !== null ? formatMm(p.crossM) : "–"}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap" data-col="along">{p.alongM !== null ? formatMm(p.alongM) : "–"}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap">{formatPct(p.requiredShare, 0)}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap">{formatPct(p.confidence, 0)}</td>
+                    <td className="pr-3 text-right align-top whitespace-nowrap">{p.minCheckpoints}</td>
                     {canEdit ? (
                       <td className="align-top whitespace-nowrap">
                         <button type="button" className="mr-2 font-medium text-leaf hover:underline" onClick={() => { setNotice(null); setDeleting(null); setEditing({ mode: "edit", profile: p }); }}

@@ -55,7 +55,7 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
         />
         <Figure
           testId="figure-nssda" label="NSSDA accuracy at 95 %" value={formatMm(s.nssda95)}
-          detail={<>{s.nssdaCase ? NSSDA_CASE[s.nssdaCase] ?? s.nssdaCase : null}{s.nssdaNote ? <> — {s.nssdaNote}</> : null}</>}
+          detail={s.nssdaNote ?? (s.nssdaCase ? NSSDA_CASE[s.nssdaCase] ?? s.nssdaCase : null)}
         />
         <Figure
           testId="figure-cross" label="Cross-row RMSE / mean" value={hasRowFrame ? `${formatMm(s.rmseCross)} / ${formatSignedMm(s.meanCross)}` : "–"}
@@ -82,7 +82,7 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
           testId="figure-helmert" label="Similarity fit (Helmert)"
           value={s.helmert ? `${formatSignedPpm(s.helmert.scale)} · ${formatArcsec(s.helmert.rotationArcsec)}` : "–"}
           detail={s.helmert
-            ? <>scale and rotation; shifts east {formatSignedMm(s.helmert.tE)}, north {formatSignedMm(s.helmert.tN)} (depend on the grid origin); fit residual {formatMm(s.helmert.rmse)}</>
+            ? <>scale and rotation; shifts east {formatSignedM(s.helmert.tE)}, north {formatSignedM(s.helmert.tN)} (they depend on the grid origin); fit residual {formatMm(s.helmert.rmse)}</>
             : "needs at least two pairs"}
         />
         <Figure
@@ -127,4 +127,8 @@ function formatSignedPpm(scale: number): string {
 
 function formatArcsec(arcsec: number): string {
   return `rotation ${arcsec >= 0 ? "+" : "\u2212"}${Math.abs(arcsec).toFixed(1)}″`;
+}
+
+function formatSignedM(m: number): string {
+  return `${m >= 0 ? "+" : "\u2212"}${Math.abs(m).toFixed(4)} m`;
 }

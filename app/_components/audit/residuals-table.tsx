@@ -22,7 +22,7 @@ const mmCell = (digits = 1) => ({ getValue }: { getValue: () => unknown }) => mm
 
 // Module scope keeps the column definitions stable between renders.
 const columns = helper.columns([
-  helper.accessor("seq", { header: "#" }),
+  helper.accessor("seq", { header: "#", cell: ({ getValue }) => (getValue() as number) + 1 }),
   helper.accessor("plantId", { header: "Plant id", cell: ({ row }) => row.original.plantId ?? <span className="text-ink-faint">{row.original.surveyId ? `survey ${row.original.surveyId}` : "no id"}</span> }),
   helper.accessor("bed", { header: "Bed", cell: ({ getValue }) => getValue() ?? "–" }),
   helper.accessor("row", { header: "Row", enableSorting: false, cell: ({ getValue }) => getValue() ?? "–" }),
@@ -65,9 +65,12 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
 
   // Plant id search waits for a pause in typing.
   useEffect(() => {
-    const t = setTimeout(() => setFilter("q", search.trim()), 300);
+    const t = setTimeout(() => {
+      const q = search.trim();
+      setFilters((f) => (f.q === q ? f : { ...f, q }));
+      setPagination((p) => (p.pageIndex === 0 ? p : { ...p, pageIndex: 0 }));
+    }, 300);
     return () => clearTimeout(t);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [search]);
 
   function setFilter<K extends keyof Filters>(k: K, v: Filters[K]) {
@@ -120,36 +123,36 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
       <p className="mb-3 text-sm text-ink-soft">Every paired plant. Choose a column heading to sort; filters and sorting apply to all {formatCount(summary.pairs)} pairs, not just this page.</p>
 
       <form className="mb-3 flex flex-wrap items-end gap-3 text-sm" role="search" aria-label="Filter per-plant errors" onSubmit={(e) => e.preventDefault()}>
-        <label className="flex flex-col gap-1">
-          <span className="font-medium">Show</span>
-          <select className="rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters.only} onChange={(e) => setFilter("only", e.target.value as Filters["only"])}>
+        <div className="flex flex-col gap-1">
+          <label htmlFor="residuals-only" className="font-medium">Show</label>
+          <select id="residuals-only" className="rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters.only} onChange={(e) => setFilter("only", e.target.value as Filters["only"])}>
             <option value="">all plants</option>
             <option value="out">only out of tolerance</option>
             <option value="outliers">only outliers</option>
           </select>
-        </label>
+        </div>
         {(["arm", "bed", "fix", "day"] as const).map((name) => {
           const opts = options(name);
           const label = { arm: "Tool arm", bed: "Bed", fix: "GNSS fix", day: "Planting day" }[name];
           return opts.length > 0 ? (
-            <label key={name} className="flex flex-col gap-1">
-              <span className="font-medium">{label}</span>
-              <select className="rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters[name]} onChange={(e) => setFilter(name, e.target.value)}>
+            <div key={name} className="flex flex-col gap-1">
+              <label htmlFor={`residuals-${name}`} className="font-medium">{label}</label>
+              <select id={`residuals-${name}`} className="rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters[name]} onChange={(e) => setFilter(name, e.target.value)}>
                 <option value="">any</option>
                 {opts.map((o) => <option key={o} value={o}>{o}</option>)}
               </select>
-            </label>
+            </div>
           ) : (
-            <label key={name} className="flex flex-col gap-1">
-              <span className="font-medium">{label}</span>
-              <input className="w-24 rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters[name]} onChange={(e) => setFilter(name, e.target.value.trim())} />
-            </label>
+            <div key={name} className="flex flex-col gap-1">
+              <label htmlFor={`residuals-${name}`} className="font-medium">{label}</label>
+              <input id={`residuals-${name}`} className="w-24 rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={filters[name]} onChange={(e) => setFilter(name, e.target.value.trim())} />
+            </div>
           );
         })}
-        <label className="flex flex-col gap-1">
-          <span className="font-medium">Plant id contains</span>
-          <input type="search" className="w-40 rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={search} onChange={(e) => setSearch(e.target.value)} />
-        </label>
+        <div className="flex flex-col gap-1">
+          <label htmlFor="residuals-q" className="font-medium">Plant id contains</label>
+          <input id="residuals-q" type="search" className="w-40 rounded-plot border border-chalk-line bg-white px-2 py-1.5" value={search} onChange={(e) => setSearch(e.target.value)} />
+        </div>
         {JSON.stringify(filters) !== JSON.stringify(NO_FILTERS) ? (
           <button type="button" className="rounded-plot border border-chalk-line px-3 py-1.5 hover:bg-chalk" onClick={() => { setSearch(""); setFilters(NO_FILTERS); setPagination((p) => ({ ...p, pageIndex: 0 })); }}>
             Clear filters
@@ -191,7 +194,7 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
           </thead>
           <tbody className="divide-y divide-chalk-deep">
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} data-testid="residual-row" data-bed={row.original.bed ?? ""} data-radial={row.original.radial}
+              <tr key={row.id} data-testid="residual-row" data-bed={row.original.bed ?? ""} data-radial={row.original.radial} data-plant={row.original.plantId ?? ""}
                 className={row.original.within === false ? "bg-alarm-pale/40" : undefined}>
                 {row.getAllCells().map((cell) => (
                   <td key={cell.id} className={`px-2 py-1.5 whitespace-nowrap ${NUMERIC.has(cell.column.id) ? "text-right" : ""}`}>
@@ -210,12 +213,12 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
         <span>Page {pagination.pageIndex + 1} of {Math.max(1, table.getPageCount())}</span>
         <button type="button" className="rounded-plot border border-chalk-line px-3 py-1 disabled:opacity-40" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>Next</button>
         <button type="button" className="rounded-plot border border-chalk-line px-3 py-1 disabled:opacity-40" onClick={() => table.lastPage()} disabled={!table.getCanNextPage()}>Last</button>
-        <label className="ml-auto flex items-center gap-2">
-          Rows per page
-          <select className="rounded-plot border border-chalk-line bg-white px-2 py-1" value={pagination.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
+        <span className="ml-auto flex items-center gap-2">
+          <label htmlFor="residuals-page-size">Rows per page</label>
+          <select id="residuals-page-size" className="rounded-plot border border-chalk-line bg-white px-2 py-1" value={pagination.pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
             {[25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
           </select>
-        </label>
+        </span>
       </nav>
     </section>
   );

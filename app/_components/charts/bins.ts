@@ -84,3 +84,11 @@ export function shareAtOrBelow(values: ArrayLike<number>, limit: number): number
   }
   return n === 0 ? NaN : k / n;
 }
+
+/** Round-number ticks from `min` to `max` (both included when they are multiples of the step). */
+export function niceTicks(min: number, max: number, target = 8): number[] {
+  const step = niceStep((max - min) / target);
+  const out: number[] = [];
+  for (let v = Math.ceil(min / step - 1e-9) * step; v <= max + 1e-9; v += step) out.push(Math.round(v * 1e6) / 1e6);
+  return out;
+}

@@ -1,13 +1,13 @@
 "use client";
 import { useMemo } from "react";
 import { Bar, BarChart, CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
-import { ceilTo, cumulativeCurve, histogram, niceStep, percentileSorted, type Bin } from "./bins";
+import { ceilTo, cumulativeCurve, histogram, niceStep, niceTicks, percentileSorted, type Bin } from "./bins";
 import { CHART, ChartFigure } from "./frame";
 
 const TARGET_BINS = 24;
 
-function limitLabel(value: string) {
-  return { value, position: "insideTopRight" as const, fontSize: 11, fill: CHART.alarm };
+function limitLabel(value: string, position: "insideTopRight" | "insideBottomRight" = "insideTopRight") {
+  return { value, position, fontSize: 11, fill: CHART.alarm };
 }
 
 function LimitSwatch({ colour = CHART.alarm, dash = "5 3" }: { colour?: string; dash?: string }) {
@@ -44,7 +44,7 @@ export function RadialHistogram({ radialMm, limitMm, caption }: { radialMm: read
     ]} note={bins[bins.length - 1].overflow ? `The last bar also counts every plant beyond ${max} mm.` : undefined}>
       <BarChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={bins} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} barCategoryGap={1} accessibilityLayer={false}>
         <CartesianGrid stroke={CHART.grid} vertical={false} />
-        <XAxis type="number" dataKey="mid" domain={[0, max]} tick={{ fontSize: 11 }} height={40}
+        <XAxis type="number" dataKey="mid" domain={[0, max]} ticks={niceTicks(0, max)} tick={{ fontSize: 11 }} height={40}
           label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} />
         <YAxis allowDecimals={false} tick={{ fontSize: 11 }} width={44}
           label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />
@@ -75,12 +75,13 @@ export function RadialCumulative({ radialMm, limitMm, requiredShare, caption }: 
     ]}>
       <LineChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={points} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} accessibilityLayer={false}>
         <CartesianGrid stroke={CHART.grid} />
-        <XAxis type="number" dataKey="x" domain={[0, max]} allowDataOverflow tick={{ fontSize: 11 }} height={40}
+        <XAxis type="number" dataKey="x" domain={[0, max]} ticks={niceTicks(0, max)} allowDataOverflow tick={{ fontSize: 11 }} height={40}
           label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} />
-        <YAxis type="number" domain={[0, 100]} ticks={[0, 25, 50, 75, 95, 100]} tick={{ fontSize: 11 }} width={44} unit=" %" />
+        <YAxis type="number" domain={[0, 100]} ticks={[0, 25, 50, 75, 100]} tick={{ fontSize: 11 }} width={44}
+          label={{ value: "plants within (%)", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />
         <Tooltip labelFormatter={(v) => `${Number(v).toFixed(1)} mm`} formatter={(v) => [`${Number(v).toFixed(1)} %`, "plants within"]} />
         <Line type="stepAfter" dataKey="pct" stroke={CHART.leaf} strokeWidth={2} dot={false} isAnimationActive={false} />
-        {limitMm !== null ? <ReferenceLine x={limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("limit")} /> : null}
+        {limitMm !== null ? <ReferenceLine x={limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("limit", "insideBottomRight")} /> : null}
         {requiredShare !== null ? <ReferenceLine y={requiredShare * 100} stroke={CHART.stake} strokeWidth={2} strokeDasharray="5 3" /> : null}
       </LineChart>
     </ChartFigure>
@@ -104,7 +105,7 @@ export function CrossHistogram({ crossMm, limitMm, caption }: { crossMm: readonl
     ]}>
       <BarChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={bins} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} barCategoryGap={1} accessibilityLayer={false}>
         <CartesianGrid stroke={CHART.grid} vertical={false} />
-        <XAxis type="number" dataKey="mid" domain={[-half, half]} tick={{ fontSize: 11 }} height={40}
+        <XAxis type="number" dataKey="mid" domain={[-half, half]} ticks={niceTicks(-half, half)} tick={{ fontSize: 11 }} height={40}
           label={{ value: "cross-row error (mm, + = right of row direction)", position: "insideBottom", offset: 0, fontSize: 12 }} />
         <YAxis allowDecimals={false} tick={{ fontSize: 11 }} width={44}
           label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />

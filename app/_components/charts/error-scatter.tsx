@@ -83,9 +83,9 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
           accessibilityLayer={false}
         >
           <CartesianGrid stroke={CHART.grid} />
-          <XAxis type="number" dataKey="x" name="dE" unit=" mm" domain={[-half, half]} ticks={ticks} allowDataOverflow height={axis}
+          <XAxis type="number" dataKey="x" name="dE" domain={[-half, half]} ticks={ticks} allowDataOverflow height={axis}
             label={{ value: "dE, east (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} tick={{ fontSize: 11 }} />
-          <YAxis type="number" dataKey="y" name="dN" unit=" mm" domain={[-half, half]} ticks={ticks} allowDataOverflow width={axis}
+          <YAxis type="number" dataKey="y" name="dN" domain={[-half, half]} ticks={ticks} allowDataOverflow width={axis}
             label={{ value: "dN, north (mm)", angle: -90, position: "insideLeft", offset: 4, fontSize: 12 }} tick={{ fontSize: 11 }} />
           <ReferenceLine x={0} stroke={CHART.axis} />
           <ReferenceLine y={0} stroke={CHART.axis} />
@@ -100,6 +100,8 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
   );
 }
 
+const LABEL_ANGLES = [Math.PI / 4, -Math.PI / 6, (5 * Math.PI) / 6];
+
 function RingLayer({ rings }: { rings: Ring[] }) {
   const xs = useXAxisScale();
   const ys = useYAxisScale();
@@ -108,14 +110,18 @@ function RingLayer({ rings }: { rings: Ring[] }) {
   if (cx === undefined || cy === undefined) return null;
   return (
     <g aria-hidden="true">
-      {rings.map((r) => {
+      {rings.map((r, i) => {
         const ex = xs(r.radiusMm), ey = ys(r.radiusMm);
         if (ex === undefined || ey === undefined) return null;
         const rx = Math.abs(ex - cx), ry = Math.abs(ey - cy);
+        // Each ring's label sits at its own angle so small, close rings stay readable.
+        const a = LABEL_ANGLES[i % LABEL_ANGLES.length];
+        const lx = cx + rx * Math.cos(a), ly = cy - ry * Math.sin(a);
         return (
           <g key={r.id} data-ring={r.id}>
             <ellipse cx={cx} cy={cy} rx={rx} ry={ry} fill="none" stroke={r.colour} strokeWidth={1.6} strokeDasharray={r.dash} />
-            <text x={cx + rx * Math.SQRT1_2 + 3} y={cy - ry * Math.SQRT1_2 - 3} fontSize={11} fill={r.colour}>{r.label}</text>
+            <text x={lx + (Math.cos(a) >= 0 ? 3 : -3)} y={ly + (Math.sin(a) >= 0 ? -3 : 11)} textAnchor={Math.cos(a) >= 0 ? "start" : "end"}
+              fontSize={11} fill={r.colour} paintOrder="stroke" stroke="#fff" strokeWidth={3}>{r.label}</text>
           </g>
         );
       })}

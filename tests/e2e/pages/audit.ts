@@ -103,17 +103,25 @@ export class AuditResultPage {
     await expect(this.page.getByTestId("residuals-table")).toHaveAttribute("aria-busy", "false");
   }
 
-  async showOnly(choice: "only out of tolerance" | "only outliers", only: "out" | "outliers") {
-    const answered = this.page.waitForResponse((r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get("only") === only);
-    await this.page.getByLabel("Show", { exact: true }).selectOption({ label: choice });
+  /** Change one filter control and wait until the server's answer for it is on screen. */
+  async filter(label: "Show" | "Tool arm" | "Bed" | "GNSS fix" | "Planting day" | "Plant id contains", value: string, param: string, expected: string) {
+    const answered = this.page.waitForResponse((r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get(param) === expected);
+    const control = this.page.getByTestId("residuals").getByLabel(label, { exact: true });
+    if (label === "Plant id contains") await control.fill(value);
+    else await control.selectOption({ label: value });
     await answered;
     await expect(this.page.getByTestId("residuals-table")).toHaveAttribute("aria-busy", "false");
   }
 
+  async clearFilters() {
+    await this.page.getByRole("button", { name: "Clear filters" }).click();
+    await expect(this.page.getByTestId("residuals-table")).toHaveAttribute("aria-busy", "false");
+  }
+
   /** Radial errors (m) and beds of the rows on the current page of the residuals table. */
-  async residualRowsData(): Promise<{ radial: number; bed: string }[]> {
+  async residualRowsData(): Promise<{ radial: number; bed: string; plant: string }[]> {
     return this.residualRows.evaluateAll((rows) => rows.map((r) => ({
-      radial: Number((r as HTMLElement).dataset.radial), bed: (r as HTMLElement).dataset.bed ?? "",
+      radial: Number((r as HTMLElement).dataset.radial), bed: (r as HTMLElement).dataset.bed ?? "", plant: (r as HTMLElement).dataset.plant ?? "",
     })));
   }
 

@@ -63,6 +63,14 @@ export class UploadPage {
     await expect(this.previewTable).toBeVisible();
   }
 
+  /** Opens the file picker from the keyboard (focus, then Enter) and chooses the file there. */
+  async chooseWithKeyboard(file: string | { name: string; mimeType: string; buffer: Buffer }) {
+    await this.fileInput.focus();
+    const [chooser] = await Promise.all([this.page.waitForEvent("filechooser"), this.page.keyboard.press("Enter")]);
+    await chooser.setFiles(file);
+    await expect(this.previewTable).toBeVisible();
+  }
+
   /** The select of one column role, by its label (e.g. "Latitude", "Stated precision (m)"). */
   role(label: string): Locator {
     return this.page.getByTestId("mapping-form").getByLabel(label, { exact: true });

@@ -1,0 +1,55 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requirePageViewer } from "@/lib/access";
+import { getDb } from "@/db/client";
+import { getFieldMapSummary } from "@/db/queries/map";
+import { FieldIdParam } from "@/lib/validation/field";
+import { Empty, Panel, formatDate } from "@/app/_components/ui";
+import { MapLoader } from "@/app/_components/map/map-loader";
+import { BedTable } from "@/app/_components/map/bed-table";
+import { RECORD_ACCURACY_REMINDER } from "@/lib/map/guidance";
+
+export const metadata: Metadata = { title: "Field map" };
+
+const mm = (m: number | null) => (m === null ? null : `${(m * 1000).toFixed(0)} mm`);
+
+export default async function FieldMapPage({ params }: { params: Promise<{ fieldId: string }> }) {
+  const viewer = await requirePageViewer();
+  const parsed = FieldIdParam.safeParse(await params);
+  if (!parsed.success) notFound();
+  const view = await getFieldMapSummary(await getDb(), { fieldId: parsed.data.fieldId, orgId: viewer.orgId });
+  if (!view) notFound();
+  const p = view.profile;
+  const limits = p ? [mm(p.radialM) && `radial ${mm(p.radialM)}`, mm(p.crossM) && `cross-row ${mm(p.crossM)}`, mm(p.alongM) && `along-row ${mm(p.alongM)}`].filter(Boolean).join(", ") : "";
+  return (
+    <div className="grid gap-5" data-testid="field-map-page">
+      <header>
+        <p className="text-sm text-ink-soft">
+          <Link href={`/fields/${view.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">{view.field.name}</Link>
+          {view.audit ? <>{" · "}<Link href={`/audits/${view.audit.id}/map`} className="font-medium text-leaf underline-offset-2 hover:underline">full audit map</Link></> : null}
+        </p>
+        <h1 className="text-xl font-semibold tracking-tight">Where the records of {view.field.name} can be relied on</h1>
+        {view.audit ? (
+          <p className="mt-1 text-sm text-ink-soft" data-testid="field-map-audit">
+            From the latest audit with results, <span className="font-medium text-ink">{view.audit.title}</span>
+            {view.audit.computedAt ? <> (computed {formatDate(view.audit.computedAt)})</> : null}
+            {p ? <>, at the tolerance “{p.name}”{limits ? ` (${limits}; ${Math.round(p.requiredShare * 100)} % of plants within, shown with ${Math.round(p.confidence * 100)} % confidence)` : ""}</> : null}.
+          </p>
+        ) : null}
+      </header>
+      {view.audit ? (
+        <>
+          <p className="rounded-plot border-l-4 border-stake bg-stake-pale p-4 text-sm" data-testid="field-guidance">{view.summary}</p>
+          <MapLoader auditId={view.audit.id} mode="grower" />
+          <Panel title="Bed by bed">
+            <BedTable beds={view.beds} guidance={view.guidance} caption={`Checkpoints per bed in ${view.field.name}`} />
+            <p className="mt-3 text-xs text-ink-faint">{RECORD_ACCURACY_REMINDER}</p>
+          </Panel>
+        </>
+      ) : (
+        <Panel title="No results yet"><Empty>{view.summary}</Empty></Panel>
+      )}
+    </div>
+  );
+}
