@@ -197,7 +197,7 @@ export function FieldForm(props: FieldFormProps) {
             {editing ? (
               <button type="button" className={buttonClass.secondary}
                 disabled={derived.data?.rowBearingDeg == null}
-                title={derived.data?.rowBearingDeg == null ? "Upload as-planted records first" : undefined}
+                title={derived.error ? "The records could not be read for suggestions just now" : derived.data?.rowBearingDeg == null ? "Upload as-planted records first" : undefined}
                 onClick={() => setValue("rowBearingDeg", derived.data!.rowBearingDeg!.toFixed(1), { shouldValidate: true, shouldDirty: true })}>
                 Take from the as-planted records
               </button>
@@ -228,7 +228,10 @@ export function FieldForm(props: FieldFormProps) {
             <BoundaryChoice value="records" current={boundarySource} onChoose={chooseBoundary}
               disabled={!derived.data?.boundary}
               label="Outline of the as-planted records"
-              note={!editing ? "available once as-planted records are uploaded" : derived.isLoading ? "looking at the records…" : !derived.data?.boundary ? "no as-planted records yet" : undefined} />
+              note={!editing ? "available once as-planted records are uploaded"
+                : derived.isLoading ? "looking at the records…"
+                  : derived.error ? "the records could not be read for suggestions just now"
+                    : !derived.data?.boundary ? "no as-planted records yet" : undefined} />
             <BoundaryChoice value="file" current={boundarySource} onChoose={chooseBoundary} label="From a GeoJSON file (WGS 84 longitude/latitude)" />
           </div>
         </fieldset>

@@ -42,6 +42,8 @@ interface Progress {
   stage: ServerStage | null;
   stageFraction: number;
   done: ServerStage[];
+  /** The server refused the file at `stage`; nothing was saved. */
+  stopped?: boolean;
 }
 
 const STAGES: { stage: ServerStage; label: string }[] = [
@@ -115,7 +117,6 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
     presetDecided.current = true;
     const best = bestPreset(presets.data.presets, header, format);
     if (best) applyPreset(best, true);
-    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [presets.data]);
 
   const plan = useMemo(() => planFor(header, format, toColumnMapping(values, format)), [header, format, values]);
@@ -183,9 +184,11 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
       return;
     }
     if (outcome.kind === "network") {
+      setProgress((p) => (p ? { ...p, stopped: true } : p));
       setResult({ name: "failed", message: outcome.message });
       return;
     }
+    setProgress((p) => (p ? { ...p, stopped: true } : p));
     const issues = asIssues(outcome.issues);
     if (outcome.code === "invalid_file") return setResult({ name: "invalid", message: outcome.message, issues });
     if (outcome.code === "warnings_unaccepted") return setResult({ name: "warnings", message: outcome.message, issues });
@@ -355,7 +358,7 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
               <input type="checkbox" className="accent-leaf" {...register("savePreset")} />
               Save this mapping as a preset named
             </label>
-            <label htmlFor="presetName" className="sr-only">Preset name</label>
+            <label htmlFor="presetName" className="sr-only">Name of the preset</label>
             <input id="presetName" type="text" autoComplete="off" placeholder="e.g. Planter export v2"
               disabled={!values.savePreset || locked} {...register("presetName")}
               aria-invalid={errors.presetName ? true : undefined}
@@ -384,14 +387,16 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
           <h2 id="step-save" className="mb-3 text-base font-semibold">4. Saving</h2>
           <ProgressBar id="upload-transfer" label="Sending the file" value={progress.transfer}
             detail={progress.transfer === null ? undefined : `${formatBytes(Math.round((progress.transfer ?? 0) * file.size))} of ${formatBytes(file.size)}`} />
-          <ProgressBar id="upload-server" label={`On the server: ${STAGES.find((s) => s.stage === progress.stage)?.label.toLowerCase() ?? "waiting for the file"}`}
-            value={progress.stage ? progress.stageFraction : 0} />
+          <ProgressBar id="upload-server"
+            label={`On the server: ${progress.stopped ? "stopped while " : ""}${STAGES.find((s) => s.stage === progress.stage)?.label.toLowerCase() ?? (progress.stopped ? "answered before reading" : "waiting for the file")}`}
+            value={progress.stage ? progress.stageFraction : 0} detail={progress.stopped ? "nothing saved" : undefined} />
           <ol className="flex flex-wrap gap-x-6 gap-y-1 text-sm" aria-label="Server steps">
             {STAGES.map((s, i) => {
-              const state = progress.done.includes(s.stage) ? "done" : progress.stage === s.stage ? "now" : "later";
+              const state = progress.done.includes(s.stage) ? "done" : progress.stage === s.stage ? (progress.stopped ? "stopped" : "now") : "later";
               return (
-                <li key={s.stage} className={state === "done" ? "text-leaf" : state === "now" ? "font-medium" : "text-ink-faint"}>
-                  {state === "done" ? "✓ " : `${i + 1}. `}{s.label}<span className="sr-only">{state === "done" ? " (done)" : state === "now" ? " (in progress)" : ""}</span>
+                <li key={s.stage} className={state === "done" ? "text-leaf" : state === "now" ? "font-medium" : state === "stopped" ? "font-medium text-alarm" : "text-ink-faint"}>
+                  {state === "done" ? "✓ " : state === "stopped" ? "✕ " : `${i + 1}. `}{s.label}
+                  <span className="sr-only">{state === "done" ? " (done)" : state === "now" ? " (in progress)" : state === "stopped" ? " (stopped here)" : ""}</span>
                 </li>
               );
             })}
@@ -399,7 +404,13 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
         </section>
       ) : null}
 
-      <div ref={resultRef} tabIndex={-1} className="outline-none" aria-live="polite">
+      <p role="status" className="sr-only">
+        {result.name === "saved" ? `Saved: ${result.body.dataset.fileName}, ${result.body.dataset.rowCount} rows.`
+          : result.name === "invalid" ? `Nothing was saved: the file has ${result.issues.filter((i) => i.severity === "error").length} errors, listed below.`
+            : result.name === "warnings" ? "Not saved yet: read the warnings below and confirm to save."
+              : result.name === "failed" ? `The file was not saved. ${result.message}` : ""}
+      </p>
+      <div ref={resultRef} tabIndex={-1} className="outline-none">
         {result.name === "saved" ? <Saved body={result.body} field={field} kind={kind} onReset={onReset} /> : null}
         {result.name === "invalid" ? <Invalid result={result} file={file} field={field} /> : null}
         {result.name === "warnings" ? (

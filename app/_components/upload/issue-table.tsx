@@ -24,7 +24,7 @@ export function IssueTable({ issues, caption, testId }: { issues: readonly Input
           {sorted.map((i, n) => (
             <tr key={n} data-line={i.line ?? ""} data-column={i.column ?? ""}>
               <td className={`px-3 py-1.5 font-medium ${i.severity === "error" ? "text-alarm" : "text-loam"}`}>{i.severity === "error" ? "Error" : "Warning"}</td>
-              <td className="px-3 py-1.5 break-all">{i.file}</td>
+              <td className="px-3 py-1.5 whitespace-nowrap">{i.file}</td>
               <td className="px-3 py-1.5">{i.line ?? "–"}</td>
               <td className="px-3 py-1.5 font-mono text-xs">{i.column ?? "–"}</td>
               <td className="px-3 py-1.5 font-mono text-xs break-all">{i.value === undefined ? "–" : i.value === "" ? "(empty)" : i.value}</td>

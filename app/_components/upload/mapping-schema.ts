@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { COLUMN_ROLES, normaliseHeader, planColumns, type ColumnGuess, type ColumnMapping, type ColumnRole, type CoordinateKind } from "@/geo";
+import { COLUMN_ROLES, normaliseHeader, planColumns, type ColumnMapping, type ColumnRole, type CoordinateKind } from "@/geo";
 import { FieldInput } from "@/lib/validation/field";
 import type { PresetDto } from "@/lib/api-types";
 
@@ -156,5 +156,3 @@ export function mappingSchema(header: readonly string[], format: FileFormat, kin
       if (v.savePreset && !v.presetName) ctx.addIssue({ code: "custom", path: ["presetName"], message: "Name the preset, e.g. after the machine or its export." });
     });
 }
-
-export type GuessSummary = Pick<ColumnGuess, "columns" | "coordinates">;
