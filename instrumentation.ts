@@ -8,5 +8,11 @@ export async function register() {
     const result = await seedDemo();
     console.log(`[plotproof] demo data ${result === "created" ? "created" : "already present"}.`);
     console.log(demoCredentialsText());
+    if (!process.env.SMTP_HOST) {
+      // Demo e-mail goes to a fake SMTP server in this process; owners read it on /outbox.
+      const { ensureDemoMailCapture } = await import("./lib/mail/demo");
+      const smtp = await ensureDemoMailCapture();
+      console.log(`[plotproof] demo e-mail is captured by a fake SMTP server on ${smtp.host}:${smtp.port}; owners read it on /outbox.`);
+    }
   }
 }

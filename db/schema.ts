@@ -1,5 +1,6 @@
 import {
   pgTable, text, timestamp, boolean, integer, doublePrecision, jsonb, uuid, bigint, index, uniqueIndex, primaryKey, customType, real,
+  type AnyPgColumn,
 } from "drizzle-orm/pg-core";
 
 /** Raw bytes (uploaded files, columnar point blobs). */
@@ -222,7 +223,16 @@ export const audit = pgTable("audit", {
   createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [index("audit_org_field_idx").on(t.orgId, t.fieldId), index("audit_org_state_idx").on(t.orgId, t.state)]);
+  /** 1 for a first audit; a returned audit re-run after corrections gets the next number. */
+  revision: integer("revision").notNull().default(1),
+  /** The returned audit this revision corrects (at most one revision per audit). */
+  revisionOf: uuid("revision_of").references((): AnyPgColumn => audit.id, { onDelete: "restrict" }),
+  /** Id of revision 1 of the chain; null on revision 1 itself. */
+  seriesId: uuid("series_id"),
+}, (t) => [
+  index("audit_org_field_idx").on(t.orgId, t.fieldId), index("audit_org_state_idx").on(t.orgId, t.state),
+  uniqueIndex("audit_revision_of_uq").on(t.revisionOf), index("audit_series_idx").on(t.seriesId),
+]);
 
 /** Who did what, when. Append-only. */
 export const activity = pgTable("activity", {
@@ -290,3 +300,77 @@ export const auditReport = pgTable("audit_report", {
   kind: text("kind").notNull(),
   bytes: bytea("bytes").notNull(),
 }, (t) => [primaryKey({ columns: [t.auditId, t.kind] })]);
+
+
+// ---------------------------------------------------------------------------
+// Review and sign-off (lifecycle: computed → submitted → signed_off | returned → new revision).
+// Signed-off audits, their datasets, residuals and sign-off records are also guarded by database
+// triggers (see migration 0003_review_signoff.sql), besides the 409 answers of the API.
+// ---------------------------------------------------------------------------
+
+/** One step of an audit's review: submitted, returned, signed off, revised, verified. Append-only. */
+export const auditReviewEvent = pgTable("audit_review_event", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  orgId: text("org_id").notNull().references(() => organization.id, { onDelete: "cascade" }),
+  auditId: uuid("audit_id").notNull().references(() => audit.id, { onDelete: "restrict" }),
+  revision: integer("revision").notNull(),
+  /** "submitted" | "returned" | "signed_off" | "revised" | "verified". */
+  kind: text("kind").notNull(),
+  actorId: text("actor_id").references(() => user.id, { onDelete: "set null" }),
+  /** The actor's name at the time, kept when the account goes. */
+  actorName: text("actor_name").notNull(),
+  actorRole: text("actor_role").notNull(),
+  /** Submission note, return comment or deviation comment. */
+  note: text("note"),
+  /** Return reasons (codes, see lib/review/return-reasons.ts). */
+  reasons: jsonb("reasons"),
+  /** Outcome of a verification, or the new revision's id. */
+  detail: jsonb("detail"),
+  at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("review_event_audit_at_idx").on(t.auditId, t.at), index("review_event_org_at_idx").on(t.orgId, t.at)]);
+
+/**
+ * The sign-off of one audit revision: who signed, what they confirmed, and a SHA-256 over the
+ * canonical JSON of the audit's inputs and results, stored beside that JSON.
+ */
+export const auditSignoff = pgTable("audit_signoff", {
+  auditId: uuid("audit_id").primaryKey().references(() => audit.id, { onDelete: "restrict" }),
+  orgId: text("org_id").notNull().references(() => organization.id, { onDelete: "cascade" }),
+  revision: integer("revision").notNull(),
+  signerId: text("signer_id").references(() => user.id, { onDelete: "set null" }),
+  /** Account name and role at the time of signing. */
+  signerName: text("signer_name").notNull(),
+  signerRole: text("signer_role").notNull(),
+  /** The name the signer typed to sign. */
+  typedName: text("typed_name").notNull(),
+  /** What the signer confirmed, with the figures shown to them (lib/review/checklist.ts). */
+  checklist: jsonb("checklist").notNull(),
+  comment: text("comment"),
+  /** True when some verdict criterion failed and the audit was accepted with deviation. */
+  deviation: boolean("deviation").notNull(),
+  /** "sha256". */
+  algorithm: text("algorithm").notNull().default("sha256"),
+  /** Hex SHA-256 of `canonical` (UTF-8). */
+  sha256: text("sha256").notNull(),
+  /** The canonical JSON that was hashed (lib/review/canonical.ts). */
+  canonical: text("canonical").notNull(),
+  signedAt: timestamp("signed_at", { withTimezone: true }).notNull(),
+}, (t) => [index("signoff_org_idx").on(t.orgId, t.signedAt)]);
+
+/**
+ * Messages captured by the fake SMTP server of demo mode (lib/mail/fake-smtp.ts), shown to
+ * owners on /outbox. Nothing is stored here when a real SMTP relay is configured.
+ */
+export const mailCapture = pgTable("mail_capture", {
+  id: bigint("id", { mode: "number" }).primaryKey().generatedAlwaysAsIdentity(),
+  /** From the X-Plotproof-Org header; null for account mail such as password resets. */
+  orgId: text("org_id").references(() => organization.id, { onDelete: "cascade" }),
+  envelopeFrom: text("envelope_from"),
+  envelopeTo: jsonb("envelope_to").notNull(),
+  subject: text("subject").notNull(),
+  /** From the X-Plotproof-Kind header: invitation, password-reset, audit-submitted, audit-signed-off, audit-returned. */
+  kind: text("kind"),
+  textBody: text("text_body").notNull(),
+  raw: text("raw").notNull(),
+  receivedAt: timestamp("received_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("mail_capture_received_idx").on(t.receivedAt)]);

@@ -8,6 +8,10 @@ import { defaultStatements, ownerAc, memberAc } from "better-auth/plugins/organi
 import * as schema from "@/db/schema";
 import { getDb, type DB } from "@/db/client";
 import { env } from "@/lib/env";
+import { sendInvitationMail, sendPasswordResetMail } from "@/lib/mail/notify";
+
+/** Password-reset links work for one hour. */
+const RESET_LINK_SECONDS = 60 * 60;
 
 // better-auth's organisation permissions (members, invitations) for our four roles.
 // Plotproof's own permissions are checked by role name in lib/access.ts.
@@ -27,12 +31,22 @@ export function createAuth(db: DB, opts: { baseURL: string; secret: string; sign
     database: drizzleAdapter(db, { provider: "pg", schema }),
     // Browsers may reach a local install as localhost or 127.0.0.1.
     trustedOrigins: [opts.baseURL, `${origin.protocol}//localhost:${origin.port || 3000}`, `${origin.protocol}//127.0.0.1:${origin.port || 3000}`],
-    emailAndPassword: { enabled: true, autoSignIn: true, minPasswordLength: 10, maxPasswordLength: 128 },
+    emailAndPassword: {
+      enabled: true, autoSignIn: true, minPasswordLength: 10, maxPasswordLength: 128,
+      // E-mail the one-time link; a reset signs the account out everywhere else.
+      resetPasswordTokenExpiresIn: RESET_LINK_SECONDS,
+      revokeSessionsOnPasswordReset: true,
+      sendResetPassword: async ({ user, url }) => { await sendPasswordResetMail({ user, url }, RESET_LINK_SECONDS / 60); },
+    },
     // Sign-in attempts per minute per address; the browser tests raise it (AUTH_SIGNIN_PER_MINUTE).
     rateLimit: { enabled: true, window: 60, max: 300, customRules: { "/sign-in/email": { window: 60, max: opts.signInPerMinute ?? 10 } } },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     plugins: [
-      organization({ ac, roles: orgRoles, creatorRole: "owner", allowUserToCreateOrganization: true, invitationExpiresIn: 60 * 60 * 24 * 7 }),
+      organization({
+        ac, roles: orgRoles, creatorRole: "owner", allowUserToCreateOrganization: true, invitationExpiresIn: 60 * 60 * 24 * 7,
+        // The mailer never throws: a failed e-mail is recorded in the activity log and the team page shows the link.
+        sendInvitationEmail: async (data) => { await sendInvitationMail(data); },
+      }),
       nextCookies(),
     ],
     telemetry: { enabled: false },

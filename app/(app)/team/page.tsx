@@ -1,28 +1,28 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { requirePageViewer } from "@/lib/access";
-import { getDb } from "@/db/client";
-import { listTeamMembers } from "@/db/queries/members";
-import { PageTitle, Panel } from "@/app/_components/ui";
-import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
+import { mailConfig } from "@/lib/mail/config";
+import { PageTitle } from "@/app/_components/ui";
+import { TeamManager } from "./team-manager";
 
 export const metadata: Metadata = { title: "Team" };
 
 export default async function TeamPage() {
   const viewer = await requirePageViewer(["owner"]);
-  const members = await listTeamMembers(await getDb(), { orgId: viewer.orgId });
+  const mail = mailConfig();
   return (
     <>
       <PageTitle sub={viewer.orgName}>Team</PageTitle>
-      <Panel title="Members">
-        <table className="w-full text-left text-sm" data-testid="team-table">
-          <thead className="text-ink-faint"><tr><th className="py-1 font-medium">Name</th><th className="font-medium">E-mail</th><th className="font-medium">Role</th><th className="font-medium">Does</th></tr></thead>
-          <tbody className="divide-y divide-chalk-deep">
-            {members.map((m) => (
-              <tr key={m.memberId}><td className="py-2">{m.name}</td><td>{m.email}</td><td>{ROLE_LABEL[m.role]}</td><td className="text-ink-soft">{ROLE_DUTY[m.role]}</td></tr>
-            ))}
-          </tbody>
-        </table>
-      </Panel>
+      {mail.mode === "capture" ? (
+        <p className="mb-4 text-sm text-ink-soft" data-testid="outbox-note">
+          Demo mode: e-mails are not delivered but caught by a local fake mail server. <Link href="/outbox" className="font-medium text-leaf hover:underline">Read them in the outbox</Link>.
+        </p>
+      ) : mail.mode === "off" ? (
+        <p className="mb-4 rounded-plot border-l-4 border-stake bg-stake-pale p-3 text-sm">
+          No mail server is configured (SMTP_HOST), so invitations are not e-mailed: copy each invitation&apos;s link and send it yourself.
+        </p>
+      ) : null}
+      <TeamManager viewerEmail={viewer.email} />
     </>
   );
 }

@@ -92,16 +92,16 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
       )}
 
       <Section title="Inputs">
-        <table className="w-full text-left text-xs">
-          <thead className="text-ink-soft"><tr><th className="py-0.5 font-medium">File</th><th className="font-medium">Kind</th><th className="font-medium">Rows</th><th className="font-medium">CRS</th><th className="font-medium">Uploaded</th></tr></thead>
+        <table className="w-full text-left text-xs [&_td]:pr-3 [&_th]:pr-3">
+          <thead className="text-ink-soft"><tr><th className="py-0.5 font-medium">File</th><th className="font-medium">Kind</th><th className="font-medium">Rows</th><th className="font-medium">CRS</th><th className="whitespace-nowrap font-medium">Uploaded</th></tr></thead>
           <tbody>
             {datasets.map((d) => (
               <tr key={d.id} className="border-t border-chalk-deep align-top">
                 <td className="py-1"><span className="font-medium">{d.fileName}</span><br /><span className="font-mono text-[9px] break-all" data-testid={`report-sha-${d.kind}`}>SHA-256 {d.sha256}</span></td>
                 <td>{d.kind === "planted" ? "as-planted records" : "survey"}</td>
-                <td>{d.rowCount}</td>
-                <td>{d.crs}</td>
-                <td>{formatDate(d.uploadedAt)}{d.uploadedBy ? <><br />{uploaders.get(d.uploadedBy)}</> : null}</td>
+                <td className="tabular-nums">{d.rowCount}</td>
+                <td className="whitespace-nowrap">{d.crs}</td>
+                <td className="whitespace-nowrap">{formatDate(d.uploadedAt)}{d.uploadedBy ? <><br />{uploaders.get(d.uploadedBy)}</> : null}</td>
               </tr>
             ))}
           </tbody>

@@ -66,7 +66,7 @@ export function ReviewWorkspace({ audit, viewer, checklist, datasets, profiles }
           {audit.verdict && audit.profile ? (
             <>
               <p className="mb-2 text-sm">
-                <span className={`font-semibold ${audit.verdict.passed ? "text-leaf" : "text-alarm"}`}>{audit.verdict.passed ? "Every criterion passed" : `${failed.length} criterion${failed.length === 1 ? "" : "s"} failed`}</span>
+                <span className={`font-semibold ${audit.verdict.passed ? "text-leaf" : "text-alarm"}`}>{audit.verdict.passed ? "Every criterion passed" : `${failed.length} ${failed.length === 1 ? "criterion" : "criteria"} failed`}</span>
                 {" "}for “{audit.profile.name}” ({audit.profile.operation}).
               </p>
               <ul className="divide-y divide-chalk-deep text-sm" data-testid="review-criteria">

@@ -1,0 +1,14 @@
+import { guardedRoute } from "@/lib/access";
+import { ANY_ROLE } from "@/lib/roles";
+import { listAuditActivity } from "@/db/queries/activity";
+import { reviewAuditFor } from "@/lib/review/server/review-service";
+import { toActivityDtos } from "@/lib/review/server/activity";
+
+/** Who uploaded, computed, submitted, signed, returned, verified and downloaded this audit, oldest first. */
+export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const { db, audit } = await reviewAuditFor(viewer, params);
+  const rows = await listAuditActivity(db, {
+    orgId: viewer.orgId, auditId: audit.id, datasetIds: [audit.plantedDatasetId, audit.surveyDatasetId].filter((x): x is string => !!x),
+  });
+  return Response.json({ activity: toActivityDtos(rows) });
+});

@@ -1,0 +1,12 @@
+import { guardedRoute } from "@/lib/access";
+import { ANY_ROLE } from "@/lib/roles";
+import { reviewAuditFor } from "@/lib/review/server/review-service";
+import { requireResults } from "@/lib/review/server/record-sources";
+import { verifyAudit } from "@/lib/review/server/verify";
+
+/** Re-compute the audit from its raw files and compare with what is stored and what was signed. */
+export const POST = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const { db, audit } = await reviewAuditFor(viewer, params);
+  requireResults(audit);
+  return Response.json({ verification: await verifyAudit(viewer, db, audit) });
+});

@@ -1,0 +1,13 @@
+import { guardedRoute } from "@/lib/access";
+import { notFound } from "@/lib/errors";
+import { cancel, requireBrowserSession } from "../../_lib/team-service";
+import { InvitationIdParam } from "../../_lib/validation";
+
+/** Withdraw a pending invitation; its link stops working. */
+export const DELETE = guardedRoute<{ id: string }>(["owner"], async ({ req, viewer, params }) => {
+  requireBrowserSession(req);
+  const p = InvitationIdParam.safeParse(params);
+  if (!p.success) throw notFound("Invitation");
+  await cancel(req, viewer, p.data.id);
+  return new Response(null, { status: 204 });
+});

@@ -1,0 +1,48 @@
+import { describe, expect, it } from "vitest";
+import { AUDIT_STATES, allowedActions, canTransition, refusal, type LifecycleState } from "./lifecycle";
+import { ROLES, type Role } from "@/lib/roles";
+
+// The whole table, written out by hand: [from, to, roles that may].
+const EXPECTED: [LifecycleState, LifecycleState, Role[]][] = [
+  ["computed", "submitted", ["owner", "qa_lead", "technician"]],
+  ["submitted", "signed_off", ["owner", "qa_lead"]],
+  ["submitted", "returned", ["owner", "qa_lead"]],
+  ["returned", "computing", ["owner", "qa_lead", "technician"]],
+];
+
+describe("lifecycle", () => {
+  it("canTransition -- every role, every pair of states: only the listed moves are allowed", () => {
+    for (const role of ROLES) {
+      for (const from of AUDIT_STATES) {
+        for (const to of AUDIT_STATES) {
+          const listed = EXPECTED.some(([f, t, roles]) => f === from && t === to && roles.includes(role));
+          expect(canTransition(role, from, to), `${role}: ${from} → ${to}`).toBe(listed);
+        }
+      }
+    }
+  });
+
+  it("canTransition -- nothing ever leaves signed_off, for any role", () => {
+    for (const role of ROLES) for (const to of AUDIT_STATES) expect(canTransition(role, "signed_off", to)).toBe(false);
+  });
+
+  it("canTransition -- a grower never changes anything", () => {
+    for (const from of AUDIT_STATES) for (const to of AUDIT_STATES) expect(canTransition("grower", from, to)).toBe(false);
+  });
+
+  it("allowedActions -- what each role sees on a submitted audit", () => {
+    expect(allowedActions("qa_lead", "submitted")).toEqual(["sign_off", "return"]);
+    expect(allowedActions("owner", "submitted")).toEqual(["sign_off", "return"]);
+    expect(allowedActions("technician", "submitted")).toEqual([]);
+    expect(allowedActions("technician", "computed")).toEqual(["submit"]);
+  });
+
+  it("refusal -- the role is judged before the state (403), then the state (409)", () => {
+    expect(refusal("technician", "signed_off", "sign_off")?.status).toBe(403);
+    expect(refusal("grower", "computed", "submit")?.status).toBe(403);
+    expect(refusal("qa_lead", "computed", "sign_off")).toEqual({ status: 409, message: "Sign off is only possible when the audit is waiting for sign-off; it is computed, not yet submitted." });
+    expect(refusal("owner", "signed_off", "return")?.message).toMatch(/signed off.*can no longer be changed/);
+    expect(refusal("technician", "returned", "revise", { hasRevision: true })?.status).toBe(409);
+    expect(refusal("technician", "returned", "revise")).toBeNull();
+  });
+});

@@ -1,0 +1,95 @@
+/**
+ * The review lifecycle of an audit, as a table: which role may move an audit from which state to which.
+ * Pure and free of server imports, so client components can ask it which buttons to show; the route
+ * handlers ask the same table before changing anything.
+ *
+ *   computing → computed | failed                       (the engine)
+ *   computed  → submitted                               submit     owner, QA lead, technician
+ *   submitted → signed_off                              sign off   owner, QA lead
+ *   submitted → returned                                return     owner, QA lead
+ *   returned  → computing (a new revision row)          revise     owner, QA lead, technician
+ *   signed_off → nothing, ever.
+ */
+import type { Role } from "@/lib/roles";
+
+export const AUDIT_STATES = ["computing", "computed", "failed", "submitted", "signed_off", "returned"] as const;
+export type LifecycleState = (typeof AUDIT_STATES)[number];
+
+export const REVIEW_ACTIONS = ["submit", "sign_off", "return", "revise"] as const;
+export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
+
+export interface Transition {
+  action: ReviewAction;
+  from: LifecycleState;
+  /** For "revise" the old audit stays "returned"; `to` is the state of the new revision. */
+  to: LifecycleState;
+  roles: readonly Role[];
+}
+
+export const TRANSITIONS: readonly Transition[] = [
+  { action: "submit", from: "computed", to: "submitted", roles: ["owner", "qa_lead", "technician"] },
+  { action: "sign_off", from: "submitted", to: "signed_off", roles: ["owner", "qa_lead"] },
+  { action: "return", from: "submitted", to: "returned", roles: ["owner", "qa_lead"] },
+  { action: "revise", from: "returned", to: "computing", roles: ["owner", "qa_lead", "technician"] },
+];
+
+/** Plain names of the states, our own wording. */
+export const STATE_NAME: Record<LifecycleState, string> = {
+  computing: "Computing",
+  computed: "Computed, not yet submitted",
+  failed: "Failed to compute",
+  submitted: "Waiting for sign-off",
+  signed_off: "Signed off",
+  returned: "Returned for correction",
+};
+
+export const ACTION_NAME: Record<ReviewAction, string> = {
+  submit: "Submit for sign-off",
+  sign_off: "Sign off",
+  return: "Return for correction",
+  revise: "Start a corrected revision",
+};
+
+export function isLifecycleState(s: unknown): s is LifecycleState {
+  return typeof s === "string" && (AUDIT_STATES as readonly string[]).includes(s);
+}
+
+/** May `role` move an audit from `from` to `to`? */
+export function canTransition(role: Role, from: LifecycleState, to: LifecycleState): boolean {
+  return TRANSITIONS.some((t) => t.from === from && t.to === to && t.roles.includes(role));
+}
+
+export function transitionOf(action: ReviewAction): Transition {
+  return TRANSITIONS.find((t) => t.action === action)!;
+}
+
+/** The actions `role` can take on an audit in `state` right now. */
+export function allowedActions(role: Role, state: LifecycleState): ReviewAction[] {
+  return TRANSITIONS.filter((t) => t.from === state && t.roles.includes(role)).map((t) => t.action);
+}
+
+/**
+ * Why `action` is refused, or null when it is allowed. The role is checked first (403), then the
+ * state (409) — a role that may never take the action learns nothing about the audit's state.
+ * `hasRevision`: a returned audit that already has a corrected revision cannot be revised twice.
+ */
+export function refusal(role: Role, state: LifecycleState, action: ReviewAction, opts: { hasRevision?: boolean } = {}): { status: 403 | 409; message: string } | null {
+  const t = transitionOf(action);
+  if (!t.roles.includes(role)) {
+    return { status: 403, message: `${ACTION_NAME[action]} needs the ${t.roles.map(roleWord).join(" or ")} role.` };
+  }
+  if (state === "signed_off") {
+    return { status: 409, message: "This audit is signed off. A signed-off audit, its files and its results can no longer be changed; run a new audit if the field needs checking again." };
+  }
+  if (state !== t.from) {
+    return { status: 409, message: `${ACTION_NAME[action]} is only possible when the audit is ${STATE_NAME[t.from].toLowerCase()}; it is ${STATE_NAME[state].toLowerCase()}.` };
+  }
+  if (action === "revise" && opts.hasRevision) {
+    return { status: 409, message: "This returned audit already has a corrected revision; continue with that one." };
+  }
+  return null;
+}
+
+function roleWord(r: Role): string {
+  return { owner: "owner", qa_lead: "QA lead", technician: "technician", grower: "grower" }[r];
+}
