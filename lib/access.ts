@@ -80,10 +80,17 @@ export function guardedRoute<P = Record<string, never>>(
 
 /** For server components: sign-in page without a session, 403 page for the wrong role. */
 export async function requirePageViewer(roles: readonly Role[] = ANY_ROLE): Promise<Viewer> {
-  const viewer = await getViewer(await nextHeaders());
-  if (!viewer) redirect("/login");
+  const h = await nextHeaders();
+  const viewer = await getViewer(h);
+  if (!viewer) redirect(loginUrl(h));
   if (!roles.includes(viewer.role)) forbidden();
   return viewer;
+}
+
+/** The sign-in page, returning to the page asked for (proxy.ts passes it in x-plotproof-path). */
+function loginUrl(h: Headers): string {
+  const path = h.get("x-plotproof-path");
+  return path && path !== "/" && path.startsWith("/") && !path.startsWith("//") ? `/login?next=${encodeURIComponent(path)}` : "/login";
 }
 
 /** For server actions: the same checks, reported as a typed error state instead of a throw. */

@@ -30,6 +30,17 @@ export const notFound = (what: string) => new AppError("not_found", `${what} not
 /** Turn anything thrown into a JSON response; database details are logged, not returned. */
 export function errorResponse(err: unknown): Response {
   if (err instanceof AppError) return Response.json(err.toBody(), { status: err.status });
+  const guard = signedRecordGuard(err);
+  if (guard) return Response.json(new AppError("conflict", guard).toBody(), { status: 409 });
   console.error("[plotproof] unexpected error", err);
   return Response.json(new AppError("internal", "Something went wrong on our side.").toBody(), { status: 500 });
+}
+
+/** The database's own refusal to change a signed record (triggers raise "plotproof: …"), as a sentence. */
+function signedRecordGuard(err: unknown): string | null {
+  for (let e = err as { message?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 4; e = e.cause as typeof e, depth++) {
+    const m = typeof e.message === "string" ? e.message.match(/plotproof: (.+)/) : null;
+    if (m) return m[1].charAt(0).toUpperCase() + m[1].slice(1) + ".";
+  }
+  return null;
 }

@@ -9,8 +9,10 @@ const NAV: { href: string; label: string; roles: readonly Role[] }[] = [
   { href: "/fields", label: "Fields", roles: ["owner", "qa_lead", "technician", "grower"] },
   { href: "/profiles", label: "Tolerance profiles", roles: ["owner", "qa_lead", "technician", "grower"] },
   { href: "/review", label: "Review", roles: ["owner", "qa_lead"] },
+  { href: "/activity", label: "Activity", roles: ["owner", "qa_lead", "technician", "grower"] },
   { href: "/team", label: "Team", roles: ["owner"] },
   { href: "/settings/keys", label: "API keys", roles: ["owner"] },
+  { href: "/outbox", label: "Outbox", roles: ["owner"] },
 ];
 
 export function AppHeader({ viewer }: { viewer: Viewer }) {

@@ -68,7 +68,7 @@ const NAMES = {
   method: ["surveymethod", "method", "instrument"],
   hdop: ["hdop"],
   time: ["time", "timestamp", "plantedat", "datetime", "surveyedat", "observedat"],
-  precision: ["precision", "sigma", "std", "stddev", "accuracy", "hprecision", "hsigma"],
+  precision: ["precision", "precisionm", "sigma", "std", "stddev", "accuracy", "hprecision", "hsigma"],
   rawLat: ["rawlat", "rawlatitude", "gnsslat", "gnsslatitude"],
   rawLon: ["rawlon", "rawlng", "rawlong", "rawlongitude", "gnsslon", "gnsslng", "gnsslongitude"],
   rawEasting: ["raweasting", "rawx", "rawe", "gnsseasting", "gnssx"],

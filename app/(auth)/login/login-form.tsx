@@ -5,7 +5,7 @@ import { authClient } from "@/lib/auth-client";
 import { FormError, SubmitButton, TextField } from "@/app/_components/form";
 import { SignInInput, fieldErrors } from "@/lib/validation/account";
 
-export function LoginForm() {
+export function LoginForm({ next = "/" }: { next?: string }) {
   const router = useRouter();
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [formError, setFormError] = useState<string | null>(null);
@@ -27,7 +27,7 @@ export function LoginForm() {
         : error.status === 429 ? "Too many attempts. Wait a minute and try again." : "Sign-in failed. Try again in a moment.");
       return;
     }
-    router.replace("/");
+    router.replace(next);
     router.refresh();
   }
 

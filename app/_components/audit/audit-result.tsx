@@ -13,17 +13,13 @@ import { UnpairedLists } from "./unpaired";
 import { AuditCharts } from "./charts";
 import { DownloadLinks } from "./downloads";
 import { AuditProgress } from "./progress";
+import { STATE_NAME } from "@/lib/review/lifecycle";
+import { ReviewBar } from "@/app/_components/review/review-bar";
 import { ScopeCaution, TermsExplained } from "./glossary";
 import { formatMm, formatPct } from "./format";
 
-const STATE_LABEL: Record<AuditState, string> = {
-  computing: "Computing",
-  computed: "Computed",
-  failed: "Failed to compute",
-  submitted: "Submitted for review",
-  signed_off: "Signed off",
-  returned: "Returned for changes",
-};
+// One set of state names across the product (review workflow owns them).
+const STATE_LABEL: Record<AuditState, string> = STATE_NAME;
 
 const POLL_MS = 1000;
 
@@ -72,6 +68,7 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
         </div>
       </header>
 
+      {done ? <ReviewBar auditId={audit.id} /> : null}
       {audit.state === "computing" ? <AuditProgress audit={audit} /> : null}
       {audit.state === "failed" ? (
         <section role="alert" className="rounded-plot border-l-4 border-alarm bg-alarm-pale p-5" data-testid="audit-failed">
