@@ -148,7 +148,8 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     expect(review.state).toBe("signed_off");
     expect(review.signoff).toMatchObject({ signerName: PEOPLE.qa_lead.name, signerRole: "qa_lead", deviation: true, typedName: PEOPLE.qa_lead.name });
     expect(review.signoff!.sha256).toMatch(/^[0-9a-f]{64}$/);
-    expect(review.signoff!.checklist.instrument).toMatchObject({ precisionMm: 2, source: "signer", tightestLimitMm: 8, ratio: 4 });
+    // The demo survey states its precision in precision_m (2 mm), so it comes from the file, not the signer.
+    expect(review.signoff!.checklist.instrument).toMatchObject({ precisionMm: 2, source: "survey file", tightestLimitMm: 8, ratio: 4 });
     // The canonical JSON served is exactly what was hashed.
     const withCanonical: ReviewDto = (await (await routes.signoff.GET(req(`/api/audits/${id}/signoff?canonical=1`, { cookie: w.cookies.grower }), ctx({ id }))).json()).review;
     const { createHash } = await import("node:crypto");

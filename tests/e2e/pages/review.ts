@@ -64,7 +64,10 @@ export class ReviewPage {
     const f = this.signoffForm;
     await f.getByRole("checkbox", { name: /Enough checkpoints/ }).check();
     await f.getByRole("checkbox", { name: /Survey instrument at least 3/ }).check();
-    await f.getByLabel("Instrument's stated horizontal precision (mm)").fill(o.precisionMm);
+    // The demo survey states its precision (precision_m = 2 mm), so the form takes it from the file.
+    const precision = f.getByLabel("Instrument's stated horizontal precision (mm)");
+    if (await precision.count()) await precision.fill(o.precisionMm);
+    else await expect(f).toContainText(`The survey file states ${o.precisionMm}.0 mm`);
     await f.getByRole("checkbox", { name: /Control mark checked/ }).check();
     await f.getByLabel("Which mark, and how far off (optional)").fill(o.controlMarkNote);
     await f.getByRole("checkbox", { name: /Right tolerance profile/ }).check();
