@@ -8,7 +8,7 @@ export default defineConfig({
   testMatch: /.*\.spec\.ts/,
   workers: 1,
   timeout: 60_000,
-  reporter: [["list"], ["json", { outputFile: "test-results/e2e.json" }]],
+  reporter: [["list"], ["json", { outputFile: ".test-report/e2e.json" }]],
   use: {
     baseURL: BASE,
     trace: "retain-on-failure",

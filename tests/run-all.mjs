@@ -28,9 +28,11 @@ if (!fs.existsSync(chromium)) {
   }
 }
 
-fs.mkdirSync("test-results", { recursive: true });
+// Playwright empties test-results/ when it starts, so the runners' JSON reports live elsewhere.
+fs.rmSync(".test-report", { recursive: true, force: true });
+fs.mkdirSync(".test-report", { recursive: true });
 run("type check", "npx", ["tsc", "--noEmit", "-p", "."]);
-run("unit and integration tests", "npx", ["vitest", "run", "--reporter=default", "--reporter=json", "--outputFile=test-results/unit.json"]);
+run("unit and integration tests", "npx", ["vitest", "run", "--reporter=default", "--reporter=json", "--outputFile=.test-report/unit.json"]);
 const built = run("production build", "npx", ["next", "build"]);
 if (built && fs.existsSync(chromium)) {
   fs.rmSync("data/e2e", { recursive: true, force: true });
@@ -40,8 +42,8 @@ if (built && fs.existsSync(chromium)) {
 function readJson(path) {
   try { return JSON.parse(fs.readFileSync(path, "utf8")); } catch { return null; }
 }
-const unit = readJson("test-results/unit.json");
-const e2e = readJson("test-results/e2e.json");
+const unit = readJson(".test-report/unit.json");
+const e2e = readJson(".test-report/e2e.json");
 let passed = 0, failures = 0, skipped = 0;
 if (unit) { passed += unit.numPassedTests; failures += unit.numFailedTests; skipped += unit.numPendingTests + unit.numTodoTests; }
 if (e2e) { passed += e2e.stats.expected + e2e.stats.flaky; failures += e2e.stats.unexpected; skipped += e2e.stats.skipped; }

@@ -55,7 +55,7 @@ test("review -- technician submits, QA lead signs off from the e-mail link, the 
   await leadReview.signoffForm.getByRole("button", { name: /^Sign off/ }).click();
   await expect(leadReview.record).toBeVisible();
   await expect(leadReview.record).toContainText(`Signed off with deviation by ${lead.name} (QA lead)`);
-  await expect(leadReview.record).toContainText("2 mm (stated by the signer), 4× finer than the tightest limit of 8 mm");
+  await expect(leadReview.record).toContainText("2 mm (from the survey file), 4× finer than the tightest limit of 8 mm");
   await expect(leadReview.badge).toHaveAttribute("data-state", "signed_off");
   const sha = (await leadPage.getByTestId("signoff-sha256").textContent())!.trim();
   expect(sha).toMatch(/^[0-9a-f]{64}$/);

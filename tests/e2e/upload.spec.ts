@@ -195,16 +195,18 @@ test("upload -- the survey file needs one column corrected, and its warning acce
   const fieldId = await newField(page.request, "Osier Bank");
   const upload = new UploadPage(page);
   await upload.open(fieldId, "survey");
-  await upload.choose(SURVEY);
+  // A rover export whose precision column has a name Plotproof does not know.
+  const text = fs.readFileSync(SURVEY, "utf8").replace(/^([^\n]*)precision_m/, "$1rover_sd_metres");
+  await upload.choose({ name: "osier-bank-survey.csv", mimeType: "text/csv", buffer: Buffer.from(text) });
 
   await expect(page.getByLabel("Easting and northing (metres)")).toBeChecked();
   await expect(upload.role("Easting")).toHaveValue("easting");
   await expect(upload.role("Northing")).toHaveValue("northing");
   // The field's CRS is the default for easting/northing.
   await expect(page.getByRole("combobox", { name: "Coordinate system of the file" })).toHaveValue("EPSG:25831");
-  // "precision_m" is not a name Plotproof knows: map it by hand.
+  // "rover_sd_metres" is not a name Plotproof knows: map it by hand.
   await expect(upload.role("Stated precision (m)")).toHaveValue("");
-  await upload.role("Stated precision (m)").selectOption("precision_m");
+  await upload.role("Stated precision (m)").selectOption("rover_sd_metres");
   await expect(upload.previewTable.locator("thead")).toContainText("Stated precision (m)");
 
   await upload.save();
@@ -219,7 +221,7 @@ test("upload -- the survey file needs one column corrected, and its warning acce
 
   const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as { kind: string; mapping: Record<string, string> }[];
   expect(datasets).toHaveLength(1);
-  expect(datasets[0]).toMatchObject({ kind: "survey", mapping: { precision: "precision_m", x: "easting", y: "northing" } });
+  expect(datasets[0]).toMatchObject({ kind: "survey", mapping: { precision: "rover_sd_metres", x: "easting", y: "northing" } });
 });
 
 test("upload -- a broken file shows line 57 and column lat in the error table and saves nothing", async ({ page }) => {

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
@@ -10,9 +11,12 @@ export const metadata: Metadata = { title: "Audit map" };
 
 export default async function AuditMapPage({ params }: { params: Promise<{ auditId: string }> }) {
   const viewer = await requirePageViewer();
-  // The audit layout has already answered 404 for a malformed id or another organisation's audit.
-  const { auditId } = AuditIdParam.parse(await params);
-  const audit = (await getAuditById(await getDb(), { id: auditId, orgId: viewer.orgId }))!;
+  // The audit layout answers 404 for a malformed id or another organisation's audit (with the status code); the
+  // page may render alongside it, so it checks again rather than assume.
+  const parsed = AuditIdParam.safeParse(await params);
+  if (!parsed.success) notFound();
+  const audit = await getAuditById(await getDb(), { id: parsed.data.auditId, orgId: viewer.orgId });
+  if (!audit) notFound();
   return (
     <div className="grid gap-4" data-testid="audit-map-page">
       <header>

@@ -1,0 +1,200 @@
+/**
+ * Per-bed summary of an audit and the grower's one-line guidance per bed: can the records of this bed be relied on
+ * for the operation of the audit's tolerance profile? Pure.
+ *
+ * A bed is judged with the audit's own criteria (lib/audit/verdict.ts) applied to the bed's checkpoints alone:
+ *  - relied on: the lower Clopper–Pearson bound of the share within tolerance reaches the profile's required share,
+ *    and the 95th percentile (Hyndman–Fan type 7) of every limited error is within its limit;
+ *  - not relied on: the observed share is below the required share, or a 95th percentile exceeds its limit;
+ *  - not yet shown: neither — the checkpoints look fine but are too few to show the share with the profile's confidence.
+ * Applying the audit's criteria per bed is our rule (common practice, no source).
+ */
+import { clopperPearson } from "@/lib/audit/intervals";
+import { quantileSorted } from "@/lib/audit/quantiles";
+import type { MapProfile } from "./types";
+
+/** Ends every grower guidance text. */
+export const RECORD_ACCURACY_REMINDER = "This map shows how accurate the plant records are, not whether a machine is safe to run.";
+
+export interface BedStats {
+  /** Bed label; "" for checkpoints without one. */
+  bed: string;
+  /** Checkpoints (pairs) in the bed. */
+  n: number;
+  /** Of them with a tolerance verdict, within and out of tolerance. */
+  known: number;
+  within: number;
+  out: number;
+  /** within / known and its Clopper–Pearson interval at the profile's confidence; null when known = 0. */
+  share: number | null;
+  lower: number | null;
+  upper: number | null;
+  /** 95th percentile of radial, |cross-row| and |along-row| error, metres (type 7); null without values. */
+  p95Radial: number | null;
+  p95Cross: number | null;
+  p95Along: number | null;
+  meanRadial: number | null;
+}
+
+const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
+
+function p95(values: number[]): number | null {
+  if (values.length === 0) return null;
+  return quantileSorted(Float64Array.from(values).sort(), 0.95);
+}
+
+/**
+ * Statistics per bed, beds in natural order ("2" before "10"), checkpoints without a bed last.
+ * `within[i]` is 1 within tolerance, 0 out, −1 unknown; `cross`/`along` NaN where unknown. Metres.
+ *
+ * @example bedStats({ bed: ["1", "1"], radial: [0.002, 0.03], cross: [NaN, NaN], along: [NaN, NaN], within: [1, 0], confidence: 0.95 })[0].out // 1
+ */
+export function bedStats(input: {
+  bed: readonly string[];
+  radial: ArrayLike<number>;
+  cross: ArrayLike<number>;
+  along: ArrayLike<number>;
+  within: ArrayLike<number>;
+  confidence: number;
+}): BedStats[] {
+  const groups = new Map<string, number[]>();
+  for (let i = 0; i < input.bed.length; i++) {
+    const b = input.bed[i];
+    let g = groups.get(b);
+    if (!g) groups.set(b, (g = []));
+    g.push(i);
+  }
+  const order = [...groups.keys()].sort((a, b) => (a === "" ? 1 : b === "" ? -1 : collator.compare(a, b)));
+  return order.map((bed) => {
+    const idx = groups.get(bed)!;
+    let known = 0, within = 0, sumR = 0, nR = 0;
+    const r: number[] = [], c: number[] = [], a: number[] = [];
+    for (const i of idx) {
+      const w = input.within[i];
+      if (w === 0 || w === 1) {
+        known++;
+        within += w;
+      }
+      if (Number.isFinite(input.radial[i])) {
+        r.push(input.radial[i]);
+        sumR += input.radial[i];
+        nR++;
+      }
+      if (Number.isFinite(input.cross[i])) c.push(Math.abs(input.cross[i]));
+      if (Number.isFinite(input.along[i])) a.push(Math.abs(input.along[i]));
+    }
+    const ci = clopperPearson(within, known, input.confidence);
+    return {
+      bed, n: idx.length, known, within, out: known - within,
+      share: known ? within / known : null, lower: ci?.lower ?? null, upper: ci?.upper ?? null,
+      p95Radial: p95(r), p95Cross: p95(c), p95Along: p95(a), meanRadial: nR ? sumR / nR : null,
+    };
+  });
+}
+
+/**
+ * Fewest checkpoints, all within tolerance, whose lower Clopper–Pearson bound reaches `share` at `confidence`.
+ * For k = n the bound is (α/2)^(1/n), α = 1 − confidence (the Beta(n, 1) quantile), so n = ⌈ln(α/2) / ln(share)⌉.
+ *
+ * @example checkpointsNeeded(0.95, 0.95) // 72
+ */
+export function checkpointsNeeded(share: number, confidence: number): number {
+  if (!(share > 0 && share < 1) || !(confidence > 0 && confidence < 1)) throw new Error(`checkpointsNeeded: share and confidence must lie in (0, 1), got ${share}, ${confidence}`);
+  let n = Math.max(1, Math.ceil(Math.log((1 - confidence) / 2) / Math.log(share)));
+  // Guard against rounding at the boundary: confirm with the interval itself.
+  while (n > 1 && clopperPearson(n - 1, n - 1, confidence)!.lower >= share) n--;
+  while (clopperPearson(n, n, confidence)!.lower < share) n++;
+  return n;
+}
+
+export type BedState = "relied-on" | "not-relied-on" | "not-shown" | "no-checkpoints" | "no-limits";
+
+export interface BedGuidance {
+  bed: string;
+  state: BedState;
+  /** One sentence for the grower. */
+  line: string;
+}
+
+const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;
+const pct = (s: number) => `${(s * 100).toFixed(1)} %`;
+const pct0 = (s: number) => `${Math.round(s * 1000) / 10} %`;
+
+/** "Bed 3", or a plain phrase for checkpoints without a bed label. */
+export function bedName(bed: string): string {
+  return bed === "" ? "Checkpoints without a bed" : `Bed ${bed}`;
+}
+
+/** The profile's name as it reads inside a sentence ("in-row weeding around plants"). */
+function operationWords(profile: MapProfile): string {
+  const n = profile.name.trim();
+  return n.length > 1 && n[1] === n[1].toLowerCase() ? n[0].toLowerCase() + n.slice(1) : n;
+}
+
+/** The limit criterion that fails worst (largest p95 / limit above 1), if any. */
+function worstLimit(s: BedStats, p: MapProfile): { words: string; p95: number; limit: number } | null {
+  const tests = [
+    { words: "radial errors", p95: s.p95Radial, limit: p.radialM },
+    { words: "cross-row errors", p95: s.p95Cross, limit: p.crossM },
+    { words: "along-row errors", p95: s.p95Along, limit: p.alongM },
+  ].filter((t): t is { words: string; p95: number; limit: number } => t.limit !== null && t.p95 !== null && t.p95 > t.limit);
+  tests.sort((a, b) => b.p95 / b.limit - a.p95 / a.limit);
+  return tests[0] ?? null;
+}
+
+/**
+ * The guidance of one bed (see the rule at the top of this file).
+ * @example bedGuidance(stats, profile).line // "Bed 3: do not rely on the records for in-row weeding around plants — 13 of 67 checkpoints out of tolerance; …"
+ */
+export function bedGuidance(s: BedStats, profile: MapProfile | null): BedGuidance {
+  const name = bedName(s.bed);
+  if (!profile || (profile.radialM === null && profile.crossM === null && profile.alongM === null)) {
+    return { bed: s.bed, state: "no-limits", line: `${name}: the audit's tolerance profile sets no limits, so there is nothing to judge against.` };
+  }
+  const op = operationWords(profile);
+  if (s.known === 0) return { bed: s.bed, state: "no-checkpoints", line: `${name}: no checkpoints here — the records of this bed are not checked.` };
+  const conf = pct0(profile.confidence);
+  const worst = worstLimit(s, profile);
+  if (s.share! < profile.requiredShare || worst) {
+    const parts = [`${s.out} of ${s.known} checkpoints out of tolerance`];
+    if (worst) parts.push(`95 % of ${worst.words} within ${mm(worst.p95)}, limit ${mm(worst.limit)}`);
+    return { bed: s.bed, state: "not-relied-on", line: `${name}: do not rely on the records for ${op} — ${parts.join("; ")}.` };
+  }
+  if (s.lower! >= profile.requiredShare) {
+    return {
+      bed: s.bed, state: "relied-on",
+      line: `${name}: the records can be relied on for ${op} — ${s.within} of ${s.known} checkpoints within tolerance, at least ${pct(s.lower!)} with ${conf} confidence.`,
+    };
+  }
+  const line = s.out === 0
+    ? `${name}: all ${s.known} checkpoints within tolerance, but too few to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey at least ${checkpointsNeeded(profile.requiredShare, profile.confidence)} here before relying on it for ${op}.`
+    : `${name}: ${s.out} of ${s.known} checkpoints out of tolerance, too many for so few checkpoints to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey more here before relying on it for ${op}.`;
+  return { bed: s.bed, state: "not-shown", line };
+}
+
+/** "1", "1 and 3", "1, 3 and 4". */
+export function listWords(items: readonly string[]): string {
+  if (items.length <= 1) return items.join("");
+  return `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}`;
+}
+
+/**
+ * The one guidance line over all beds, ending with {@link RECORD_ACCURACY_REMINDER}.
+ * @example overallGuidance(guidance, profile) // "At the tolerance “In-row weeding around plants”, the records can be relied on in no bed; not in bed 3; not yet shown in beds 1, 2, 4, 5 and 6. This map shows …"
+ */
+export function overallGuidance(guidance: readonly BedGuidance[], profile: MapProfile | null): string {
+  const labelled = guidance.filter((g) => g.bed !== "");
+  const noLimits = !profile || (profile.radialM === null && profile.crossM === null && profile.alongM === null);
+  if (noLimits || labelled.length === 0) {
+    const why = noLimits ? "The audit's profile sets no tolerance limits" : "The records carry no bed labels";
+    return `${why}, so there is no guidance per bed. ${RECORD_ACCURACY_REMINDER}`;
+  }
+  const beds = (state: BedState) => labelled.filter((g) => g.state === state).map((g) => g.bed);
+  const phrase = (list: string[]) => (list.length === 0 ? "no bed" : `${list.length === 1 ? "bed" : "beds"} ${listWords(list)}`);
+  const parts = [`the records can be relied on in ${phrase(beds("relied-on"))}`];
+  const not = beds("not-relied-on"), unshown = beds("not-shown"), unchecked = beds("no-checkpoints");
+  if (not.length) parts.push(`not in ${phrase(not)}`);
+  if (unshown.length) parts.push(`not yet shown in ${phrase(unshown)}`);
+  if (unchecked.length) parts.push(`no checkpoints in ${phrase(unchecked)}`);
+  return `At the tolerance “${profile.name}”, ${parts.join("; ")}. ${RECORD_ACCURACY_REMINDER}`;
+}

@@ -1,0 +1,161 @@
+import { test, expect } from "@playwright/test";
+import { SignInPage, otherOwner } from "./pages/session";
+import { AuditApi } from "./pages/audit";
+import { createDemoAudit, differingPixels, HIGHLIGHT, MapPage, VIRIDIS_LOW } from "./pages/map";
+import { DEMO_PASSWORD } from "@/lib/demo/farm";
+import { decodeMapPayload } from "@/lib/map/binary";
+import { PAIR_FLAG } from "@/lib/map/types";
+import type { Page as ResidualPage, ResidualRowDto } from "@/lib/api-types";
+import type { FieldMapDto } from "@/lib/map/types";
+
+// The technician creates the audit; the grower and the other organisation then open it, so the tests run in order.
+test.describe.configure({ mode: "serial" });
+test.use({ viewport: { width: 1400, height: 1100 } });
+
+let auditId = "";
+let fieldId = "";
+
+async function outOfTolerance(page: import("@playwright/test").Page, id: string, bed?: string): Promise<ResidualPage<ResidualRowDto>> {
+  const q = new URLSearchParams({ only: "out", sort: "radial", dir: "desc", pageSize: "500", ...(bed ? { bed } : {}) });
+  const res = await page.request.get(`/api/audits/${id}/residuals?${q}`);
+  expect(res.status()).toBe(200);
+  return res.json();
+}
+
+test("map -- out-of-tolerance plants are drawn in the highlight colour, and filters change what is drawn", async ({ page }) => {
+  test.setTimeout(180_000);
+  await new SignInPage(page).signInAs("technician");
+  const audit = await createDemoAudit(page);
+  auditId = audit.id;
+  fieldId = audit.field.id;
+  const summary = audit.summary!;
+  const out = await outOfTolerance(page, auditId);
+  expect(out.total).toBe(summary.withinTolerance!.n - summary.withinTolerance!.within);
+  expect(out.total).toBeGreaterThan(0);
+
+  // The points reach the browser as one binary payload of typed arrays.
+  const res = await page.request.get(`/api/audits/${auditId}/map-data`);
+  expect(res.status()).toBe(200);
+  expect(res.headers()["content-type"]).toBe("application/octet-stream");
+  const payload = decodeMapPayload(new Uint8Array(await res.body()));
+  expect(payload.meta.pairs).toBe(summary.pairs);
+  expect(payload.meta.crs).toBe("EPSG:25831");
+  expect(payload.arrays.pairXY).toBeInstanceOf(Float32Array);
+  const flaggedOut = Array.from(payload.arrays.pairFlags).filter((f) => (f & PAIR_FLAG.WITHIN_KNOWN) && !(f & PAIR_FLAG.WITHIN)).length;
+  expect(flaggedOut).toBe(out.total);
+  expect(payload.meta.unpaired).toBe(summary.unmatchedPlanted + summary.unmatchedSurvey + summary.ambiguousSurvey);
+
+  const map = new MapPage(page);
+  await map.openAudit(auditId);
+  await expect(map.root).toHaveAttribute("data-pairs-shown", String(summary.pairs));
+  await expect(map.root).toHaveAttribute("data-out-shown", String(out.total));
+  await expect(map.status).toContainText(`Showing ${summary.pairs} of ${summary.pairs} checkpoints, ${out.total} out of tolerance`);
+  await expect(page.getByTestId("legend-error")).toContainText("limit of the profile: 10 mm");
+  await expect(page.getByTestId("north-arrow")).toContainText("grid north of EPSG:25831");
+  await expect(page.getByTestId("scale-bar")).toContainText(/\d+ (m|cm)/);
+
+  // Every out-of-tolerance plant carries a red ring: clearly more highlight pixels than plants.
+  const allOut = await map.countColour(HIGHLIGHT);
+  expect(allOut).toBeGreaterThan(out.total * 10);
+  const before = await map.canvasPixels();
+
+  // A bed without any plant out of tolerance: the highlight disappears.
+  const beds = payload.meta.dict.bed;
+  const outBeds = new Set(out.rows.map((r) => r.bed));
+  const clean = beds.find((b) => !outBeds.has(b));
+  expect(clean, "a bed with every checkpoint within tolerance").toBeTruthy();
+  await map.filter("Bed", clean!);
+  await expect(map.root).toHaveAttribute("data-out-shown", "0");
+  expect(await map.countColour(HIGHLIGHT)).toBeLessThan(5);
+  const cleanShot = await map.canvasPixels();
+  expect(differingPixels(before, cleanShot)).toBeGreaterThan(1000);
+
+  // Bed 3, with the RTK-float stretch (public/demo/README.md): its out-of-tolerance plants are highlighted again.
+  const bed3 = await outOfTolerance(page, auditId, "3");
+  expect(bed3.total).toBeGreaterThan(0);
+  await map.filter("Bed", "3");
+  await expect(map.root).toHaveAttribute("data-out-shown", String(bed3.total));
+  expect(await map.countColour(HIGHLIGHT)).toBeGreaterThan(bed3.total * 10);
+
+  // Only out of tolerance: the within-tolerance plants and the unpaired points go, the highlight stays.
+  const bed3Shot = await map.canvasPixels();
+  await map.control("Only out of tolerance").check();
+  await map.settled();
+  await expect(map.root).toHaveAttribute("data-pairs-shown", String(bed3.total));
+  await expect(map.root).toHaveAttribute("data-unpaired-shown", "0");
+  expect(differingPixels(bed3Shot, await map.canvasPixels())).toBeGreaterThan(500);
+  expect(await map.countColour(HIGHLIGHT)).toBeGreaterThan(bed3.total * 10);
+
+  // Keyboard path to the largest error: the side panel shows that plant's record, survey point and residual.
+  await page.getByRole("button", { name: "Clear filters" }).click();
+  await map.settled();
+  await page.getByTestId("next-out").focus();
+  await page.keyboard.press("Enter");
+  await expect(map.details).toBeVisible();
+  const worst = out.rows[0];
+  await expect(page.getByTestId("details-pair")).toHaveAttribute("data-seq", String(worst.seq));
+  await expect(map.details).toContainText(worst.plantId ?? "–");
+  await expect(map.details).toContainText("out of tolerance");
+  await expect(map.details).toContainText("Survey point");
+  await expect(map.details).toContainText(worst.surveyE.toFixed(3));
+  await page.keyboard.press("Escape");
+  await expect(map.details).toHaveCount(0);
+
+  // The cell layer for growers replaces the plants.
+  await page.getByTestId("layer-cells").click();
+  await map.settled();
+  await expect(map.root).toHaveAttribute("data-layer", "cells");
+  expect(await map.countColour(HIGHLIGHT)).toBeLessThan(5);
+});
+
+test("map -- the grower's field view: heatmap, guidance per bed and the record-accuracy reminder", async ({ page }) => {
+  expect(auditId, "the technician's audit").not.toBe("");
+  await new SignInPage(page).signInAs("grower");
+  const res = await page.request.get(`/api/fields/${fieldId}/map`);
+  expect(res.status()).toBe(200);
+  const view = (await res.json()) as FieldMapDto;
+  expect(view.audit?.id).toBe(auditId);
+  expect(view.summary).toMatch(/This map shows how accurate the plant records are, not whether a machine is safe to run\.$/);
+  const bed3 = view.guidance.find((g) => g.bed === "3")!;
+  expect(bed3.state).toBe("not-relied-on");
+
+  const map = new MapPage(page);
+  await map.openField(fieldId);
+  await expect(map.root).toHaveAttribute("data-layer", "cells");
+  await expect(page.getByTestId("field-guidance")).toHaveText(view.summary);
+  await expect(page.getByTestId("bed-guidance").locator('li[data-bed="3"]')).toHaveText(bed3.line);
+  await expect(page.locator('[data-testid="bed-row"][data-bed="3"]')).toHaveAttribute("data-state", "not-relied-on");
+  await expect(page.getByTestId("legend-share")).toBeVisible();
+  // Cells where no checkpoint is out of tolerance take viridis' lowest colour.
+  expect(await map.countColour(VIRIDIS_LOW)).toBeGreaterThan(2000);
+  // Growers change nothing: the map has no controls that write.
+  await expect(page.getByRole("button", { name: /delete|sign off|run/i })).toHaveCount(0);
+});
+
+test("map -- refused outside the audit's organisation and without a session", async ({ page, browser }) => {
+  expect(auditId, "the technician's audit").not.toBe("");
+  const anonymous = await browser.newContext();
+  expect((await anonymous.request.get(`/api/audits/${auditId}/map-data`)).status()).toBe(401);
+  expect((await anonymous.request.get(`/api/fields/${fieldId}/map`)).status()).toBe(401);
+  await anonymous.close();
+
+  await page.goto("/login");
+  await new SignInPage(page).signIn(otherOwner.email, DEMO_PASSWORD);
+  await expect(page.getByTestId("home-owner")).toBeVisible();
+  for (const url of [`/api/audits/${auditId}/map-data`, `/api/audits/${auditId}/map-data?pair=0`, `/api/fields/${fieldId}/map`]) {
+    const res = await page.request.get(url);
+    expect(res.status(), url).toBe(404);
+    expect(await res.json()).toMatchObject({ error: { code: "not_found" } });
+  }
+  const mapPage = await page.goto(`/audits/${auditId}/map`);
+  expect(mapPage?.status()).toBe(404);
+  await expect(page.getByTestId("not-found")).toBeVisible();
+  await expect(page.getByTestId("field-map")).toHaveCount(0);
+  const fieldPage = await page.goto(`/fields/${fieldId}/map`);
+  expect(fieldPage?.status()).toBe(404);
+
+  // Their own field has no audit; its grower view says so instead of showing someone else's.
+  const own = await new AuditApi(page).fieldId("Saltings Trial Plot");
+  await page.goto(`/fields/${own}/map`);
+  await expect(page.getByTestId("field-map-page")).toContainText("No audit of Saltings Trial Plot has results yet");
+});
