@@ -60,6 +60,11 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
         <AuditInputs audit={audit} />
         <div className="mt-3 flex flex-wrap items-center gap-3">
           {done ? <DownloadLinks auditId={audit.id} /> : null}
+          {done ? (
+            <Link href={`/audits/${audit.id}/map`} className="text-sm font-medium text-leaf underline-offset-2 hover:underline" data-testid="map-link">
+              Open the field map
+            </Link>
+          ) : null}
           {canPrepare ? (
             <Link href={`/fields/${audit.field.id}/audits/new`} className="text-sm font-medium text-leaf underline-offset-2 hover:underline" data-testid="new-audit-link">
               Run another audit on this field

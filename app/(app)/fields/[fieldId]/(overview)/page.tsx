@@ -45,6 +45,9 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
     <>
       <PageTitle sub={`${field.farm} · ${field.crs} · ${field.timeZone}`}>{field.name}</PageTitle>
       <p className="mb-4 text-sm text-ink-soft">{geometry}</p>
+      {audits.some((a) => a.state !== "computing" && a.state !== "failed") ? (
+        <p className="mb-4 text-sm"><Link href={`/fields/${field.id}/map`} className="font-medium text-leaf hover:underline">Where can the records be trusted? Open the field map</Link></p>
+      ) : null}
       {canPrepare ? (
         <div className="mb-6 flex flex-wrap gap-3" aria-label="Field actions">
           <ActionLink href={`/fields/${field.id}/upload?kind=planted`}>Upload as-planted records</ActionLink>
