@@ -9,7 +9,8 @@
  *
  * Needs a running server with the demo accounts; without --audit it creates an audit of the demo files.
  * Playwright hands an intercepted body to the page through the DevTools protocol, which is far slower than a socket,
- * so "received → first draw" (decode, layer preparation, first frame) is the figure to compare for synthetic fields;
+ * so "received → first draw" (decode, layer preparation, first frame submitted) is the figure to compare for synthetic
+ * fields, and "pixels done" adds the time the software renderer (SwiftShader) needs to finish that frame;
  * with --real the request goes to the server (the first one includes building the payload; later ones are cached).
  */
 import fs from "node:fs";
@@ -61,21 +62,34 @@ async function main() {
   await signIn(page);
   const auditId = arg("audit") ?? (await demoAudit(page));
   console.log(`audit ${auditId}; ${RUNS} runs each; median (min–max), milliseconds from navigation start`);
-  console.log("plants    | survey   | payload  | request→received | decode | received→first draw | request→first draw | navigation→first draw");
+  console.log("plants    | survey   | payload  | request→received | decode | received→first draw | request→first draw | navigation→first draw | navigation→pixels done");
   const real = process.argv.includes("--real");
-  const cases = real ? [[0, 0]] as const : [[100_000, 12], [1_000_000, 12], [100_000, 1], [1_000_000, 1]] as const;
+  // --cases 100000:12,1000000:1 picks plants:surveyEvery pairs (default: 100k and 1M plants, 1 in 12 and all surveyed).
+  const cases: (readonly [number, number])[] = real ? [[0, 0]]
+    : (arg("cases", "100000:12,1000000:12,100000:1,1000000:1")!).split(",").map((c) => c.split(":").map(Number) as [number, number]);
   for (const [plants, every] of cases) {
     const field = real ? null : syntheticField(plants, every);
     const body = field ? Buffer.from(syntheticPayload(field)) : null;
-    const samples: { net: number; decode: number; afterReceived: number; fromRequest: number; fromNav: number }[] = [];
+    const samples: { net: number; decode: number; afterReceived: number; fromRequest: number; fromNav: number; pixels: number }[] = [];
     for (let r = 0; r < RUNS; r++) {
       const p = await context.newPage();
       if (body) await p.route(`**/api/audits/${auditId}/map-data`, (route) => route.fulfill({ status: 200, contentType: "application/octet-stream", body }));
       await p.goto(`${BASE}/audits/${auditId}/map`);
-      await p.waitForFunction(() => performance.getEntriesByName("plotproof:map-first-draw").length > 0, null, { timeout: 300_000, polling: 100 });
+      await p.waitForFunction(() => performance.getEntriesByName("plotproof:map-first-draw").length > 0, null, { timeout: 600_000, polling: 100 });
+      // deck.gl's first frame is submitted to WebGL when the mark is set; reading one pixel waits until the (software)
+      // GPU has finished drawing it, so "pixels" is when the frame is really there.
+      const pixels = await p.evaluate(() => {
+        const gl = document.querySelector<HTMLCanvasElement>('[data-testid="map-frame"] canvas')!.getContext("webgl2")!;
+        gl.readPixels(0, 0, 1, 1, gl.RGBA, gl.UNSIGNED_BYTE, new Uint8Array(4));
+        return performance.now();
+      });
       const m = await p.evaluate(() => Object.fromEntries(["request", "received", "decoded", "prepared", "gl-ready", "first-draw"].map((k) => [k, performance.getEntriesByName(`plotproof:map-${k}`)[0]?.startTime ?? NaN])));
+      m.pixels = pixels;
       if (process.env.BENCH_VERBOSE) console.log(JSON.stringify(m));
-      samples.push({ net: m.received - m.request, decode: m.decoded - m.received, afterReceived: m["first-draw"] - m.received, fromRequest: m["first-draw"] - m.request, fromNav: m["first-draw"] });
+      samples.push({
+        net: m.received - m.request, decode: m.decoded - m.received, afterReceived: m["first-draw"] - m.received, fromRequest: m["first-draw"] - m.request,
+        fromNav: m["first-draw"], pixels: m.pixels,
+      });
       if (!field && r === 0) {
         const shown = await p.getByTestId("field-map").evaluate((e) => Number((e as HTMLElement).dataset.pairsTotal) + Number((e as HTMLElement).dataset.unpairedShown));
         const bytes = await p.evaluate(() => (performance.getEntriesByType("resource") as PerformanceResourceTiming[]).find((e) => e.name.includes("/map-data"))?.decodedBodySize ?? 0);
@@ -89,7 +103,7 @@ async function main() {
     };
     console.log([
       String(field?.plants ?? "audit").padEnd(9), (every === 0 ? "real" : every === 1 ? "all" : `1 in ${every}`).padEnd(8), body ? `${(body.byteLength / 1e6).toFixed(1)} MB`.padEnd(8) : "server  ",
-      fmt("net").padEnd(16), fmt("decode").padEnd(6), fmt("afterReceived").padEnd(19), fmt("fromRequest").padEnd(18), fmt("fromNav"),
+      fmt("net").padEnd(16), fmt("decode").padEnd(6), fmt("afterReceived").padEnd(19), fmt("fromRequest").padEnd(18), fmt("fromNav").padEnd(21), fmt("pixels"),
     ].join(" | "));
   }
   await browser.close();

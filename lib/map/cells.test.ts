@@ -43,6 +43,14 @@ describe("aggregateCells", () => {
     expect(p2[1]).toBeCloseTo(fromRowFrame(5, 2.25, axes)[1], 9);
   });
 
+  it("aggregateCells -- a bed missing from the list does not shift the labels of the beds after it", () => {
+    const cells = aggregateCells({
+      xy: Float32Array.of(1, 0.5, 4, 0.5, 7, 0.5), values: Float32Array.of(0.001, 0.002, 0.003), flags: Uint8Array.of(IN, IN, IN),
+      bearingDeg: 0, lengthM: 5, beds: { centres: [{ label: "1", centre: 1 }, { label: "3", centre: 7 }], spacingM: 3, halfWidth: 1.25 },
+    });
+    expect(cells.map((c) => [c.across, c.bed])).toEqual([[0, "1"], [1, ""], [2, "3"]]);
+  });
+
   it("aggregateCells -- only the selected pairs count", () => {
     const cells = aggregateCells({
       xy: Float32Array.of(0.5, 0.5, 0.5, 0.6), values: Float32Array.of(0.001, 0.009), flags: Uint8Array.of(IN, OUT),

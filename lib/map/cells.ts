@@ -29,7 +29,7 @@ export interface Cell {
 }
 
 export interface CellBeds {
-  /** Bed centres across the row (as in BedLayout), in order, evenly `spacingM` apart. */
+  /** Bed centres across the row (as in BedLayout), in order, on a grid `spacingM` apart (beds may be missing). */
   centres: { label: string; centre: number }[];
   spacingM: number;
   /** Half the width of a bed's top, metres. */
@@ -85,7 +85,8 @@ export function aggregateCells(input: {
       if (!(f & PAIR_FLAG.WITHIN)) cell.out++;
     }
   }
-  const labels = new Map(beds?.centres.map((b, j) => [j, b.label]) ?? []);
+  // Beds without records are left out of the list, so a bed's bin comes from its centre, not its place in the list.
+  const labels = new Map(beds?.centres.map((b) => [Math.round((b.centre - first) / S), b.label]) ?? []);
   return [...acc.entries()].sort((p, q) => p[0] - q[0]).map(([, c]) => {
     const from = c.along * L, to = (c.along + 1) * L;
     const lo = beds ? first + c.across * S - beds.halfWidth : c.across * S;

@@ -37,7 +37,7 @@ export interface DeckLayersData {
 
 const VIEW = new OrthographicView({ id: "field", flipY: false });
 
-const binary = (b: { length: number; positions: Float32Array }, extra: Record<string, { value: Uint8Array | Float32Array; size: number }> = {}) => ({
+const binary = (b: { length: number; positions: Float32Array }, extra: Record<string, { value: Uint8Array | Float32Array; size: number; normalized?: boolean }> = {}) => ({
   length: b.length,
   attributes: { getPosition: { value: b.positions, size: 2 }, ...extra },
 });
@@ -93,13 +93,13 @@ export function DeckView({ layers: d, viewState, onViewStateChange, onHover, onS
     }
     if (d.rest.length) {
       list.push(new ScatterplotLayer({
-        id: "pairs", data: binary(d.rest, { getFillColor: { value: d.rest.colours!, size: 4 } }), pickable: true,
+        id: "pairs", data: binary(d.rest, { getFillColor: { value: d.rest.colours!, size: 4, normalized: true } }), pickable: true,
         radiusUnits: "pixels", getRadius: SIZES.pairRadius,
       }));
     }
     if (d.out.length) {
       list.push(new ScatterplotLayer({
-        id: "pairs-out", data: binary(d.out, { getFillColor: { value: d.out.colours!, size: 4 } }), pickable: true,
+        id: "pairs-out", data: binary(d.out, { getFillColor: { value: d.out.colours!, size: 4, normalized: true } }), pickable: true,
         radiusUnits: "pixels", getRadius: SIZES.outRadius, stroked: true, lineWidthUnits: "pixels", getLineWidth: SIZES.outStroke,
         getLineColor: COLOURS.out, antialiasing: true,
       }));

@@ -60,7 +60,7 @@ export function FieldMap({ auditId, mode }: { auditId: string; mode: MapMode }) 
 
 function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mode: MapMode }) {
   const { meta, arrays } = data;
-  const [settings, setSettings] = useState<MapSettings>(() => initialSettings(mode));
+  const [settings, setSettings] = useState<MapSettings>(() => initialSettings(mode, arrays.pairFlags.length));
   const [hover, setHover] = useState<{ target: MapTarget; x: number; y: number } | null>(null);
   const [selected, setSelected] = useState<MapTarget | null>(null);
   const [size, setSize] = useState<{ width: number; height: number } | null>(null);
@@ -110,7 +110,6 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
     const beds = layout.anchoredBy && layout.beds.length
       ? { centres: layout.beds.map((b) => ({ label: b.label, centre: b.centre })), spacingM: layout.bedSpacingM!, halfWidth: layout.halfWidth! }
       : null;
-    // Keep the bed index stable: the first centre is bed 1 (or the first bed drawn).
     return aggregateCells({ xy: arrays.pairXY, values, flags: arrays.pairFlags, indices: pairsShown, bearingDeg: meta.rowBearingDeg, lengthM: settings.cellLengthM, beds });
   }, [settings.layer, settings.cellLengthM, layout, arrays, values, pairsShown, meta.rowBearingDeg]);
   const cellValue = settings.cellValue === "share-out" && hasVerdict ? "share-out" : "mean";

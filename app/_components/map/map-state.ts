@@ -35,13 +35,16 @@ export const FILTER_LABEL: Record<DictName, string> = {
 /** Filters offered in the controls (row is implied by bed and arm). */
 export const FILTERS: DictName[] = ["crop", "bed", "arm", "fix", "day"];
 
-export function initialSettings(mode: MapMode): MapSettings {
+/** Above this many checkpoints the error vectors start switched off: they would double the work of every frame. */
+export const VECTORS_BY_DEFAULT_UP_TO = 20_000;
+
+export function initialSettings(mode: MapMode, pairs: number): MapSettings {
   return {
     layer: mode === "grower" ? "cells" : "points",
     metric: "radial",
     cellValue: mode === "grower" ? "share-out" : "mean",
     cellLengthM: 5,
-    vectors: mode === "audit",
+    vectors: mode === "audit" && pairs <= VECTORS_BY_DEFAULT_UP_TO,
     exaggeration: 50,
     showUnpaired: true,
     filter: { codes: {}, onlyOut: false },
