@@ -1,14 +1,14 @@
 import "server-only";
-import { prepareAudit, resolveCrs, PAIRED_BY_ID, type PointTable, type ProjectedTable } from "@/geo";
-import { computeAudit, localDay, residualsCsv, summaryCsv, unpairedCsv, type AuditResult } from "@/lib/audit";
+import { prepareAudit, resolveCrs, type PointTable } from "@/geo";
+import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
+import { computeAudit, residualsCsv, summaryCsv, unpairedCsv } from "@/lib/audit";
 import { evaluateVerdict } from "@/lib/audit/verdict";
 import { getDb, type DB } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
 import { getProfileById } from "@/db/queries/profiles";
 import {
-  createAudit, failAudit, getAuditById, setAuditProgress, storeAuditResult,
-  type ProfileSnapshot, type ResidualInsert, type UnpairedInsert,
+  createAudit, failAudit, getAuditById, setAuditProgress, storeAuditResult, type ProfileSnapshot,
 } from "@/db/queries/audits";
 import { AppError, notFound } from "@/lib/errors";
 import type { AuditDto, AuditSettingsDto } from "@/lib/api-types";
@@ -86,8 +86,9 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
     const { result, plantedP, surveyP, verdict, settings } = outcome;
     await storeAuditResult(db, {
       id, orgId, summary: result.summary, verdict, settings,
-      residuals: residualRows(id, result, plantedP, surveyP, settings.timeZone),
-      unpaired: unpairedRows(id, outcome.pairing, plantedP, surveyP),
+      // The same row builders verification uses, so stored and re-computed rows cannot drift apart.
+      residuals: residualRecordRows(result, plantedP, surveyP, settings.timeZone).map((row) => ({ auditId: id, ...row })),
+      unpaired: unpairedRecordRows(outcome.pairing, plantedP, surveyP).map((row) => ({ auditId: id, ...row })),
       reports: [
         { kind: "residuals", bytes: joinChunks(residualsCsv({ planted: plantedP, survey: surveyP, residuals: result.residuals })) },
         { kind: "unpaired", bytes: joinChunks(unpairedCsv({ planted: plantedP, survey: surveyP, pairing: outcome.pairing })) },
@@ -135,46 +136,6 @@ export function computeFromTables(
     ok: true as const, result, verdict, pairing: prepared.pairing, plantedP: prepared.planted, surveyP: prepared.survey,
     issues: prepared.issues, settings: { ...settings, workCrs: prepared.workCrs.code, rowBearingDeg: bearing ?? null },
   };
-}
-
-function attr(t: PointTable, name: "crop" | "bed" | "row" | "arm" | "fix", i: number): string | null {
-  const col = t.attrs[name];
-  if (!col) return null;
-  const c = col.codes[i];
-  return c >= 0 ? col.values[c] : null;
-}
-
-function residualRows(auditId: string, result: AuditResult, planted: ProjectedTable, survey: ProjectedTable, timeZone: string): ResidualInsert[] {
-  const r = result.residuals;
-  const rows: ResidualInsert[] = new Array(r.plantedIndex.length);
-  for (let k = 0; k < rows.length; k++) {
-    const p = r.plantedIndex[k], s = r.surveyIndex[k];
-    const pick = (name: "crop" | "bed" | "row" | "arm" | "fix") => attr(planted, name, p) ?? attr(survey, name, s);
-    const t = planted.time ? planted.time[p] : NaN;
-    rows[k] = {
-      auditId, seq: k, plantId: planted.id?.[p] || null, surveyId: survey.id?.[s] || null,
-      crop: pick("crop"), bed: pick("bed"), row: pick("row"), arm: pick("arm"), fix: pick("fix"),
-      day: Number.isFinite(t) ? localDay(t, timeZone) : null,
-      plantedE: planted.x[p], plantedN: planted.y[p], surveyE: survey.x[s], surveyN: survey.y[s],
-      dE: r.dE[k], dN: r.dN[k], along: r.along ? r.along[k] : null, cross: r.cross ? r.cross[k] : null, radial: r.radial[k],
-      within: r.withinTolerance ? r.withinTolerance[k] === 1 : null, outlier: r.outlier[k] === 1,
-      pairedBy: r.method[k] === PAIRED_BY_ID ? "id" : "position", beyondMaxDistance: r.beyondMaxDistance[k] === 1,
-    };
-  }
-  return rows;
-}
-
-function unpairedRows(auditId: string, pairing: { unmatchedPlanted: Int32Array; unmatchedSurvey: Int32Array; ambiguousSurvey: Int32Array }, planted: ProjectedTable, survey: ProjectedTable): UnpairedInsert[] {
-  const rows: UnpairedInsert[] = [];
-  const add = (kind: string, t: ProjectedTable, idx: Int32Array) => {
-    for (const i of idx) {
-      rows.push({ auditId, seq: rows.length, kind, pointId: t.id?.[i] || null, line: t.line[i], e: t.x[i], n: t.y[i], crop: attr(t, "crop", i), bed: attr(t, "bed", i), row: attr(t, "row", i) });
-    }
-  };
-  add("planted-not-found", planted, pairing.unmatchedPlanted);
-  add("surveyed-not-planted", survey, pairing.unmatchedSurvey);
-  add("ambiguous", survey, pairing.ambiguousSurvey);
-  return rows;
 }
 
 function joinChunks(chunks: Iterable<string>): Uint8Array {
