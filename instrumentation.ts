@@ -3,6 +3,9 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { getDb } = await import("./db/client");
   await getDb();
+  // Bundle the audit worker now (about a second when its sources changed) rather than on the first audit.
+  const { workerBundle } = await import("./lib/workers/bundle");
+  void workerBundle("lib/audit-job/audit-worker.ts").catch((err) => console.error("[plotproof] could not bundle the audit worker", err));
   if (process.env.PLOTPROOF_DEMO === "1") {
     const { seedDemo, demoCredentialsText } = await import("./lib/demo/seed");
     const result = await seedDemo();

@@ -1,3 +1,4 @@
+import { IdColumn } from "@/geo/ids";
 import { describe, expect, it } from "vitest";
 import { decodePoints, encodePoints } from "./points-blob";
 import type { PointTable } from "@/geo/types";
@@ -7,7 +8,7 @@ describe("points blob", () => {
     const table: PointTable = {
       source: "long-acre-as-planted.csv", role: "planted", length: 3,
       x: new Float64Array([5.1, 5.2, 5.3]), y: new Float64Array([52.1, 52.2, 52.3]), line: new Int32Array([2, 3, 4]),
-      id: ["LA-1", "LA-2", ""], attrs: { crop: { codes: new Int32Array([0, 0, -1]), values: ["lettuce"] } },
+      id: IdColumn.from(["LA-1", "LA-2", ""]), attrs: { crop: { codes: new Int32Array([0, 0, -1]), values: ["lettuce"] } },
       time: new Float64Array([1, NaN, 3]), hdop: null, precision: null, rawX: new Float64Array([5.11, 5.21, 5.31]), rawY: new Float64Array([52.11, 52.21, 52.31]),
     };
     const back = decodePoints(encodePoints(table));

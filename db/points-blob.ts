@@ -6,6 +6,7 @@
  * the typed arrays named in header.arrays, each 8-byte aligned.
  */
 import type { AttributeName, CodedColumn, PointTable } from "@/geo/types";
+import { IdColumn } from "@/geo/ids";
 
 const MAGIC = "PPT1";
 
@@ -41,7 +42,7 @@ export function encodePoints(table: PointTable): Uint8Array {
     offset = pad8(offset + a.data.byteLength);
     return entry;
   });
-  const header: Header = { source: table.source, role: table.role, length: table.length, id: table.id, attrValues, arrays: layout };
+  const header: Header = { source: table.source, role: table.role, length: table.length, id: table.id ? table.id.toArray() : null, attrValues, arrays: layout };
   const headerBytes = new TextEncoder().encode(JSON.stringify(header));
   const start = pad8(8 + headerBytes.length);
   const out = new Uint8Array(start + offset);
@@ -72,6 +73,6 @@ export function decodePoints(bytes: Uint8Array): PointTable {
   return {
     source: header.source, role: header.role, length: header.length,
     x: f64("x")!, y: f64("y")!, line: arrays.get("line") as Int32Array,
-    id: header.id, attrs, time: f64("time"), hdop: f64("hdop"), precision: f64("precision"), rawX: f64("rawX"), rawY: f64("rawY"),
+    id: header.id ? IdColumn.from(header.id) : null, attrs, time: f64("time"), hdop: f64("hdop"), precision: f64("precision"), rawX: f64("rawX"), rawY: f64("rawY"),
   };
 }

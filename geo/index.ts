@@ -19,7 +19,8 @@ export { projectTable, convertArrays, convertPoint, toLonLat, resolveWorkCrs, ce
 export { validateTable, type TableCheckOptions } from "./validate/table";
 export { validateFiles, type FilesCheckOptions, type FileInCrs } from "./validate/files";
 export { IssueCollector, formatIssue, hasErrors, DEFAULT_ISSUE_CAP } from "./validate/issues";
-export { indexIds, findDuplicateIds, fnv1a, type IdIndex } from "./ids";
+export { indexIds, findDuplicateIds, fnv1a, IdColumn, IdColumnBuilder, type IdIndex } from "./ids";
 export { pairPoints, DEFAULT_MAX_DISTANCE, type MatchMode, type PairInput, type PairOptions, type PairingNotes } from "./pair";
 export { deriveRowBearing, type RowBearing } from "./row-bearing";
 export { prepareAudit, type FileInput, type PrepareOptions, type Prepared } from "./prepare";
+export { tableBuffers } from "./transfer";

@@ -4,6 +4,7 @@
  *
  * Contract between `geo/` (reading, projection, pairing) and `lib/audit/` (statistics, reports).
  */
+import type { IdColumn } from "./ids";
 
 /** Which of the two input files a table came from. */
 export type FileRole = "planted" | "survey";
@@ -34,7 +35,7 @@ export interface PointTable {
   /** 1-based line in the file for CSV (header = line 1), 1-based feature number for GeoJSON. */
   line: Int32Array;
   /** Plant id per row ("" = none), or null when the file has no id column. */
-  id: string[] | null;
+  id: IdColumn | null;
   /** Optional text attributes present in the file. */
   attrs: Partial<Record<AttributeName, CodedColumn>>;
   /** Planting (records) or observation (survey) time, epoch milliseconds UTC; NaN when missing. */

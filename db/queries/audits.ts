@@ -79,6 +79,7 @@ export async function failAudit(db: DB, { id, orgId, error }: { id: string; orgI
 
 export type ResidualInsert = typeof auditResidual.$inferInsert;
 export type UnpairedInsert = typeof auditUnpaired.$inferInsert;
+export type RowBatch = { kind: "residual"; rows: ResidualInsert[] } | { kind: "unpaired"; rows: UnpairedInsert[] };
 
 const BATCH = 2000;
 
@@ -89,21 +90,23 @@ const BATCH = 2000;
  */
 export async function storeAuditResult(db: DB, r: {
   id: string; orgId: string; summary: AuditSummary; verdict: Verdict; settings: AuditSettingsDto;
-  residuals: ResidualInsert[]; unpaired: UnpairedInsert[]; reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
+  /** The per-plant rows, in batches (arrays or as they arrive from a worker thread); `total` rows in all. */
+  rows: Iterable<RowBatch> | AsyncIterable<RowBatch>; total: number;
+  reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
   onBatch?: (fraction: number) => Promise<void> | void;
 }): Promise<void> {
-  const total = r.residuals.length + r.unpaired.length;
   let done = 0;
   try {
-    for (let i = 0; i < r.residuals.length; i += BATCH) {
-      await db.insert(auditResidual).values(r.residuals.slice(i, i + BATCH));
-      done += Math.min(BATCH, r.residuals.length - i);
-      await r.onBatch?.(done / Math.max(1, total));
-    }
-    for (let i = 0; i < r.unpaired.length; i += BATCH) {
-      await db.insert(auditUnpaired).values(r.unpaired.slice(i, i + BATCH));
-      done += Math.min(BATCH, r.unpaired.length - i);
-      await r.onBatch?.(done / Math.max(1, total));
+    // Batches outside one transaction: PGlite has a single connection, and a transaction would hold
+    // every other user's query until the last row of a large audit is in.
+    for await (const batch of r.rows) {
+      for (let i = 0; i < batch.rows.length; i += BATCH) {
+        const part = batch.rows.slice(i, i + BATCH);
+        if (batch.kind === "residual") await db.insert(auditResidual).values(part as ResidualInsert[]);
+        else await db.insert(auditUnpaired).values(part as UnpairedInsert[]);
+        done += part.length;
+        await r.onBatch?.(done / Math.max(1, r.total));
+      }
     }
     await db.transaction(async (tx) => {
       for (const report of r.reports) await tx.insert(auditReport).values({ auditId: r.id, kind: report.kind, bytes: report.bytes });

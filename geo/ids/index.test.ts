@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { findDuplicateIds, fnv1a, indexIds } from "./index";
+import { findDuplicateIds, fnv1a, IdColumn, indexIds } from "./index";
 
 describe("ids", () => {
   it("fnv1a -- published 32-bit FNV-1a test vectors", () => {
@@ -40,5 +40,48 @@ describe("ids", () => {
     expect(findDuplicateIds(["A2", "A1", "A2"])).toEqual(new Map([["A2", [0, 2]]]));
     expect(findDuplicateIds(["A1", "A1"])).toEqual(new Map([["A1", [0, 1]]]));
     expect(findDuplicateIds(["b", "a"])).toBeNull();
+  });
+});
+
+describe("IdColumn", () => {
+  const ids = ["LA-000001", "", "Ä-ß", "LA-000002", " x"];
+  const col = IdColumn.from(ids);
+
+  it("IdColumn -- gives back each id, empty ones as empty strings", () => {
+    expect(col.length).toBe(5);
+    expect(col.toArray()).toEqual(ids);
+    expect(col.isEmpty(1)).toBe(true);
+    expect(col.isEmpty(0)).toBe(false);
+  });
+
+  it("IdColumn -- hash equals fnv1a of the string; compare agrees with string order", () => {
+    for (let i = 0; i < ids.length; i++) {
+      expect(col.hash(i)).toBe(fnv1a(ids[i]));
+      for (let j = 0; j < ids.length; j++) {
+        const c = col.compare(i, col, j);
+        expect(Math.sign(c)).toBe(ids[i] < ids[j] ? -1 : ids[i] > ids[j] ? 1 : 0);
+      }
+    }
+  });
+
+  it("IdColumn -- concat, select and revive after a structured clone", () => {
+    const other = IdColumn.from(["B1", ""]);
+    expect(col.concat(other).toArray()).toEqual([...ids, "B1", ""]);
+    expect(col.select([3, 0, 1]).toArray()).toEqual(["LA-000002", "LA-000001", ""]);
+    const cloned = IdColumn.revive(structuredClone(col))!;
+    expect(cloned).toBeInstanceOf(IdColumn);
+    expect(cloned.toArray()).toEqual(ids);
+  });
+
+  it("IdColumn -- ids longer than one fromCharCode batch", () => {
+    const long = "P".repeat(10_000) + "Q";
+    expect(IdColumn.from([long]).get(0)).toBe(long);
+  });
+
+  it("indexIds -- looks up ids of another column without making strings", () => {
+    const idx = indexIds(col);
+    const survey = IdColumn.from(["LA-000002", "nope", ""]);
+    expect([0, 1, 2].map((k) => idx.lookupFrom(survey, k))).toEqual([3, -1, -1]);
+    expect(idx.lookup("Ä-ß")).toBe(2);
   });
 });

@@ -1,3 +1,4 @@
+import { IdColumn } from "../ids";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { PAIRED_BY_ID, PAIRED_BY_POSITION } from "../types";
@@ -9,7 +10,7 @@ import { pairPoints, type PairInput } from "./index";
 // marriage", Amer. Math. Monthly 69 (1962): with symmetric distances the stable matching is the
 // one built by repeatedly taking the closest free pair (from memory).
 const pts = (xy: number[][], id: string[] | null = null): PairInput => ({
-  length: xy.length, x: Float64Array.from(xy.map((p) => p[0])), y: Float64Array.from(xy.map((p) => p[1])), id,
+  length: xy.length, x: Float64Array.from(xy.map((p) => p[0])), y: Float64Array.from(xy.map((p) => p[1])), id: id ? IdColumn.from(id) : null,
 });
 const pairsOf = (r: ReturnType<typeof pairPoints>) => Array.from(r.plantedIndex, (p, k) => [p, r.surveyIndex[k]]);
 

@@ -1,5 +1,5 @@
 import KDBush from "kdbush";
-import { indexIds } from "../ids";
+import { indexIds, type IdColumn } from "../ids";
 import { PAIRED_BY_ID, PAIRED_BY_POSITION, type Pairing } from "../types";
 
 /** The part of a table pairing needs: positions in one metric CRS, and ids when present. */
@@ -7,7 +7,7 @@ export interface PairInput {
   length: number;
   x: Float64Array;
   y: Float64Array;
-  id: string[] | null;
+  id: IdColumn | null;
 }
 
 /** How to pair survey points with planted records. */
@@ -95,8 +95,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
     if (pid && sid) {
       const index = indexIds(pid);
       for (let s = 0; s < ns; s++) {
-        const id = sid[s];
-        const found = id === "" ? -1 : index.lookup(id);
+        const empty = sid.isEmpty(s);
+        const found = empty ? -1 : index.lookupFrom(sid, s);
         const p = found < 0 ? undefined : found;
         if (p !== undefined && partnerOfPlanted[p] < 0) {
           partnerOfPlanted[p] = s;
@@ -104,7 +104,7 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
           pairMethod[p] = PAIRED_BY_ID;
           notes.byId++;
         } else {
-          if (id !== "" && p === undefined) notes.surveyIdsNotFound++;
+          if (!empty && p === undefined) notes.surveyIdsNotFound++;
           positionSurvey[s] = 1;
         }
       }

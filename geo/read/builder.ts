@@ -1,3 +1,4 @@
+import { IdColumnBuilder } from "../ids";
 import type { AttributeName, CodedColumn, FileRole, PointTable } from "../types";
 
 /**
@@ -34,7 +35,13 @@ export class Dictionary {
   /** Code of the raw cell `text[s, e)`. */
   codeOfSpan(text: string, s: number, e: number): number {
     const last = this.last;
-    if (e - s === last.length && text.startsWith(last, s)) return this.lastCode;
+    const n = e - s;
+    if (n === last.length) {
+      // A character loop: short cells, and the optimiser inlines it where startsWith is a call.
+      let k = 0;
+      while (k < n && text.charCodeAt(s + k) === last.charCodeAt(k)) k++;
+      if (k === n) return this.lastCode;
+    }
     return this.code(text.substring(s, e));
   }
 }
@@ -69,7 +76,7 @@ export class ColumnStore {
   /** One code array per attribute, in `shape.attrs` order. */
   codes: Int32Array[];
   readonly dicts: Dictionary[];
-  readonly id: string[] | null;
+  readonly id: IdColumnBuilder | null;
 
   constructor(readonly shape: StoreShape) {
     const f = (on: boolean) => (on ? new Float64Array(this.cap) : null);
@@ -80,7 +87,7 @@ export class ColumnStore {
     this.rawY = f(shape.raw);
     this.codes = shape.attrs.map(() => new Int32Array(this.cap));
     this.dicts = shape.attrs.map((a) => new Dictionary(shape.normalise?.[a]));
-    this.id = shape.id ? [] : null;
+    this.id = shape.id ? new IdColumnBuilder() : null;
   }
 
   /** Makes room for one more row. */
@@ -127,7 +134,7 @@ export class ColumnStore {
       x: cutF(this.x),
       y: cutF(this.y),
       line: cutI(this.line),
-      id: this.id,
+      id: this.id ? this.id.finish() : null,
       attrs,
       time: cut(this.time),
       hdop: cut(this.hdop),

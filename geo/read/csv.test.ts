@@ -30,7 +30,7 @@ describe("csv", () => {
     expect(Array.from(t.y)).toEqual([52.1, 52.2]);
     expect(Array.from(t.x)).toEqual([9.2, 9.3]);
     expect(Array.from(t.line)).toEqual([2, 3]);
-    expect(t.id).toEqual(["P1", "P2"]);
+    expect(t.id!.toArray()).toEqual(["P1", "P2"]);
     expect(t.attrs.row).toEqual({ codes: new Int32Array([0, 1]), values: ["1", "2"] });
     expect(r.columns.delimiter).toBe(",");
     expect(r.columns.coordinates).toBe("geographic");
@@ -40,7 +40,7 @@ describe("csv", () => {
     const r = await readCsv("\uFEFFplant_id;lat;lon\r\nP1;52,125;9,5\r\nP2;52,25;9,75\r\n", opts);
     expect(r.issues).toEqual([]);
     expect(Array.from(r.table!.y)).toEqual([52.125, 52.25]);
-    expect(r.table!.id).toEqual(["P1", "P2"]);
+    expect(r.table!.id!.toArray()).toEqual(["P1", "P2"]);
     expect(r.columns).toMatchObject({ delimiter: ";", decimalComma: true });
   });
 
@@ -58,7 +58,7 @@ describe("csv", () => {
     const bad = r.issues.find((i) => i.code === "coordinate-not-numeric")!;
     expect(bad).toMatchObject({ line: 5, column: "lat", value: "oops", file: "planted.csv", severity: "error" });
     const ok = await readCsv(text.replace("oops", "52.3"), opts);
-    expect(ok.table!.id).toEqual(["P,1", "P2", "P3"]);
+    expect(ok.table!.id!.toArray()).toEqual(["P,1", "P2", "P3"]);
     expect(ok.table!.attrs.crop!.values).toEqual(['let "tuce"', "two\nlines", "x"]);
     expect(Array.from(ok.table!.line)).toEqual([2, 3, 5]);
   });
@@ -108,7 +108,7 @@ describe("csv", () => {
 
   it("readCsv -- explicit mapping overrides guessing", async () => {
     const r = await readCsv("a,b,c\nP1,552300,5794100\n", { ...opts, mapping: { id: "a", x: "b", y: "c", coordinates: "projected" } });
-    expect(r.table!.id).toEqual(["P1"]);
+    expect(r.table!.id!.toArray()).toEqual(["P1"]);
     expect(r.columns.columns).toMatchObject({ id: "a", x: "b", y: "c" });
     expect(r.columns.coordinates).toBe("projected");
   });
@@ -154,7 +154,7 @@ describe("csv", () => {
           const text = [["plant_id", "lat", "lon"].join(d), ...rows.map(([id, a, b]) => [id.trim() || "X", String(a), String(b)].join(d))].join("\n");
           const oracle = Papa.parse<string[]>(text, { delimiter: d, skipEmptyLines: true }).data.slice(1);
           const r = await readCsv(text, { ...opts, sliceChars: 64 });
-          expect(r.table!.id).toEqual(oracle.map((o) => o[0].trim()));
+          expect(r.table!.id!.toArray()).toEqual(oracle.map((o) => o[0].trim()));
           expect(Array.from(r.table!.y)).toEqual(oracle.map((o) => Number(o[1])));
           expect(Array.from(r.table!.x)).toEqual(oracle.map((o) => Number(o[2])));
         },

@@ -42,6 +42,26 @@ function isBlank(text: string, s: number, e: number): boolean {
   return true;
 }
 
+/**
+ * End of the header line (index of its newline), skipping blank lines before it and newlines inside
+ * double quotes; -1 when the text does not hold a whole non-blank line.
+ * @example headerEnd("\nid,lat\n1,2", "\n") // 7
+ */
+export function headerEnd(text: string, newline: string): number {
+  let quoted = false;
+  let lineStart = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 34) quoted = !quoted;
+    else if (!quoted && text.startsWith(newline, i)) {
+      if (!isBlank(text, lineStart, i)) return i;
+      lineStart = i + newline.length;
+      i = lineStart - 1;
+    }
+  }
+  return -1;
+}
+
 /** A quoted field longer than this (unbalanced quote) stops reading. */
 const MAX_PENDING = 32 << 20;
 
@@ -169,8 +189,13 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
     }
   };
 
-  /** Quote-free text: split rows and fields by hand, only the cells a role needs are read. */
-  const fastParse = (text: string, last: boolean): void => {
+  /**
+   * Quote-free text: split rows and fields by hand, only the cells a role needs are read. Returns
+   * where the unfinished last row starts (the text's length when none). The caller keeps that
+   * tail: work done only once per slice stays out of this hot loop, so the optimised code of the
+   * loop is not thrown away at the end of every slice for want of type feedback.
+   */
+  const fastParse = (text: string, last: boolean): number => {
     const s = sink!;
     const starts = s.starts, ends = s.ends;
     const lastNeeded = s.lastNeeded;
@@ -206,14 +231,32 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       if (end > pos && !(f === 1 && isBlank(text, pos, end))) s.addSpans(text, Math.min(f, lastNeeded + 1), line, f);
       pos = j + 1;
     }
-    pending = last ? "" : text.substring(Math.min(pos, n));
+    return pos;
   };
 
   const parse = (text: string, last: boolean): void => {
+    if (sink === null && !stopped) {
+      // The header line goes through papaparse (it may be quoted); the rest of the slice can then
+      // take the fast path instead of papaparse's row arrays.
+      const cut = headerEnd(text, newline);
+      if (cut >= 0) {
+        const head = text.substring(0, cut);
+        const quotedHead = head.indexOf('"') >= 0;
+        if (quotedHead) sawQuote = true;
+        const res = parser!.parse(head, 0, false) as { data: string[][]; errors: { row?: number; message: string }[] };
+        handle(res.data, quotedHead, res.errors);
+        if (stopped || sink === null) {
+          pending = "";
+          return;
+        }
+        text = text.substring(cut + newline.length);
+      }
+    }
     const quoted = text.indexOf('"') >= 0;
     if (quoted) sawQuote = true;
     if (sink !== null && !quoted) {
-      fastParse(text, last);
+      const pos = fastParse(text, last);
+      pending = last || pos >= text.length ? "" : text.substring(pos);
       return;
     }
     const p = parser!;

@@ -21,7 +21,7 @@ describe("geojson", () => {
     expect(Array.from(t.x)).toEqual([9.2, 9.3]);
     expect(Array.from(t.y)).toEqual([52.1, 52.2]);
     expect(Array.from(t.line)).toEqual([1, 2]);
-    expect(t.id).toEqual(["P1", "P2"]);
+    expect(t.id!.toArray()).toEqual(["P1", "P2"]);
     expect(t.attrs.method!.values).toEqual(["rtk"]);
     expect(t.precision![0]).toBe(0.01);
     expect(t.precision![1]).toBeNaN();
@@ -32,7 +32,7 @@ describe("geojson", () => {
     const r = await readGeoJson(fcOf([pt(552300.5, 5794100.25, null, "P9")], { crs: { type: "name", properties: { name: "urn:ogc:def:crs:EPSG::25832" } } }), opts);
     expect(r.crsHint).toBe("EPSG:25832");
     expect(r.columns.coordinates).toBe("projected");
-    expect(r.table!.id).toEqual(["P9"]);
+    expect(r.table!.id!.toArray()).toEqual(["P9"]);
   });
 
   it("readGeoJson -- errors: not JSON, not a FeatureCollection, a line geometry, text coordinates", async () => {

@@ -14,6 +14,11 @@ export interface SinkOptions {
   decimalComma: boolean;
 }
 
+/** Blank for ids: ASCII controls and space, no-break space, byte-order mark (what trim() removes in practice). */
+function isSpace(c: number): boolean {
+  return c <= 32 || c === 0xa0 || c === 0xfeff;
+}
+
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 
 /** Outcome codes of `parseSpanTo` (small integers, so nothing is boxed on the hot path). */
@@ -185,9 +190,15 @@ export class RowSink {
     s.line[r] = line;
     if (s.id) {
       const c = ix.id;
-      const id = c < nFields ? text.substring(st[c], en[c]).trim() : "";
-      s.id.push(id);
-      if (id === "") {
+      let a = 0, b = 0;
+      if (c < nFields) {
+        a = st[c];
+        b = en[c];
+        while (a < b && isSpace(text.charCodeAt(a))) a++;
+        while (b > a && isSpace(text.charCodeAt(b - 1))) b--;
+      }
+      s.id.add(text, a, b);
+      if (a >= b) {
         this.missingIdCount++;
         if (this.missingIds.length < 20) this.missingIds.push(line);
       }

@@ -1,3 +1,4 @@
+import { IdColumn } from "../ids";
 import { describe, expect, it } from "vitest";
 import { resolveCrs } from "../crs/registry";
 import { convertPoint } from "../project";
@@ -49,7 +50,7 @@ describe("validateTable", () => {
   });
 
   it("validateTable -- duplicate ids list every line", () => {
-    const issues = validateTable(t([9.77, 9.78, 9.79, 9.8], [52.3, 52.3, 52.3, 52.3], { id: ["A", "B", "A", "A"] }), WGS);
+    const issues = validateTable(t([9.77, 9.78, 9.79, 9.8], [52.3, 52.3, 52.3, 52.3], { id: IdColumn.from(["A", "B", "A", "A"]) }), WGS);
     expect(issues).toEqual([expect.objectContaining({ code: "id-duplicate", severity: "error", value: "A", line: 4 })]);
     expect(issues[0].message).toContain("appears 3 times, on lines 2, 4, 5");
   });

@@ -157,7 +157,7 @@ export function* residualsCsv(input: {
     const p = plantedIndex[i];
     const s = surveyIndex[i];
     lines.push(
-      `${plantedIds ? csvText(plantedIds[p]) : ""},${surveyIds ? csvText(surveyIds[s]) : ""},` +
+      `${plantedIds ? csvText(plantedIds.get(p)) : ""},${surveyIds ? csvText(surveyIds.get(s)) : ""},` +
         `${cellOf(crop, cropP ? p : s)},${cellOf(bed, bedP ? p : s)},${cellOf(row, rowP ? p : s)},` +
         `${cellOf(arm, armP ? p : s)},${cellOf(fix, fixP ? p : s)},` +
         `${num(px[p])},${num(py[p])},${num(sx[s])},${num(sy[s])},${num(dE[i])},${num(dN[i])},` +
@@ -206,7 +206,7 @@ export function* unpairedCsv(input: {
     const file = csvText(table.source);
     for (let k = 0; k < rows.length; k++) {
       const i = rows[k];
-      let line = `${kind},${table.id ? csvText(table.id[i]) : ""},${file},${table.line[i]},${num(table.x[i])},${num(table.y[i])}`;
+      let line = `${kind},${table.id ? csvText(table.id.get(i)) : ""},${file},${table.line[i]},${num(table.x[i])},${num(table.y[i])}`;
       for (const a of attrs) line += `,${cellOf(a, i)}`;
       lines.push(line);
       if (lines.length === chunkRows) {

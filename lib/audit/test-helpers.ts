@@ -4,6 +4,7 @@
  */
 import type { AttributeName, CodedColumn, Pairing, ProjectedTable } from "@/geo/types";
 import { PAIRED_BY_ID, PAIRED_BY_POSITION } from "@/geo/types";
+import { IdColumn } from "@/geo/ids";
 
 /** Builds a dictionary-coded column from text values ("" = empty cell → code −1). */
 export function coded(values: readonly string[]): CodedColumn {
@@ -49,7 +50,7 @@ export function makeTable(spec: {
     x: Float64Array.from(spec.x),
     y: Float64Array.from(spec.y),
     line: Int32Array.from({ length: n }, (_, i) => i + 2),
-    id: spec.id ?? null,
+    id: spec.id ? IdColumn.from(spec.id) : null,
     attrs,
     time: spec.time ? Float64Array.from(spec.time) : null,
     hdop: null,

@@ -1,116 +1,16 @@
 /**
  * Benchmark: `npm run bench [-- --sizes 10000,100000,1000000] [--regen] [--sequential]`.
  *
- * Generates a synthetic field (fictional "Alder Bank" trial field; beds 3 m wide with 5 rows 0.5 m
- * apart, plants 0.25 m apart in the row, rows at a bearing of 28°) as CSV in .bench/:
- *  - planted-N.csv: N as-planted records, plant_id, crop, bed, row, arm, fix, lat, lon (WGS 84, 9 decimals);
- *  - survey-N.csv: ~N survey points, easting/northing in WGS 84 / UTM 32N (4 decimals), no ids, in
- *    walking order; 2 % of plants not surveyed, 1 % extra points (weeds) added.
- * Error model (demo values; common practice, no source): record = truth + bias (2 mm E, −1 mm N) + 3 mm σ
- * per axis; survey = truth + 8 mm σ per axis; 2 % of records on RTK float with 40 mm σ.
- * Then times the whole audit from files at each size in a fresh child process (read, validate,
+ * Generates the synthetic field of bench-field.ts as CSV in .bench/, then times the whole audit from files at each size in a fresh child process (read, validate,
  * project, check, pair, row bearing, statistics, total) and reports peak memory: the largest RSS
  * sampled every 20 ms and process.resourceUsage().maxRSS (the kernel's peak, which sampling can miss).
  */
 import { spawnSync } from "node:child_process";
-import { createWriteStream, existsSync, mkdirSync } from "node:fs";
-import { once } from "node:events";
 import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { parseArgs } from "node:util";
-import proj4 from "proj4";
+import { benchFiles, DIR } from "./bench-field";
 import { runPipeline } from "./pipeline";
-
-const DIR = ".bench";
-const UTM = "+proj=utm +zone=32 +datum=WGS84 +units=m +no_defs";
-const WGS = "+proj=longlat +datum=WGS84 +no_defs";
-const ORIGIN_E = 552_300, ORIGIN_N = 5_794_100; // near 52.3°N 9.77°E (fictional field)
-const BEARING = (28 * Math.PI) / 180;
-
-/** Deterministic normal random numbers (mulberry32 + Box–Muller). */
-function rng(seed: number): { u: () => number; n: () => number } {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  let spare = NaN;
-  const n = () => {
-    if (spare === spare) {
-      const s = spare;
-      spare = NaN;
-      return s;
-    }
-    const r = Math.sqrt(-2 * Math.log(u() + 1e-300)), th = 2 * Math.PI * u();
-    spare = r * Math.sin(th);
-    return r * Math.cos(th);
-  };
-  return { u, n };
-}
-
-async function writeLines(path: string, gen: () => Generator<string>): Promise<void> {
-  const out = createWriteStream(path);
-  let buf: string[] = [];
-  for (const line of gen()) {
-    buf.push(line);
-    if (buf.length === 8192) {
-      if (!out.write(buf.join("\n") + "\n")) await once(out, "drain");
-      buf = [];
-    }
-  }
-  if (buf.length) out.write(buf.join("\n") + "\n");
-  out.end();
-  await once(out, "finish");
-}
-
-/** Writes planted-N.csv and survey-N.csv for a field of N plants. */
-async function generate(n: number): Promise<void> {
-  const rowsPerBed = 5, rowGap = 0.5, bedWidth = 3, spacing = 0.25;
-  const perRow = Math.max(10, Math.round(Math.sqrt(n / 8)));
-  const totalRows = Math.ceil(n / perRow);
-  const toGeo = proj4(UTM, WGS);
-  const sinB = Math.sin(BEARING), cosB = Math.cos(BEARING);
-  const r = rng(n);
-  // Truth per plant, in walking order: bed, row within bed, position along the row.
-  const te = new Float64Array(n), tn = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const rowIndex = Math.floor(i / perRow), k = i % perRow;
-    const bed = Math.floor(rowIndex / rowsPerBed), row = rowIndex % rowsPerBed;
-    const along = k * spacing, cross = bed * bedWidth + row * rowGap;
-    te[i] = ORIGIN_E + along * sinB + cross * cosB;
-    tn[i] = ORIGIN_N + along * cosB - cross * sinB;
-  }
-  const crops = ["lettuce", "celeriac", "leek"];
-  await writeLines(`${DIR}/planted-${n}.csv`, function* () {
-    yield "plant_id,crop,bed,row,arm,fix,lat,lon";
-    const p = [0, 0];
-    for (let i = 0; i < n; i++) {
-      const rowIndex = Math.floor(i / perRow);
-      const bed = Math.floor(rowIndex / rowsPerBed), row = (rowIndex % rowsPerBed) + 1;
-      const float = r.u() < 0.02;
-      const s = float ? 0.04 : 0.003;
-      p[0] = te[i] + 0.002 + s * r.n();
-      p[1] = tn[i] - 0.001 + s * r.n();
-      const [lon, lat] = toGeo.forward(p);
-      yield `AB-${String(i + 1).padStart(7, "0")},${crops[Math.floor(bed / 10) % 3]},B${bed + 1},${row},${row <= 3 ? "L" : "R"},${float ? 5 : 4},${lat.toFixed(9)},${lon.toFixed(9)}`;
-    }
-  });
-  await writeLines(`${DIR}/survey-${n}.csv`, function* () {
-    yield "easting,northing,method";
-    for (let i = 0; i < n; i++) {
-      if (r.u() < 0.02) continue; // not surveyed / missing plant
-      yield `${(te[i] + 0.008 * r.n()).toFixed(4)},${(tn[i] + 0.008 * r.n()).toFixed(4)},rtk`;
-      if (r.u() < 0.01) {
-        // a weed or volunteer half-way to the next plant
-        yield `${(te[i] + 0.12 * sinB + 0.05 * r.n()).toFixed(4)},${(tn[i] + 0.12 * cosB + 0.05 * r.n()).toFixed(4)},rtk`;
-      }
-    }
-  });
-  void totalRows;
-}
 
 /** One measured run (in this process). */
 async function runOnce(n: number, parallel: boolean): Promise<void> {
@@ -167,15 +67,8 @@ async function main(): Promise<void> {
     await runOnce(Number(values.run), !values.sequential);
     return;
   }
-  mkdirSync(DIR, { recursive: true });
   const sizes = values.sizes!.split(",").map(Number);
-  for (const n of sizes) {
-    if (values.regen || !existsSync(`${DIR}/planted-${n}.csv`) || !existsSync(`${DIR}/survey-${n}.csv`)) {
-      const t = performance.now();
-      await generate(n);
-      process.stderr.write(`generated ${n} in ${Math.round(performance.now() - t)} ms\n`);
-    }
-  }
+  for (const n of sizes) await benchFiles(n, values.regen);
   const self = fileURLToPath(import.meta.url);
   const rows: string[] = [];
   for (const n of sizes) {

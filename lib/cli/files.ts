@@ -1,104 +1,22 @@
-import { isAscii } from "node:buffer";
-import { closeSync, createReadStream, openSync, readSync, statSync } from "node:fs";
-import { StringDecoder } from "node:string_decoder";
-import { fileURLToPath } from "node:url";
+import { closeSync, openSync, readSync, statSync } from "node:fs";
 import { Worker } from "node:worker_threads";
-import { appendReadResults, formatFromName, readPoints, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
+import { appendReadResults, formatFromName, IdColumn, type ReadResult } from "@/geo";
+import { readFileJob, type ReadJob } from "./file-read";
+import { workerBundle } from "@/lib/workers/bundle";
 
-/** One file (or the tail of one) to read. */
-export interface ReadJob {
-  path: string;
-  role: FileRole;
-  timeZone?: string;
-  mapping?: ColumnMapping;
-  format?: PointFileFormat;
-  /** Read from this byte offset on, led by `prefix` (the file's header line), instead of the whole file. */
-  start?: number;
-  end?: number;
-  prefix?: Uint8Array;
-}
-
-/** True when `b` does not end inside a UTF-8 multi-byte sequence. */
-function endsOnCharBoundary(b: Buffer): boolean {
-  for (let k = 1; k <= Math.min(4, b.length); k++) {
-    const c = b[b.length - k];
-    if (c < 0x80) return true; // ASCII
-    if (c >= 0xc0) {
-      const need = c >= 0xf0 ? 4 : c >= 0xe0 ? 3 : 2;
-      return k >= need;
-    }
-  }
-  return true;
-}
-
-/**
- * UTF-8 text of a file (or of a byte range led by a prefix) in 1 MB chunks. Chunks that are pure
- * ASCII (the usual machine export) are turned into strings as Latin-1, which is the same text for
- * ASCII and about twice as fast as UTF-8 decoding; other chunks go through a streaming UTF-8 decoder.
- * A leading UTF-8 BOM is dropped.
- */
-export async function* fileText(path: string, range: { start?: number; end?: number; prefix?: Uint8Array } = {}): AsyncGenerator<string> {
-  const decoder = new StringDecoder("utf8");
-  let pending = false; // decoder holds part of a character
-  let first = true;
-  async function* bytes(): AsyncGenerator<Buffer> {
-    if (range.prefix) yield Buffer.from(range.prefix);
-    yield* createReadStream(path, { highWaterMark: 1 << 20, start: range.start, end: range.end === undefined ? undefined : range.end - 1 }) as AsyncIterable<Buffer>;
-  }
-  for await (const chunk of bytes()) {
-    let b = chunk;
-    if (first) {
-      first = false;
-      if (b.length >= 3 && b[0] === 0xef && b[1] === 0xbb && b[2] === 0xbf) b = b.subarray(3);
-      else if (b.length >= 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04) {
-        yield b.toString("latin1"); // let the reader report a zip/xlsx file
-        return;
-      }
-    }
-    if (!pending && isAscii(b)) yield b.toString("latin1");
-    else {
-      yield decoder.write(b);
-      pending = !endsOnCharBoundary(b);
-    }
-  }
-  const tail = decoder.end();
-  if (tail) yield tail;
-}
-
-/** Reads a point file (or a part of one) as a stream of text; the file name in messages is the path as given. */
-export function readFileJob(job: ReadJob): Promise<ReadResult> {
-  return readPoints(fileText(job.path, job), {
-    source: job.path,
-    role: job.role,
-    timeZone: job.timeZone,
-    mapping: job.mapping,
-    format: job.format,
-  });
-}
-
-/** Buffers of a result's typed arrays, to move them to another thread without copying. */
-export function transferList(r: ReadResult): ArrayBuffer[] {
-  const t = r.table;
-  if (!t) return [];
-  const arrays: (ArrayBufferView | null)[] = [t.x, t.y, t.line, t.time, t.hdop, t.precision, t.rawX, t.rawY];
-  for (const c of Object.values(t.attrs)) if (c) arrays.push(c.codes);
-  const seen = new Set<ArrayBuffer>();
-  for (const a of arrays) if (a && a.buffer instanceof ArrayBuffer) seen.add(a.buffer);
-  return [...seen];
-}
+export { fileText, readFileJob, transferList, type ReadJob } from "./file-read";
 
 /**
  * Reads files on a worker thread, one after the other; typed arrays are transferred back, not copied.
- * Under tsx a small CommonJS entry registers tsx's in-thread hook first (Node 20 worker threads do
- * not inherit tsx's loader); starting it still costs a few hundred milliseconds, so callers use it
- * for large files only.
+ * The worker runs a plain-JavaScript bundle of read-worker.ts (see `workerBundle`).
  */
-export function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
+export async function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
+  const entry = await workerBundle("lib/cli/read-worker.ts");
   return new Promise((resolve, reject) => {
-    const boot = new URL("./worker-boot.cjs", import.meta.url);
-    const entry = fileURLToPath(new URL("./read-worker.ts", import.meta.url));
-    const worker = new Worker(boot, { workerData: { jobs, entry } });
+    const worker = new Worker(entry, { workerData: { jobs }, execArgv: [] }) // no tsx hooks: the bundle is plain JavaScript;
     worker.once("message", (r: ReadResult[]) => {
+      // Structured cloning keeps an IdColumn's arrays but not its class.
+      for (const x of r) if (x.table) x.table.id = IdColumn.revive(x.table.id);
       resolve(r);
       void worker.terminate();
     });

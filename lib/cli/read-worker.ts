@@ -1,7 +1,7 @@
 /** Worker thread entry: reads the point files given and posts the ReadResults back (typed arrays transferred). */
 import { parentPort, workerData } from "node:worker_threads";
 import type { ReadResult } from "@/geo";
-import { readFileJob, transferList, type ReadJob } from "./files";
+import { readFileJob, transferList, type ReadJob } from "./file-read";
 
 async function main(): Promise<void> {
   const results: ReadResult[] = [];

@@ -23,7 +23,7 @@ export function residualRecordRows(result: AuditResult, planted: ProjectedTable,
     const pick = (name: AttrName) => attr(planted, name, p) ?? attr(survey, name, s);
     const t = planted.time ? planted.time[p] : NaN;
     rows[k] = {
-      seq: k, plantId: planted.id?.[p] || null, surveyId: survey.id?.[s] || null,
+      seq: k, plantId: planted.id?.get(p) || null, surveyId: survey.id?.get(s) || null,
       crop: pick("crop"), bed: pick("bed"), row: pick("row"), arm: pick("arm"), fix: pick("fix"),
       day: Number.isFinite(t) ? localDay(t, timeZone) : null,
       plantedE: planted.x[p], plantedN: planted.y[p], surveyE: survey.x[s], surveyN: survey.y[s],
@@ -42,7 +42,7 @@ export function unpairedRecordRows(
   const rows: UnpairedRecordRow[] = [];
   const add = (kind: string, t: ProjectedTable, idx: Int32Array) => {
     for (const i of idx) {
-      rows.push({ seq: rows.length, kind, pointId: t.id?.[i] || null, line: t.line[i], e: t.x[i], n: t.y[i], crop: attr(t, "crop", i), bed: attr(t, "bed", i), row: attr(t, "row", i) });
+      rows.push({ seq: rows.length, kind, pointId: t.id?.get(i) || null, line: t.line[i], e: t.x[i], n: t.y[i], crop: attr(t, "crop", i), bed: attr(t, "bed", i), row: attr(t, "row", i) });
     }
   };
   add("planted-not-found", planted, pairing.unmatchedPlanted);

@@ -1,22 +1,19 @@
 import "server-only";
-import { prepareAudit, resolveCrs, type PointTable } from "@/geo";
-import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
-import { computeAudit, residualsCsv, summaryCsv, unpairedCsv } from "@/lib/audit";
-import { evaluateVerdict } from "@/lib/audit/verdict";
+import { resolveCrs } from "@/geo";
+import type { ComputeStage } from "@/lib/audit-job/compute";
+import type { AuditJobMessage } from "@/lib/audit-job/messages";
+import { startAuditWorker, type AuditWorkerJob } from "@/lib/audit-job/run-in-worker";
 import { getDb, type DB } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
 import { getProfileById } from "@/db/queries/profiles";
 import {
-  createAudit, failAudit, getAuditById, setAuditProgress, storeAuditResult, type ProfileSnapshot,
+  createAudit, failAudit, getAuditById, setAuditProgress, storeAuditResult, type RowBatch,
 } from "@/db/queries/audits";
 import { AppError, notFound } from "@/lib/errors";
 import type { AuditDto, AuditSettingsDto } from "@/lib/api-types";
 import type { AuditCreateInput } from "@/lib/validation/audit";
 import type { Viewer } from "@/lib/access";
-
-/** Breakdowns every audit computes. */
-const GROUP_BY = ["arm", "crop", "bed", "fix", "day"] as const;
 
 /**
  * Check the request, create the audit ("computing") and start the computation in the background.
@@ -62,8 +59,18 @@ export async function startAudit(viewer: Viewer, input: AuditCreateInput, opts: 
   return (await getAuditById(db, { id, orgId }))!;
 }
 
-/** Compute an audit that exists in the database; failures are stored on the audit, never thrown. */
+/** Progress shown while each stage runs (saving then moves from 0.5 to 0.95 with the rows stored). */
+const STAGE_PROGRESS: Record<ComputeStage, number> = {
+  validate: 0.15, project: 0.2, "check-files": 0.25, pair: 0.3, "row-bearing": 0.4, statistics: 0.42,
+};
+
+/**
+ * Compute an audit that exists in the database; failures are stored on the audit, never thrown.
+ * The engine runs on a worker thread (lib/audit-job); this thread only loads the points, records
+ * progress and stores the rows as they arrive.
+ */
 export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<void> {
+  let job: AuditWorkerJob | null = null;
   try {
     const auditRow = await getAuditById(db, { id, orgId });
     if (!auditRow || !auditRow.planted || !auditRow.survey || !auditRow.settings || !auditRow.profile) throw new Error("audit inputs are missing");
@@ -73,73 +80,51 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
       loadDatasetPoints(db, { id: auditRow.survey.id, orgId }),
     ]);
     if (!planted || !survey) throw new Error("a dataset of this audit has no stored points");
-    await setAuditProgress(db, { id, progress: 0.15, stage: "pairing" });
-    await yieldToOthers();
-    const outcome = computeFromTables(planted.table, planted.dto.crs, survey.table, survey.dto.crs, auditRow.settings, auditRow.profile);
-    if (!outcome.ok) {
-      const errors = outcome.issues.filter((i) => i.severity === "error");
-      await failAudit(db, { id, orgId, error: errors.map((i) => `${i.file}${i.line ? ` line ${i.line}` : ""}: ${i.message}`).slice(0, 5).join("; ") });
+    await setAuditProgress(db, { id, progress: 0.1, stage: "computing" });
+    job = await startAuditWorker({
+      planted: planted.table, plantedCrs: planted.dto.crs, survey: survey.table, surveyCrs: survey.dto.crs,
+      settings: auditRow.settings, profile: auditRow.profile,
+    });
+    const messages = job.messages;
+    const next = async (): Promise<AuditJobMessage> => {
+      const r = await messages.next();
+      if (r.done) throw new Error("the audit worker stopped before it finished");
+      if (r.value.type === "error") throw new Error(r.value.message);
+      return r.value;
+    };
+
+    let m = await next();
+    while (m.type === "stage") {
+      await setAuditProgress(db, { id, progress: STAGE_PROGRESS[m.stage], stage: m.stage === "statistics" ? "statistics" : "pairing" });
+      m = await next();
+    }
+    if (m.type === "refused") {
+      await failAudit(db, { id, orgId, error: m.errors.map((e) => `${e.file}${e.line ? ` line ${e.line}` : ""}: ${e.message}`).slice(0, 5).join("; ") });
       return;
     }
+    if (m.type !== "computed") throw new Error(`the audit worker sent "${m.type}" before its result`);
+    const computed = m;
     await setAuditProgress(db, { id, progress: 0.5, stage: "saving" });
-    await yieldToOthers();
-    const { result, plantedP, surveyP, verdict, settings } = outcome;
+    async function* rows(): AsyncGenerator<RowBatch> {
+      for (;;) {
+        const b = await next();
+        if (b.type === "done") return;
+        if (b.type === "residuals") yield { kind: "residual", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
+        else if (b.type === "unpaired") yield { kind: "unpaired", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
+        else throw new Error(`the audit worker sent "${b.type}" among the rows`);
+      }
+    }
     await storeAuditResult(db, {
-      id, orgId, summary: result.summary, verdict, settings,
-      // The same row builders verification uses, so stored and re-computed rows cannot drift apart.
-      residuals: residualRecordRows(result, plantedP, surveyP, settings.timeZone).map((row) => ({ auditId: id, ...row })),
-      unpaired: unpairedRecordRows(outcome.pairing, plantedP, surveyP).map((row) => ({ auditId: id, ...row })),
-      reports: [
-        { kind: "residuals", bytes: joinChunks(residualsCsv({ planted: plantedP, survey: surveyP, residuals: result.residuals })) },
-        { kind: "unpaired", bytes: joinChunks(unpairedCsv({ planted: plantedP, survey: surveyP, pairing: outcome.pairing })) },
-        { kind: "summary", bytes: joinChunks(summaryCsv(result.summary)) },
-      ],
+      id, orgId, summary: computed.summary, verdict: computed.verdict, settings: computed.settings,
+      // Rows come from the same builders verification uses, so stored and re-computed rows cannot drift apart.
+      rows: rows(), total: computed.residualCount + computed.unpairedCount,
+      reports: computed.reports,
       onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
     });
   } catch (err) {
     console.error("[plotproof] audit computation failed", err);
     await failAudit(db, { id, orgId, error: `The computation failed: ${(err as Error).message}` }).catch(() => {});
+  } finally {
+    await job?.stop();
   }
 }
-
-/** The engine run shared with the command line: prepare (project, check, pair), statistics, verdict. */
-export function computeFromTables(
-  planted: PointTable, plantedCrs: string, survey: PointTable, surveyCrs: string,
-  settings: AuditSettingsDto, profile: ProfileSnapshot,
-) {
-  const prepared = prepareAudit({ table: planted, crs: plantedCrs }, { table: survey, crs: surveyCrs }, {
-    workCrs: settings.workCrs, match: settings.match, maxDistance: settings.maxDistanceM, rowBearingDeg: settings.rowBearingDeg ?? undefined,
-  });
-  if (!prepared.ok) return { ok: false as const, issues: prepared.issues };
-  const bearing = Number.isFinite(prepared.rowBearing.bearingDeg) ? prepared.rowBearing.bearingDeg : undefined;
-  const hasBearing = bearing !== undefined;
-  const result = computeAudit({
-    planted: prepared.planted, survey: prepared.survey, pairing: prepared.pairing,
-    options: {
-      toleranceRadial: profile.radialM ?? undefined,
-      toleranceCross: hasBearing ? profile.crossM ?? undefined : undefined,
-      toleranceAlong: hasBearing ? profile.alongM ?? undefined : undefined,
-      confidence: profile.confidence,
-      rowBearingDeg: bearing,
-      rowBearingSource: hasBearing ? (prepared.rowBearing.given ? "given" : "derived") : "none",
-      groupBy: [...GROUP_BY],
-      timeZone: settings.timeZone,
-    },
-  });
-  const r = result.residuals;
-  const wt = result.summary.withinTolerance;
-  const verdict = evaluateVerdict(profile, {
-    pairs: result.summary.pairs, radial: r.radial, cross: r.cross, along: r.along,
-    within: wt && wt.share !== null && wt.lower95 !== null ? { share: wt.share, lower95: wt.lower95 } : null,
-  });
-  return {
-    ok: true as const, result, verdict, pairing: prepared.pairing, plantedP: prepared.planted, surveyP: prepared.survey,
-    issues: prepared.issues, settings: { ...settings, workCrs: prepared.workCrs.code, rowBearingDeg: bearing ?? null },
-  };
-}
-
-function joinChunks(chunks: Iterable<string>): Uint8Array {
-  return new TextEncoder().encode([...chunks].join(""));
-}
-
-const yieldToOthers = () => new Promise((r) => setImmediate(r));

@@ -1,10 +1,9 @@
 import "server-only";
 import { formatFromName, readPoints, type ColumnMapping, type PointFileFormat, type PointTable } from "@/geo";
-import { residualsCsv, summaryCsv, unpairedCsv } from "@/lib/audit";
 import type { DB } from "@/db/client";
 import { loadDatasetPoints } from "@/db/queries/datasets";
 import { getRawFile, loadRecordMaterial, type AuditReviewRow } from "@/db/queries/review";
-import { computeFromTables } from "@/lib/services/run-audit";
+import { auditReports, computeFromTables } from "@/lib/audit-job/compute";
 import { AppError } from "@/lib/errors";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import { sha256Hex } from "../hash";
@@ -86,7 +85,6 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
     return { body: null, files, problem: `Re-computing failed: ${outcome.issues.filter((i) => i.severity === "error").map((i) => i.message).slice(0, 3).join("; ")}` };
   }
   const { result, plantedP, surveyP } = outcome;
-  const join = (chunks: Iterable<string>) => new TextEncoder().encode([...chunks].join(""));
   return {
     files,
     problem: null,
@@ -97,11 +95,7 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
         summary: result.summary, verdict: outcome.verdict,
         residuals: residualDigest(residualRecordRows(result, plantedP, surveyP, outcome.settings.timeZone)),
         unpaired: unpairedDigest(unpairedRecordRows(outcome.pairing, plantedP, surveyP)),
-        reports: reportHashes({
-          residuals: join(residualsCsv({ planted: plantedP, survey: surveyP, residuals: result.residuals })),
-          unpaired: join(unpairedCsv({ planted: plantedP, survey: surveyP, pairing: outcome.pairing })),
-          summary: join(summaryCsv(result.summary)),
-        }),
+        reports: reportHashes(Object.fromEntries(auditReports(outcome).map((r) => [r.kind, r.bytes])) as Record<"residuals" | "unpaired" | "summary", Uint8Array>),
       },
     },
   };

@@ -1,0 +1,43 @@
+/**
+ * Worker-thread entry: computes one audit (see compute.ts) and posts the outcome, then the rows to
+ * store in batches, so the server's own thread stays free for other requests meanwhile.
+ */
+import { parentPort } from "node:worker_threads";
+import { IdColumn } from "@/geo/ids";
+import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
+import { auditReports, computeFromTables } from "./compute";
+import { ROWS_PER_MESSAGE, type AuditJobInput, type AuditJobMessage } from "./messages";
+
+const port = parentPort!;
+const post = (m: AuditJobMessage, transfer: ArrayBuffer[] = []) => port.postMessage(m, transfer);
+
+port.once("message", (job: AuditJobInput) => {
+  try {
+    // Structured cloning keeps an IdColumn's arrays but not its class.
+    job.planted.id = IdColumn.revive(job.planted.id);
+    job.survey.id = IdColumn.revive(job.survey.id);
+    const outcome = computeFromTables(job.planted, job.plantedCrs, job.survey, job.surveyCrs, job.settings, job.profile, (stage) => post({ type: "stage", stage }));
+    if (!outcome.ok) {
+      post({
+        type: "refused",
+        errors: outcome.issues.filter((i) => i.severity === "error").map((i) => ({ file: i.file, line: i.line, message: i.message })),
+      });
+      return;
+    }
+    const reports = auditReports(outcome);
+    const residuals = residualRecordRows(outcome.result, outcome.plantedP, outcome.surveyP, outcome.settings.timeZone);
+    const unpaired = unpairedRecordRows(outcome.pairing, outcome.plantedP, outcome.surveyP);
+    post(
+      {
+        type: "computed", summary: outcome.result.summary, verdict: outcome.verdict, settings: outcome.settings, reports,
+        residualCount: residuals.length, unpairedCount: unpaired.length,
+      },
+      reports.map((r) => r.bytes.buffer as ArrayBuffer),
+    );
+    for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE) post({ type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) });
+    for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE) post({ type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) });
+    post({ type: "done" });
+  } catch (err) {
+    post({ type: "error", message: err instanceof Error ? err.message : String(err) });
+  }
+});

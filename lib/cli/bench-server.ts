@@ -1,0 +1,88 @@
+/**
+ * Does a large audit hold other users' requests? Run against a server with the demo accounts
+ * (`npm run demo`, or the browser tests' server):
+ *
+ *   npm run bench:server -- --base http://127.0.0.1:3000 [--plants 100000]
+ *
+ * As the demo technician: creates a field, uploads the benchmark's synthetic as-planted and survey
+ * CSVs (lib/cli/bench-field.ts; every plant surveyed, so the audit stores one row per plant) and starts
+ * an audit. Until it is computed, the demo grower asks `GET /api/fields` every 100 ms; the figures
+ * are the audit's time and the grower's response times (median, 95th percentile, largest).
+ */
+import { readFileSync } from "node:fs";
+import { basename } from "node:path";
+import { parseArgs } from "node:util";
+import { request, type APIRequestContext } from "playwright-core";
+import { benchFiles } from "./bench-field";
+
+const { values } = parseArgs({ options: { base: { type: "string", default: "http://127.0.0.1:3000" }, plants: { type: "string", default: "100000" } } });
+const base = values.base!;
+const n = Number(values.plants);
+
+async function signedIn(email: string): Promise<APIRequestContext> {
+  const ctx = await request.newContext({ baseURL: base, extraHTTPHeaders: { origin: base } });
+  const res = await ctx.post("/api/auth/sign-in/email", { data: { email, password: "kestrel-demo-26" } });
+  if (!res.ok()) throw new Error(`sign-in as ${email}: ${res.status()} ${await res.text()}`);
+  return ctx;
+}
+
+async function json<T>(p: Promise<import("playwright-core").APIResponse>, what: string): Promise<T> {
+  const res = await p;
+  if (!res.ok()) throw new Error(`${what}: ${res.status()} ${(await res.text()).slice(0, 500)}`);
+  return (await res.json()) as T;
+}
+
+const pct = (sorted: number[], q: number) => sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))];
+
+async function main(): Promise<void> {
+  const files = await benchFiles(n);
+  const tech = await signedIn("tamsin@kestrelfen.example");
+  const grower = await signedIn("ansel@kestrelfen.example");
+  const { field } = await json<{ field: { id: string } }>(
+    tech.post("/api/fields", { data: { name: `Alder Bank bench ${n} ${Date.now()}`, farm: "Alder Bank", crs: "EPSG:32632", timeZone: "Europe/Berlin" } }),
+    "create field",
+  );
+  const upload = async (path: string, kind: string, crs?: string) => {
+    const t = performance.now();
+    const body = await json<{ dataset: { id: string } }>(
+      tech.post(`/api/fields/${field.id}/datasets`, {
+        multipart: { file: { name: basename(path), mimeType: "text/csv", buffer: readFileSync(path) }, kind, acceptWarnings: "true", ...(crs ? { crs } : {}) },
+        timeout: 600_000,
+      }),
+      `upload ${path}`,
+    );
+    console.log(`uploaded ${basename(path)} in ${Math.round(performance.now() - t)} ms`);
+    return body.dataset.id;
+  };
+  const plantedDatasetId = await upload(files.planted, "planted");
+  const surveyDatasetId = await upload(files.survey, "survey", "EPSG:32632");
+  const { profiles } = await json<{ profiles: { id: string; name: string }[] }>(tech.get("/api/profiles"), "profiles");
+
+  const t0 = performance.now();
+  const { audit } = await json<{ audit: { id: string } }>(
+    tech.post("/api/audits", { data: { fieldId: field.id, plantedDatasetId, surveyDatasetId, profileId: profiles[0].id, match: "nearest", maxDistanceM: 0.1 } }),
+    "create audit",
+  );
+  const waits: number[] = [];
+  let state = "computing", stage = "";
+  const stages = new Set<string>();
+  while (state === "computing") {
+    const t = performance.now();
+    await json(grower.get("/api/fields"), "grower's request");
+    waits.push(performance.now() - t);
+    const a = await json<{ audit: { state: string; progressStage: string } }>(tech.get(`/api/audits/${audit.id}`), "poll");
+    state = a.audit.state;
+    stage = a.audit.progressStage;
+    stages.add(stage);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  const total = performance.now() - t0;
+  waits.sort((a, b) => a - b);
+  console.log(JSON.stringify({
+    plants: n, state, stagesSeen: [...stages], auditMs: Math.round(total), growerRequests: waits.length,
+    growerMs: { median: Math.round(pct(waits, 0.5)), p95: Math.round(pct(waits, 0.95)), max: Math.round(waits[waits.length - 1]) },
+  }));
+  if (state !== "computed") process.exitCode = 1;
+}
+
+await main();
