@@ -39,6 +39,43 @@ describe("columns", () => {
     expect(q.problems.some((x) => x.code === "mapping-column-not-found" && x.column === "lon")).toBe(true);
   });
 
+  it("planColumns -- null for a role: the guessed column is not read and counts as unused", () => {
+    const header = ["plant_id", "arm", "fix", "hdop", "lat", "lon"];
+    const mapping = { fix: null, arm: null };
+    const p = planColumns(header, mapping);
+    expect(p.index.fix).toBe(-1);
+    expect(p.index.arm).toBe(-1);
+    expect(p.guess.columns.fix).toBeUndefined();
+    expect(p.guess.columns.arm).toBeUndefined();
+    expect(p.guess.columns).toMatchObject({ id: "plant_id", hdop: "hdop", y: "lat", x: "lon" });
+    expect(p.guess.unused).toEqual(["arm", "fix"]);
+    expect(p.problems).toEqual([]);
+    // Absent still means "guess", and the mapping is not changed.
+    expect(planColumns(header, {}).guess.columns.fix).toBe("fix");
+    expect(mapping).toEqual({ fix: null, arm: null });
+  });
+
+  it("planColumns -- null for x or y is an error naming the position, not a missing-columns error", () => {
+    const p = planColumns(["id", "lat", "lon"], { x: null });
+    expect(p.problems).toHaveLength(1);
+    expect(p.problems[0]).toMatchObject({ code: "mapping-coordinate-not-in-file", severity: "error" });
+    expect(p.problems[0].message).toContain("longitude (x) is not in this file");
+    const q = planColumns(["id", "easting", "northing"], { y: null });
+    expect(q.problems.map((x) => x.code)).toEqual(["mapping-coordinate-not-in-file"]);
+    expect(q.problems[0].message).toContain("northing (y)");
+    // A position that is missing, not mapped to null, is still reported as missing.
+    const r = planColumns(["id", "lon"], { x: null });
+    expect(r.problems.map((x) => x.code)).toEqual(["mapping-coordinate-not-in-file", "coordinate-columns-missing"]);
+  });
+
+  it("planColumns -- null for one raw GNSS column drops the pair without a warning", () => {
+    const p = planColumns(["easting", "northing", "raw_lat", "raw_lon"], { rawX: null });
+    expect(p.index).toMatchObject({ rawX: -1, rawY: -1 });
+    expect(p.guess.rawCoordinates).toBeNull();
+    expect(p.guess.unused).toEqual(["raw_lat", "raw_lon"]);
+    expect(p.problems).toEqual([]);
+  });
+
   it("planColumns -- both kinds present: lat/lon used, with a warning", () => {
     const p = planColumns(["id", "lat", "lon", "easting", "northing"]);
     expect(p.guess.coordinates).toBe("geographic");

@@ -16,9 +16,11 @@ export type CoordinateKind = "geographic" | "projected";
 
 /**
  * An explicit column mapping chosen by a user; it overrides guessing role by role.
- * Values are header names as they appear in the file. `x` = longitude or easting, `y` = latitude or northing.
+ * A value is a header name as it appears in the file, or `null` for "not in this file" (no column is read
+ * for that role, even one the guess would pick); an absent role is guessed.
+ * `x` = longitude or easting, `y` = latitude or northing; these two cannot be `null`.
  */
-export type ColumnMapping = Partial<Record<ColumnRole, string>> & {
+export type ColumnMapping = { [R in ColumnRole]?: string | null } & {
   coordinates?: CoordinateKind;
 };
 
@@ -80,7 +82,7 @@ export interface ColumnPlan {
   /** Role → column index in the header, or -1 when absent. */
   index: Record<ColumnRole, number>;
   guess: ColumnGuess;
-  /** Problems found with the header itself (missing coordinate columns, unknown mapped names). */
+  /** Problems found with the header itself (missing coordinate columns, unknown mapped names, positions mapped to null). */
   problems: { code: string; severity: "error" | "warning"; message: string; column?: string }[];
 }
 
@@ -88,10 +90,13 @@ export interface ColumnPlan {
  * Decides which column plays which role.
  * Guessing picks the first header whose normalised name is in the accepted list (list order wins,
  * then column order). A mapping entry replaces the guess for its role; a mapped name that is not in
- * the header is an error. Latitude/longitude win over easting/northing when both are present, unless
- * `mapping.coordinates` says otherwise.
+ * the header is an error. A `null` entry drops the guess, so that column is unused (`rawX` or `rawY`
+ * null drops both raw GNSS columns); `x` or `y` null is an error, as every point needs a position.
+ * Latitude/longitude win over easting/northing when both are present, unless `mapping.coordinates`
+ * says otherwise.
  *
  * @example planColumns(["Plant ID", "Lat", "Lon"]).guess.columns // { id: "Plant ID", y: "Lat", x: "Lon" }
+ * @example planColumns(["id", "fix", "lat", "lon"], { fix: null }).guess.unused // ["fix"]
  */
 export function planColumns(header: readonly string[], mapping: ColumnMapping = {}): ColumnPlan {
   const clean = header.map((h) => h.replace(/^\uFEFF/, "").trim());
@@ -167,13 +172,32 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
     index.rawY = rawN;
   }
 
+  const named = (role: ColumnRole): boolean => typeof mapping[role] === "string" && mapping[role] !== "";
   for (const role of COLUMN_ROLES) {
     const name = mapping[role];
-    if (name !== undefined && name !== "") index[role] = byName(name, role);
+    if (name === null) index[role] = -1;
+    else if (name !== undefined && name !== "") index[role] = byName(name, role);
   }
-  if ((mapping.rawX !== undefined || mapping.rawY !== undefined) && rawKind === null) rawKind = kind;
+  for (const role of ["x", "y"] as const) {
+    if (mapping[role] !== null) continue;
+    const what = role === "x"
+      ? (kind === "projected" ? "easting" : kind === "geographic" ? "longitude" : "longitude or easting")
+      : (kind === "projected" ? "northing" : kind === "geographic" ? "latitude" : "latitude or northing");
+    problems.push({
+      code: "mapping-coordinate-not-in-file",
+      severity: "error",
+      message: `the column mapping says the ${what} (${role}) is not in this file, but every point needs a position; name the column that holds it, or leave ${role} out to have it guessed`,
+    });
+  }
+  // Raw GNSS positions need both columns: "not in this file" for one drops the pair.
+  if (mapping.rawX === null || mapping.rawY === null) {
+    index.rawX = -1;
+    index.rawY = -1;
+    rawKind = null;
+  }
+  if ((named("rawX") || named("rawY")) && rawKind === null) rawKind = kind;
 
-  if (index.x < 0 || index.y < 0) {
+  if ((index.x < 0 && mapping.x !== null) || (index.y < 0 && mapping.y !== null)) {
     const what = kind === "projected" ? "easting and northing" : kind === "geographic" ? "latitude and longitude" : "latitude/longitude or easting/northing";
     problems.push({
       code: "coordinate-columns-missing",
@@ -181,7 +205,7 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
       message: `no ${what} columns found; the header is: ${clean.join(", ")}. Name them e.g. lat/lon or easting/northing, or give a column mapping`,
     });
   }
-  if (rawKind !== null && kind !== null && rawKind !== kind && mapping.rawX === undefined) {
+  if (rawKind !== null && kind !== null && rawKind !== kind && !named("rawX")) {
     problems.push({
       code: "raw-gnss-kind-differs",
       severity: "warning",

@@ -113,6 +113,23 @@ describe("csv", () => {
     expect(r.columns.coordinates).toBe("projected");
   });
 
+  it("readCsv -- mapping null: the guessed fix column is not read", async () => {
+    const text = "id,fix,lat,lon\nP1,RTK fixed,52,9\nP2,RTK float,52,9\n";
+    expect((await readCsv(text, opts)).table!.attrs.fix!.values).toEqual(["rtk-fixed", "rtk-float"]);
+    const r = await readCsv(text, { ...opts, mapping: { fix: null } });
+    expect(r.issues).toEqual([]);
+    expect(r.table!.attrs.fix).toBeUndefined();
+    expect(r.table!.id).toEqual(["P1", "P2"]);
+    expect(r.columns.columns.fix).toBeUndefined();
+    expect(r.columns.unused).toEqual(["fix"]);
+  });
+
+  it("readCsv -- mapping null for a position column: an error, and no table", async () => {
+    const r = await readCsv("id,lat,lon\nP1,52,9\n", { ...opts, mapping: { y: null } });
+    expect(r.table).toBeNull();
+    expect(r.issues.map((i) => i.code)).toEqual(["mapping-coordinate-not-in-file"]);
+  });
+
   it("readCsv -- times, raw GNSS, fix and missing ids", async () => {
     const text = "id,fix,time,lat,lon,raw_lat,raw_lon\nP1,4,2025-05-03T08:00:00Z,52,9,52.0000001,9.0000002\n,RTK float,2025-05-03 10:00,52,9,,\n";
     const r = await readCsv(text, opts);

@@ -35,6 +35,15 @@ describe("geojson", () => {
     expect(r.table!.id!.toArray()).toEqual(["P9"]);
   });
 
+  it("readGeoJson -- mapping id null: neither the id property nor the feature id is read", async () => {
+    const text = fcOf([pt(9.2, 52.1, { plant_id: "P1", method: "rtk" }, "F1")]);
+    const r = await readGeoJson(text, { ...opts, mapping: { id: null } });
+    expect(r.table!.id).toBeNull();
+    expect(r.columns.columns.id).toBeUndefined();
+    expect(r.columns.unused).toEqual(["plant_id"]);
+    expect(r.table!.attrs.method!.values).toEqual(["rtk"]);
+  });
+
   it("readGeoJson -- errors: not JSON, not a FeatureCollection, a line geometry, text coordinates", async () => {
     expect((await readGeoJson("{oops", opts)).issues[0].code).toBe("geojson-invalid");
     expect((await readGeoJson('{"type":"Feature"}', opts)).issues[0].code).toBe("geojson-not-feature-collection");

@@ -1,7 +1,7 @@
 import "server-only";
 import crypto from "node:crypto";
 import {
-  centreLonLat, formatFromName, readPoints, resolveCrs, utmFor, validateTable, hasErrors,
+  COLUMN_ROLES, centreLonLat, formatFromName, readPoints, resolveCrs, utmFor, validateTable, hasErrors,
   type ColumnMapping, type CrsEntry, type InputIssue,
 } from "@/geo";
 import { getDb } from "@/db/client";
@@ -75,7 +75,10 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   progress("checking", 1);
 
   progress("saving", 0);
-  const mapping: ColumnMapping = { ...read.columns.columns, ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}) };
+  // Roles the uploader said are not in the file stay null, so reading the file again (review) or a preset made
+  // from it does not guess them back.
+  const notInFile = Object.fromEntries(COLUMN_ROLES.filter((role) => r.mapping?.[role] === null).map((role) => [role, null]));
+  const mapping: ColumnMapping = { ...notInFile, ...read.columns.columns, ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}) };
   const sha256 = crypto.createHash("sha256").update(r.bytes).digest("hex");
   const saved = await createDataset(db, {
     orgId: r.viewer.orgId, fieldId: field.id, userId: r.viewer.userId, kind: r.kind, fileName: r.fileName, format,

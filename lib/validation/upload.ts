@@ -3,7 +3,8 @@ import { COLUMN_ROLES } from "@/geo";
 
 export const MAX_UPLOAD_BYTES = 300 * 1024 * 1024;
 
-const roleShape = Object.fromEntries(COLUMN_ROLES.map((r) => [r, z.string().min(1).optional()])) as Record<(typeof COLUMN_ROLES)[number], z.ZodOptional<z.ZodString>>;
+// Per role: a header name, or null for "not in this file" (no column is read for it); absent = guessed.
+const roleShape = Object.fromEntries(COLUMN_ROLES.map((r) => [r, z.string().min(1).nullable().optional()])) as Record<(typeof COLUMN_ROLES)[number], z.ZodOptional<z.ZodNullable<z.ZodString>>>;
 
 export const ColumnMappingSchema = z.object({ ...roleShape, coordinates: z.enum(["geographic", "projected"]).optional() }).strict();
 
@@ -16,7 +17,7 @@ export const UploadFields = z.object({
     try {
       return ColumnMappingSchema.parse(JSON.parse(s));
     } catch (e) {
-      ctx.addIssue({ code: "custom", message: `mapping must be a JSON object of column roles to header names (${(e as Error).message.slice(0, 200)})` });
+      ctx.addIssue({ code: "custom", message: `mapping must be a JSON object of column roles to header names, or to null for a role not in this file (${(e as Error).message.slice(0, 200)})` });
       return z.NEVER;
     }
   }),

@@ -14,7 +14,7 @@ import { FieldRow, Notice, buttonClass, describedBy, inputClass } from "@/app/_c
 import { CrsPicker } from "@/app/_components/field-form/crs-picker";
 import type { CsvPreview, GeoJsonPreview } from "./preview-types";
 import {
-  ROLE_ORDER, bestPreset, guessColumns, mappingSchema, planFor, presetColumns, presetFits, roleLabel, toColumnMapping,
+  ROLE_ORDER, bestPreset, guessColumns, mappingSchema, notInFileValue, planFor, presetColumns, presetFits, roleLabel, toColumnMapping,
   type FileKind, type MappingValues,
 } from "./mapping-schema";
 import { sendUpload, asIssues, type ServerStage, type UploadOutcome } from "./send-upload";
@@ -120,6 +120,7 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
   }, [presets.data]);
 
   const plan = useMemo(() => planFor(header, format, toColumnMapping(values, format)), [header, format, values]);
+  const notInFile = useMemo(() => notInFileValue(header), [header]);
 
   const [result, setResult] = useState<Result>({ name: "none" });
   const [progress, setProgress] = useState<Progress | null>(null);
@@ -226,11 +227,16 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
     });
     return out;
   }, [header, preview.rows]);
+  // What the server will read, guesses included, so the preview never calls a guessed column "not read".
   const roleOf = useMemo(() => {
     const m = new Map<string, ColumnRole>();
-    for (const r of roles) if (values.columns?.[r]) m.set(values.columns[r], r);
+    for (const r of roles) {
+      const name = plan.guess.columns[r];
+      if (name && header.includes(name)) m.set(name, r);
+    }
     return m;
-  }, [roles, values.columns]);
+  }, [roles, plan, header]);
+  const guessed = useMemo(() => guessColumns(header, format, coords).columns, [header, format, coords]);
   const locked = uploading || result.name === "saved";
   const allPresets = presets.data?.presets ?? [];
 
@@ -247,7 +253,8 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
           <legend className="sr-only">Columns</legend>
           <h2 id="step-columns" className="mb-2 text-base font-semibold">3. Which column is which</h2>
           <p className="mb-4 text-sm text-ink-soft">
-            Plotproof guessed these from the column names. Correct any that are wrong; columns left at “not in this file” are not read.
+            Plotproof guessed these from the column names. Correct any that are wrong. Choose “not in this file” when the file
+            does not hold that part: the column Plotproof guessed for it is then not read.
           </p>
 
           {allPresets.length > 0 ? (
@@ -307,7 +314,7 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
             <p className="mb-4 text-sm" data-testid="geometry-note">
               <span className="font-medium">{label("x")} and {label("y")}:</span> from each feature&apos;s Point geometry
               {preview.positions[0] ? <span className="text-ink-soft"> (first: {preview.positions[0]})</span> : null}.
-              {preview.featureIds && !values.columns?.id ? " The features' own ids are used as plant ids." : ""}
+              {preview.featureIds && values.columns?.id === "" && !plan.guess.columns.id ? " The features' own ids are used as plant ids." : ""}
             </p>
           ) : null}
 
@@ -315,19 +322,30 @@ export function FileStep({ file, preview, field, kind, onBusy, onReset }: {
             {roles.map((role) => {
               const id = `map-${role}`;
               const err = errors.columns?.[role]?.message;
-              const chosen = values.columns?.[role] ?? "";
-              const stillRead = !chosen && plan.guess.columns[role] && !plan.guess.columns[role]!.startsWith("@") ? plan.guess.columns[role] : null;
-              const hint = stillRead
-                ? `Plotproof will still read “${stillRead}” as ${label(role).toLowerCase()}: a recognised column cannot be switched off yet.`
-                : chosen && samples.has(chosen) ? `e.g. ${samples.get(chosen)}` : undefined;
+              const chosen = values.columns?.[role];
+              const position = role === "x" || role === "y";
+              const read = plan.guess.columns[role];
+              const hint = chosen === null
+                ? (guessed[role] ? `“${guessed[role]}” is not read.` : undefined)
+                : chosen === "" ? (read ? `Plotproof's guess: “${read}”.` : undefined)
+                  : chosen && samples.has(chosen) ? `e.g. ${samples.get(chosen)}` : undefined;
               return (
                 <FieldRow key={role} id={id} label={label(role)} error={err} hint={hint}>
-                  <select id={id} {...register(`columns.${role}`, { deps: roles.filter((o) => o !== role).map((o) => `columns.${o}` as const) })} aria-invalid={err ? true : undefined}
-                    aria-describedby={describedBy(id, { error: err, hint })} className={inputClass(!!err)}>
-                    <option value="">— not in this file —</option>
-                    {header.map((h, i) => <option key={`${i}-${h}`} value={h}>{h}</option>)}
-                    {chosen && !header.includes(chosen) ? <option value={chosen}>{chosen} (not in this file)</option> : null}
-                  </select>
+                  <Controller control={control} name={`columns.${role}`}
+                    rules={{ deps: roles.filter((o) => o !== role).map((o) => `columns.${o}` as const) }}
+                    render={({ field: f }) => (
+                      <select id={id} ref={f.ref} name={f.name} onBlur={f.onBlur}
+                        value={f.value === null ? notInFile : f.value}
+                        onChange={(e) => f.onChange(e.target.value === notInFile ? null : e.target.value)}
+                        aria-invalid={err ? true : undefined}
+                        aria-describedby={describedBy(id, { error: err, hint })} className={inputClass(!!err)}>
+                        {/* Positions are required, so x/y offer neither the guess nor "not in this file". */}
+                        <option value="">{position ? "— choose a column —" : "— Plotproof's guess —"}</option>
+                        {position ? null : <option value={notInFile}>— not in this file —</option>}
+                        {header.map((h, i) => <option key={`${i}-${h}`} value={h}>{h}</option>)}
+                        {chosen && !header.includes(chosen) ? <option value={chosen}>{chosen} (not in this file)</option> : null}
+                      </select>
+                    )} />
                 </FieldRow>
               );
             })}

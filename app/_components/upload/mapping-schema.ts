@@ -33,17 +33,26 @@ export function roleLabel(role: ColumnRole, coords: CoordinateKind, kind: FileKi
   }
 }
 
+/** Per role: a header name, "" = use Plotproof's guess, null = not in this file (nothing is read for it). */
+export type ColumnChoice = string | null;
+
 export interface MappingValues {
-  /** Role → header name; "" = not in this file. */
-  columns: Record<ColumnRole, string>;
+  columns: Record<ColumnRole, ColumnChoice>;
   coordinates: CoordinateKind;
   crs: string;
   savePreset: boolean;
   presetName: string;
 }
 
-export const emptyColumns = (): Record<ColumnRole, string> =>
-  Object.fromEntries(COLUMN_ROLES.map((r) => [r, ""])) as Record<ColumnRole, string>;
+export const emptyColumns = (): Record<ColumnRole, ColumnChoice> =>
+  Object.fromEntries(COLUMN_ROLES.map((r) => [r, ""])) as Record<ColumnRole, ColumnChoice>;
+
+/** The select value standing for "not in this file": a string that is none of this header's names. */
+export function notInFileValue(header: readonly string[]): string {
+  let value = "(not in this file)";
+  while (header.includes(value)) value = `(${value})`;
+  return value;
+}
 
 /** The header name `name` refers to, compared the way the server's reader compares (exact, then normalised). */
 export function findHeader(header: readonly string[], name: string): string | null {
@@ -63,7 +72,7 @@ export function planFor(header: readonly string[], format: FileFormat, mapping: 
 }
 
 /** The engine's guess as form values. */
-export function guessColumns(header: readonly string[], format: FileFormat, coordinates?: CoordinateKind): { columns: Record<ColumnRole, string>; coordinates: CoordinateKind | null } {
+export function guessColumns(header: readonly string[], format: FileFormat, coordinates?: CoordinateKind): { columns: Record<ColumnRole, ColumnChoice>; coordinates: CoordinateKind | null } {
   const plan = planFor(header, format, coordinates ? { coordinates } : {});
   const columns = emptyColumns();
   for (const role of COLUMN_ROLES) {
@@ -74,13 +83,16 @@ export function guessColumns(header: readonly string[], format: FileFormat, coor
   return { columns, coordinates: plan.guess.coordinates };
 }
 
-/** The mapping sent with the upload: only roles with a column (GeoJSON positions come from the geometry). */
+/**
+ * The mapping sent with the upload: a header name per chosen role, null per role not in this file, and
+ * nothing for roles left to the guess (GeoJSON positions come from the geometry).
+ */
 export function toColumnMapping(values: Pick<MappingValues, "columns" | "coordinates">, format: FileFormat): ColumnMapping {
   const mapping: ColumnMapping = { coordinates: values.coordinates };
   for (const role of COLUMN_ROLES) {
     if (format === "geojson" && (role === "x" || role === "y")) continue;
-    const name = values.columns[role];
-    if (name) mapping[role] = name;
+    const choice = values.columns[role];
+    if (choice === null || choice) mapping[role] = choice;
   }
   return mapping;
 }
@@ -91,13 +103,14 @@ export function presetFits(preset: PresetDto, header: readonly string[], format:
   return named.length > 0 && named.every((n) => findHeader(header, n) !== null);
 }
 
-/** Form columns from a preset, names matched to this header's spelling. */
-export function presetColumns(preset: PresetDto, header: readonly string[], format: FileFormat): Record<ColumnRole, string> {
+/** Form columns from a preset, names matched to this header's spelling; roles the preset says are not in the file stay so. */
+export function presetColumns(preset: PresetDto, header: readonly string[], format: FileFormat): Record<ColumnRole, ColumnChoice> {
   const columns = emptyColumns();
   for (const role of COLUMN_ROLES) {
     if (format === "geojson" && (role === "x" || role === "y")) continue;
     const name = preset.mapping[role];
     if (name) columns[role] = findHeader(header, name) ?? name;
+    else if (name === null) columns[role] = null;
   }
   return columns;
 }
@@ -115,7 +128,7 @@ export function bestPreset(presets: readonly PresetDto[], header: readonly strin
 
 /** Form schema for one file's header. */
 export function mappingSchema(header: readonly string[], format: FileFormat, kind: FileKind) {
-  const columns = z.object(Object.fromEntries(COLUMN_ROLES.map((r) => [r, z.string()])) as Record<ColumnRole, z.ZodString>);
+  const columns = z.object(Object.fromEntries(COLUMN_ROLES.map((r) => [r, z.string().nullable()])) as Record<ColumnRole, z.ZodNullable<z.ZodString>>);
   return z
     .object({
       columns,
