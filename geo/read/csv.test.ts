@@ -119,7 +119,7 @@ describe("csv", () => {
     const r = await readCsv(text, { ...opts, mapping: { fix: null } });
     expect(r.issues).toEqual([]);
     expect(r.table!.attrs.fix).toBeUndefined();
-    expect(r.table!.id).toEqual(["P1", "P2"]);
+    expect(r.table!.id!.toArray()).toEqual(["P1", "P2"]);
     expect(r.columns.columns.fix).toBeUndefined();
     expect(r.columns.unused).toEqual(["fix"]);
   });
