@@ -33,6 +33,10 @@ describe("geojson", () => {
     expect(r.crsHint).toBe("EPSG:25832");
     expect(r.columns.coordinates).toBe("projected");
     expect(r.table!.id!.toArray()).toEqual(["P9"]);
+    // Read again with the mapping stored after the first read (as review re-reads raw files).
+    const again = await readGeoJson(fcOf([pt(552300.5, 5794100.25, null, "P9")]), { ...opts, mapping: { ...r.columns.columns, x: undefined, y: undefined, coordinates: "projected" } });
+    expect(again.issues).toEqual([]);
+    expect(again.table!.id!.toArray()).toEqual(["P9"]);
   });
 
   it("readGeoJson -- mapping id null: neither the id property nor the feature id is read", async () => {

@@ -81,8 +81,11 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
 
   const header = [...keys];
   const mapping = { ...options.mapping };
+  // "@id" in a mapping (as stored after a first read) names the features' own ids.
+  const featureIdAsked = mapping.id === FEATURE_ID;
+  if (featureIdAsked) delete mapping.id;
   const plan0 = planColumns(header, { ...mapping, coordinates: kind });
-  if (plan0.index.id < 0 && anyFeatureId && mapping.id === undefined) {
+  if (featureIdAsked || (plan0.index.id < 0 && anyFeatureId && mapping.id === undefined)) {
     header.push(FEATURE_ID);
     mapping.id = FEATURE_ID;
   }
