@@ -3,6 +3,7 @@
  * 32-bit hash), used to find duplicate ids and to pair by id.
  * FNV-1a: Fowler, Noll and Vo, "FNV hash" (IETF draft-eastlake-fnv), offset basis 2166136261, prime 16777619.
  */
+import { appendTo, viewWithRoom } from "../spare";
 
 /** FNV-1a 32-bit hash of a string's UTF-16 code units. @example fnv1a("a") // 3826002220 */
 export function fnv1a(s: string): number {
@@ -15,15 +16,16 @@ export function fnv1a(s: string): number {
 }
 
 /**
- * One plant id per row ("" = none), kept as UTF-16 code units with row offsets instead of one
- * string per row: a million ids are two typed arrays (transferable between threads, no work for the
- * garbage collector) and a string is made only when one is asked for.
+ * One plant id per row ("" = none), kept as code units with row offsets instead of one string per
+ * row: a million ids are two typed arrays (transferable between threads, no work for the garbage
+ * collector) and a string is made only when one is asked for. Code units are bytes while every id
+ * is Latin-1 (machine exports), UTF-16 otherwise.
  * @example IdColumn.from(["P1", "", "P3"]).get(2) // "P3"
  */
 export class IdColumn {
   /** @param codes code units of all ids, one after the other. @param offsets length + 1 entries: id i is codes[offsets[i], offsets[i+1]). */
   constructor(
-    readonly codes: Uint16Array,
+    readonly codes: Uint8Array | Uint16Array,
     readonly offsets: Int32Array,
   ) {}
 
@@ -35,7 +37,6 @@ export class IdColumn {
   get(i: number): string {
     const a = this.offsets[i], b = this.offsets[i + 1];
     if (a === b) return "";
-    if (b - a <= 4096) return String.fromCharCode.apply(null, this.codes.subarray(a, b) as unknown as number[]);
     let s = "";
     for (let k = a; k < b; k += 4096) s += String.fromCharCode.apply(null, this.codes.subarray(k, Math.min(b, k + 4096)) as unknown as number[]);
     return s;
@@ -69,18 +70,11 @@ export class IdColumn {
     return pe - p - (qe - q);
   }
 
-  /** Every id as a string (only for small tables, tests and storage). */
+  /** Every id as a string (for small tables, tests and storage). */
   toArray(): string[] {
     const out = new Array<string>(this.length);
     for (let i = 0; i < out.length; i++) out[i] = this.get(i);
     return out;
-  }
-
-  /** A column of the rows `rows`, in that order. */
-  select(rows: ArrayLike<number>): IdColumn {
-    const b = new IdColumnBuilder();
-    for (let k = 0; k < rows.length; k++) b.addFrom(this, rows[k]);
-    return b.finish();
   }
 
   /** @example IdColumn.from(["a", "bc"]).offsets // Int32Array [0, 1, 3] */
@@ -90,27 +84,30 @@ export class IdColumn {
     return b.finish();
   }
 
-  /** This column followed by `other`. */
+  /** This column followed by `other` (in this column's spare room when it has some, see geo/spare.ts). */
   concat(other: IdColumn): IdColumn {
-    const codes = new Uint16Array(this.codes.length + other.codes.length);
-    codes.set(this.codes);
-    codes.set(other.codes, this.codes.length);
-    const offsets = new Int32Array(this.length + other.length + 1);
-    offsets.set(this.offsets);
-    const base = this.codes.length;
-    for (let j = 1; j < other.offsets.length; j++) offsets[this.length + j] = base + other.offsets[j];
+    const used = this.offsets[this.length], extra = other.offsets[other.length];
+    let codes: Uint8Array | Uint16Array;
+    if (this.codes instanceof Uint8Array && other.codes instanceof Uint8Array) codes = appendTo(this.codes.subarray(0, used), extra);
+    else {
+      codes = new Uint16Array(used + extra);
+      codes.set(this.codes.subarray(0, used));
+    }
+    codes.set(other.codes.subarray(0, extra), used);
+    const offsets = appendTo(this.offsets, other.length);
+    for (let j = 1; j < other.offsets.length; j++) offsets[this.length + j] = used + other.offsets[j];
     return new IdColumn(codes, offsets);
   }
 
   /** An IdColumn again after a structured clone (e.g. a message from a worker thread), which keeps only the fields. */
-  static revive(v: { codes: Uint16Array; offsets: Int32Array } | null | undefined): IdColumn | null {
+  static revive(v: { codes: Uint8Array | Uint16Array; offsets: Int32Array } | null | undefined): IdColumn | null {
     return v ? (v instanceof IdColumn ? v : new IdColumn(v.codes, v.offsets)) : null;
   }
 }
 
 /** Builds an IdColumn row by row; arrays grow by doubling. */
 export class IdColumnBuilder {
-  private codes = new Uint16Array(1 << 16);
+  private codes: Uint8Array | Uint16Array = new Uint8Array(1 << 16);
   private offsets = new Int32Array(4096);
   private n = 0;
   private used = 0;
@@ -118,37 +115,32 @@ export class IdColumnBuilder {
   /** Adds the id `text[s, e)` ("" when s === e). */
   add(text: string, s: number, e: number): void {
     const len = e - s;
-    if (this.used + len > this.codes.length) this.growCodes(this.used + len);
+    if (this.used + len > this.codes.length) this.grow(this.used + len, false);
     if (this.n + 2 > this.offsets.length) {
       const o = new Int32Array(this.offsets.length * 2);
       o.set(this.offsets);
       this.offsets = o;
     }
-    const c = this.codes;
+    let c = this.codes;
     let u = this.used;
-    for (let k = s; k < e; k++) c[u++] = text.charCodeAt(k);
+    for (let k = s; k < e; k++) {
+      const code = text.charCodeAt(k);
+      if (code > 255 && c instanceof Uint8Array) {
+        this.used = u;
+        this.grow(this.used + (e - k), true);
+        c = this.codes;
+      }
+      c[u++] = code;
+    }
     this.used = u;
     this.offsets[++this.n] = u;
   }
 
-  /** Adds id i of `from`. */
-  addFrom(from: IdColumn, i: number): void {
-    const a = from.offsets[i], b = from.offsets[i + 1];
-    if (this.used + b - a > this.codes.length) this.growCodes(this.used + b - a);
-    if (this.n + 2 > this.offsets.length) {
-      const o = new Int32Array(this.offsets.length * 2);
-      o.set(this.offsets);
-      this.offsets = o;
-    }
-    this.codes.set(from.codes.subarray(a, b), this.used);
-    this.used += b - a;
-    this.offsets[++this.n] = this.used;
-  }
-
-  private growCodes(need: number): void {
-    let cap = this.codes.length * 2;
+  /** Room for `need` code units; `wide` switches to UTF-16 code units. */
+  private grow(need: number, wide: boolean): void {
+    let cap = this.codes.length;
     while (cap < need) cap *= 2;
-    const c = new Uint16Array(cap);
+    const c = wide || this.codes instanceof Uint16Array ? new Uint16Array(cap) : new Uint8Array(cap);
     c.set(this.codes.subarray(0, this.used));
     this.codes = c;
   }
@@ -157,9 +149,9 @@ export class IdColumnBuilder {
     return this.n;
   }
 
-  /** The column, in arrays of exact length that own their buffers. */
+  /** The column, as views of the builder's arrays (their spare room is recorded in geo/spare.ts). */
   finish(): IdColumn {
-    return new IdColumn(this.codes.slice(0, this.used), this.offsets.slice(0, this.n + 1));
+    return new IdColumn(viewWithRoom(this.codes, this.used), viewWithRoom(this.offsets, this.n + 1));
   }
 }
 

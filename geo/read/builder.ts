@@ -1,4 +1,5 @@
 import { IdColumnBuilder } from "../ids";
+import { viewWithRoom } from "../spare";
 import type { AttributeName, CodedColumn, FileRole, PointTable } from "../types";
 
 /**
@@ -118,9 +119,9 @@ export class ColumnStore {
 
   finish(source: string, role: FileRole): PointTable {
     const n = this.n;
-    // Exact-length copies that own their buffers (callers may pass `.buffer` on or transfer it).
-    const cutF = (a: Float64Array) => a.slice(0, n);
-    const cutI = (a: Int32Array) => a.slice(0, n);
+    // Views, not copies: a second part of the file can be appended into the spare room (geo/spare.ts).
+    const cutF = (a: Float64Array) => viewWithRoom(a, n);
+    const cutI = (a: Int32Array) => viewWithRoom(a, n);
     const attrs: PointTable["attrs"] = {};
     this.shape.attrs.forEach((a, k) => {
       const col: CodedColumn = { codes: cutI(this.codes[k]), values: this.dicts[k].values.slice() };

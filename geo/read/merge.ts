@@ -1,3 +1,4 @@
+import { appendTo } from "../spare";
 import type { CodedColumn, PointTable } from "../types";
 import { IssueCollector } from "../validate/issues";
 import type { ReadResult } from "./csv";
@@ -42,8 +43,7 @@ export function appendReadResults(first: ReadResult, second: ReadResult, lineOff
 
 function cat(a: Float64Array | null, b: Float64Array | null): Float64Array | null {
   if (!a || !b) return null;
-  const out = new Float64Array(a.length + b.length);
-  out.set(a);
+  const out = appendTo(a, b.length);
   out.set(b, a.length);
   return out;
 }
@@ -60,16 +60,14 @@ function catCoded(a: CodedColumn, b: CodedColumn): CodedColumn {
     }
     return k;
   });
-  const codes = new Int32Array(a.codes.length + b.codes.length);
-  codes.set(a.codes);
+  const codes = appendTo(a.codes, b.codes.length);
   for (let i = 0; i < b.codes.length; i++) codes[a.codes.length + i] = b.codes[i] < 0 ? -1 : remap[b.codes[i]];
   return { codes, values };
 }
 
 /** Second table appended to the first (same columns), its lines shifted by `lineOffset`. */
 function concatTables(a: PointTable, b: PointTable, lineOffset: number): PointTable {
-  const line = new Int32Array(a.length + b.length);
-  line.set(a.line);
+  const line = appendTo(a.line, b.length);
   for (let i = 0; i < b.length; i++) line[a.length + i] = b.line[i] + lineOffset;
   const attrs: PointTable["attrs"] = {};
   for (const k of Object.keys(a.attrs) as (keyof PointTable["attrs"])[]) {

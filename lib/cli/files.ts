@@ -68,7 +68,7 @@ export async function readBoth(
     try {
       return await readOnTwoThreads(planted, survey, sp, ss, options.splitSlackBytes ?? 1e6);
     } catch {
-      // A worker thread could not run (e.g. no TypeScript loader): read on this thread instead.
+      // A worker thread could not run (e.g. esbuild could not bundle it): read on this thread instead.
     }
   }
   return [await readFileJob(planted), await readFileJob(survey)];
@@ -83,9 +83,9 @@ async function readOnTwoThreads(planted: ReadJob, survey: ReadJob, sp: number, s
   if (csv(big) && bigSize > total / 2 + slack) {
     const first = head(big.path, 0, 1 << 16);
     const nl = first.indexOf(0x0a);
-    // The main thread starts parsing at once while the worker starts up (a few hundred ms), so the
-    // main thread takes a little more than half of the bytes.
-    const target = Math.min(bigSize - (1 << 17), Math.floor(total / 2 + 4e6));
+    // Half of all bytes each: the bundled worker starts in a few tens of milliseconds, and a byte of
+    // the survey file costs the worker about what a byte of the planted file costs this thread.
+    const target = Math.min(bigSize - (1 << 17), Math.floor(total / 2));
     const probe = head(big.path, target, 1 << 16);
     const k = probe.indexOf(0x0a);
     if (nl >= 0 && k >= 0 && target + k + 1 < bigSize) {
