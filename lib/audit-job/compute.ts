@@ -9,8 +9,13 @@ import { evaluateVerdict } from "@/lib/audit/verdict";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import type { ProfileSnapshot } from "@/db/queries/audits";
 
-/** Breakdowns every audit computes. */
+/** Breakdowns an audit computes, each when the files have what it needs. */
 export const GROUP_BY = ["arm", "crop", "bed", "fix", "day"] as const;
+
+/** The breakdowns of GROUP_BY these tables can give: an attribute column in either file; planting times for "day". */
+export function availableGroups(planted: PointTable, survey: PointTable): (typeof GROUP_BY)[number][] {
+  return GROUP_BY.filter((g) => (g === "day" ? planted.time !== null : !!(planted.attrs[g] ?? survey.attrs[g])));
+}
 
 /** Stages reported while computing, in order. */
 export type ComputeStage = "validate" | "project" | "check-files" | "pair" | "row-bearing" | "statistics";
@@ -40,7 +45,7 @@ export function computeFromTables(
       confidence: profile.confidence,
       rowBearingDeg: bearing,
       rowBearingSource: hasBearing ? (prepared.rowBearing.given ? "given" : "derived") : "none",
-      groupBy: [...GROUP_BY],
+      groupBy: availableGroups(planted, survey),
       timeZone: settings.timeZone,
     },
   });
