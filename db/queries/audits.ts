@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from "drizzle-orm";
 import type { DB } from "@/db/client";
+import { copyRows } from "@/db/copy";
 import { audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
 import type {
   AuditDto, AuditListItemDto, AuditSettingsDto, AuditState, AuditSummary, ChartDataDto, Page, ResidualRowDto,
@@ -81,6 +82,7 @@ export type ResidualInsert = typeof auditResidual.$inferInsert;
 export type UnpairedInsert = typeof auditUnpaired.$inferInsert;
 export type RowBatch = { kind: "residual"; rows: ResidualInsert[] } | { kind: "unpaired"; rows: UnpairedInsert[] };
 
+/** Rows per COPY: each one holds PGlite (and so every other request) for its duration. */
 const BATCH = 2000;
 
 /**
@@ -102,10 +104,13 @@ export async function storeAuditResult(db: DB, r: {
     for await (const batch of r.rows) {
       for (let i = 0; i < batch.rows.length; i += BATCH) {
         const part = batch.rows.slice(i, i + BATCH);
-        if (batch.kind === "residual") await db.insert(auditResidual).values(part as ResidualInsert[]);
-        else await db.insert(auditUnpaired).values(part as UnpairedInsert[]);
+        if (batch.kind === "residual") await copyRows(db, auditResidual, part as ResidualInsert[]);
+        else await copyRows(db, auditUnpaired, part as UnpairedInsert[]);
         done += part.length;
         await r.onBatch?.(done / Math.max(1, r.total));
+        // PGlite answers without leaving the microtask queue; without a real turn of the event loop
+        // no other request would be read until the last batch is in.
+        await new Promise((resolve) => setImmediate(resolve));
       }
     }
     await db.transaction(async (tx) => {

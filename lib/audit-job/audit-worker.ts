@@ -1,6 +1,7 @@
 /**
  * Worker-thread entry: computes one audit (see compute.ts) and posts the outcome, then the rows to
- * store in batches, so the server's own thread stays free for other requests meanwhile.
+ * store, one batch each time the server asks ("more"), so the server's own thread stays free for
+ * other requests meanwhile.
  */
 import { parentPort } from "node:worker_threads";
 import { IdColumn } from "@/geo/ids";
@@ -34,9 +35,18 @@ port.once("message", (job: AuditJobInput) => {
       },
       reports.map((r) => r.bytes.buffer as ArrayBuffer),
     );
-    for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE) post({ type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) });
-    for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE) post({ type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) });
-    post({ type: "done" });
+    // One batch per request: the server asks for the next when it has stored the last, so a million
+    // rows never wait as messages on its thread (nor are turned back into objects there all at once).
+    function* batches(): Generator<AuditJobMessage> {
+      for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE) yield { type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) };
+      for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE) yield { type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) };
+    }
+    const next = batches();
+    port.on("message", (m: { type: "more" }) => {
+      if (m.type !== "more") return;
+      const b = next.next();
+      post(b.done ? { type: "done" } : b.value);
+    });
   } catch (err) {
     post({ type: "error", message: err instanceof Error ? err.message : String(err) });
   }

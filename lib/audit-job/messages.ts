@@ -17,12 +17,16 @@ export interface AuditJobInput {
   profile: ProfileSnapshot;
 }
 
+/** The server asks for the next batch of rows. */
+export type AuditJobRequest = { type: "more" };
+
 /** Rows sent per message, so neither thread handles a million objects in one go. */
 export const ROWS_PER_MESSAGE = 2000;
 
 /**
  * What the worker sends back, in this order: `stage`s while computing; then `refused` (the inputs
- * cannot be audited) or `computed` followed by all `residuals` batches, all `unpaired` batches and `done`.
+ * cannot be audited) or `computed`; then, one per `AuditJobRequest`, the `residuals` batches, the
+ * `unpaired` batches and `done`.
  * `error` (an exception) may come at any point and ends the job.
  */
 export type AuditJobMessage =

@@ -7,11 +7,13 @@ import { on } from "node:events";
 import { Worker } from "node:worker_threads";
 import { tableBuffers } from "@/geo";
 import { workerBundle } from "@/lib/workers/bundle";
-import type { AuditJobInput, AuditJobMessage } from "./messages";
+import type { AuditJobInput, AuditJobMessage, AuditJobRequest } from "./messages";
 
 export interface AuditWorkerJob {
   /** The worker's messages; ends when the worker exits, throws if it crashes. */
   messages: AsyncIterableIterator<AuditJobMessage>;
+  /** Asks for the next batch of rows (answered by a `residuals`, `unpaired` or `done` message). */
+  more(): void;
   /** Stops the worker (idempotent). */
   stop(): Promise<void>;
 }
@@ -28,6 +30,7 @@ export async function startAuditWorker(input: AuditJobInput): Promise<AuditWorke
   let stopped = false;
   return {
     messages: messages(),
+    more: () => worker.postMessage({ type: "more" } satisfies AuditJobRequest),
     async stop() {
       if (stopped) return;
       stopped = true;

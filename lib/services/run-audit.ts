@@ -105,8 +105,10 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
     if (m.type !== "computed") throw new Error(`the audit worker sent "${m.type}" before its result`);
     const computed = m;
     await setAuditProgress(db, { id, progress: 0.5, stage: "saving" });
+    const worker = job;
     async function* rows(): AsyncGenerator<RowBatch> {
       for (;;) {
+        worker.more();
         const b = await next();
         if (b.type === "done") return;
         if (b.type === "residuals") yield { kind: "residual", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
