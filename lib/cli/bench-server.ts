@@ -64,13 +64,23 @@ async function main(): Promise<void> {
     "create audit",
   );
   const waits: number[] = [];
+  let resets = 0;
   let state = "computing", stage = "";
   const stages = new Set<string>();
   while (state === "computing") {
     const t = performance.now();
-    await json(grower.get("/api/fields"), "grower's request");
+    for (let attempt = 1; ; attempt++) {
+      try {
+        await json(grower.get("/api/fields", { timeout: 300_000 }), "grower's request");
+        break;
+      } catch (err) {
+        // A keep-alive connection the server closed while busy: the time until the retry answers counts.
+        if (attempt === 3 || !/ECONNRESET|socket hang up/.test(String(err))) throw err;
+        resets++;
+      }
+    }
     waits.push(performance.now() - t);
-    const a = await json<{ audit: { state: string; progressStage: string } }>(tech.get(`/api/audits/${audit.id}`), "poll");
+    const a = await json<{ audit: { state: string; progressStage: string } }>(tech.get(`/api/audits/${audit.id}`, { timeout: 300_000 }), "poll");
     state = a.audit.state;
     stage = a.audit.progressStage;
     stages.add(stage);
@@ -79,7 +89,7 @@ async function main(): Promise<void> {
   const total = performance.now() - t0;
   waits.sort((a, b) => a - b);
   console.log(JSON.stringify({
-    plants: n, state, stagesSeen: [...stages], auditMs: Math.round(total), growerRequests: waits.length,
+    plants: n, state, stagesSeen: [...stages], auditMs: Math.round(total), growerRequests: waits.length, connectionResets: resets,
     growerMs: { median: Math.round(pct(waits, 0.5)), p95: Math.round(pct(waits, 0.95)), max: Math.round(waits[waits.length - 1]) },
   }));
   if (state !== "computed") process.exitCode = 1;

@@ -160,4 +160,32 @@ describe("uploads and audits through the API", () => {
     const res = await auditsRoute.POST(req("/api/audits", { method: "POST", cookie: cookies.grower, body: JSON.stringify({}) }), ctx({}));
     expect(res.status).toBe(403);
   });
+  it("audit storage -- other work gets a turn of the event loop between batches of rows", async () => {
+    const { getDb } = await import("@/db/client");
+    const { createAudit, storeAuditResult, getAuditById } = await import("@/db/queries/audits");
+    const { audit: auditTable } = await import("@/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const db = await getDb();
+    const [src] = await db.select().from(auditTable).where(eq(auditTable.id, audit.id));
+    const id = await createAudit(db, {
+      orgId: src.orgId, userId: src.createdBy!, fieldId, plantedDatasetId: planted.id, surveyDatasetId: survey.id,
+      profileId: src.profileId!, profileSnapshot: audit.profile!, settings: audit.settings!, title: "Batches",
+    });
+    const row = (seq: number) => ({
+      auditId: id, seq, plantId: `B-${seq}`, surveyId: null, crop: null, bed: null, row: null, arm: null, fix: null, day: null,
+      plantedE: 1, plantedN: 2, surveyE: 1, surveyN: 2, dE: 0, dN: 0, along: null, cross: null, radial: 0, within: true, outlier: false,
+      pairedBy: "position", beyondMaxDistance: false,
+    });
+    const batches = [0, 1, 2].map((b) => ({ kind: "residual" as const, rows: Array.from({ length: 2000 }, (_, k) => row(b * 2000 + k)) }));
+    let storedWhenOthersRan = -1, stored = 0;
+    // A request arriving now is served at the next turn of the event loop: before the last batch, not after it.
+    setImmediate(() => { storedWhenOthersRan = stored; });
+    await storeAuditResult(db, {
+      id, orgId: src.orgId, summary: audit.summary!, verdict: audit.verdict!, settings: audit.settings!,
+      rows: batches, total: 6000, reports: [], onBatch: (f) => { stored = Math.round(f * 6000); },
+    });
+    expect(storedWhenOthersRan).toBeGreaterThanOrEqual(0);
+    expect(storedWhenOthersRan).toBeLessThan(6000);
+    expect((await getAuditById(db, { id, orgId: src.orgId }))!.state).toBe("computed");
+  });
 });

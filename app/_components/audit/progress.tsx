@@ -1,8 +1,11 @@
 import type { AuditDto } from "@/lib/api-types";
 
 const STAGE: Record<string, string> = {
+  queued: "Waiting to start",
   loading: "Loading the stored points",
+  computing: "Starting the computation",
   pairing: "Projecting and pairing checkpoints with records",
+  statistics: "Computing the accuracy figures",
   saving: "Saving the per-plant errors",
   done: "Finishing",
 };
