@@ -25,4 +25,37 @@ describe("points blob", () => {
     shifted.set(bytes, 3);
     expect(decodePoints(shifted.subarray(3))).toEqual(table);
   });
+
+  it("points blob -- blobs of the first format (ids as JSON in the header) are still read", () => {
+    // A PPT1 blob built by hand: header with ids, then x, y, line as f64, f64, i32.
+    const header = JSON.stringify({
+      source: "old.csv", role: "planted", length: 2, id: ["A-1", ""], attrValues: {},
+      arrays: [{ name: "x", type: "f64", offset: 0 }, { name: "y", type: "f64", offset: 16 }, { name: "line", type: "i32", offset: 32 }],
+    });
+    const hb = new TextEncoder().encode(header);
+    const start = (8 + hb.length + 7) & ~7;
+    const out = new Uint8Array(start + 40);
+    out.set(new TextEncoder().encode("PPT1"));
+    new DataView(out.buffer).setUint32(4, hb.length, true);
+    out.set(hb, 8);
+    out.set(new Uint8Array(new Float64Array([1, 2]).buffer), start);
+    out.set(new Uint8Array(new Float64Array([3, 4]).buffer), start + 16);
+    out.set(new Uint8Array(new Int32Array([2, 3]).buffer), start + 32);
+    const t = decodePoints(out);
+    expect(t.id!.toArray()).toEqual(["A-1", ""]);
+    expect(Array.from(t.x)).toEqual([1, 2]);
+    expect(Array.from(t.line)).toEqual([2, 3]);
+  });
+
+  it("points blob -- ids beyond Latin-1 and reader views with spare room survive", () => {
+    const ids = IdColumn.from(["植-1", "P2"]);
+    const x = new Float64Array(8).subarray(0, 2);
+    const table: PointTable = {
+      source: "s.csv", role: "planted", length: 2, x, y: new Float64Array([2, 3]), line: new Int32Array([2, 3]),
+      id: ids, attrs: {}, time: null, hdop: null, precision: null, rawX: null, rawY: null,
+    };
+    const back = decodePoints(encodePoints(table));
+    expect(back.id!.toArray()).toEqual(["植-1", "P2"]);
+    expect(back.x.length).toBe(2);
+  });
 });
