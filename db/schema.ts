@@ -298,8 +298,10 @@ export const auditReport = pgTable("audit_report", {
   auditId: uuid("audit_id").notNull().references(() => audit.id, { onDelete: "restrict" }),
   /** "residuals", "unpaired" or "summary". */
   kind: text("kind").notNull(),
+  /** A large report is stored in parts of at most REPORT_PART_BYTES, in order; read them back joined. */
+  part: integer("part").notNull().default(0),
   bytes: bytea("bytes").notNull(),
-}, (t) => [primaryKey({ columns: [t.auditId, t.kind] })]);
+}, (t) => [primaryKey({ columns: [t.auditId, t.kind, t.part] })]);
 
 
 // ---------------------------------------------------------------------------

@@ -82,6 +82,9 @@ export type ResidualInsert = typeof auditResidual.$inferInsert;
 export type UnpairedInsert = typeof auditUnpaired.$inferInsert;
 export type RowBatch = { kind: "residual"; rows: ResidualInsert[] } | { kind: "unpaired"; rows: UnpairedInsert[] };
 
+/** Bytes per stored part of a CSV report. */
+export const REPORT_PART_BYTES = 8 << 20;
+
 /** Rows per COPY: each one holds PGlite (and so every other request) for its duration. */
 const BATCH = 2000;
 
@@ -113,8 +116,14 @@ export async function storeAuditResult(db: DB, r: {
         await new Promise((resolve) => setImmediate(resolve));
       }
     }
+    for (const report of r.reports) {
+      // In parts, a turn of the event loop after each: one 150 MB value would hold PGlite for seconds.
+      for (let part = 0, at = 0; part === 0 || at < report.bytes.length; part++, at += REPORT_PART_BYTES) {
+        await db.insert(auditReport).values({ auditId: r.id, kind: report.kind, part, bytes: report.bytes.subarray(at, at + REPORT_PART_BYTES) });
+        await new Promise((resolve) => setImmediate(resolve));
+      }
+    }
     await db.transaction(async (tx) => {
-      for (const report of r.reports) await tx.insert(auditReport).values({ auditId: r.id, kind: report.kind, bytes: report.bytes });
       await tx.update(audit).set({
         state: "computed", summary: r.summary, verdict: r.verdict, settings: r.settings, progress: 1, progressStage: "done",
         error: null, computedAt: new Date(), updatedAt: new Date(),
@@ -223,6 +232,19 @@ export async function chartData(db: DB, { auditId }: { auditId: string }): Promi
 }
 
 export async function getAuditReport(db: DB, { auditId, kind }: { auditId: string; kind: "residuals" | "unpaired" | "summary" }): Promise<Uint8Array | null> {
-  const [row] = await db.select({ bytes: auditReport.bytes }).from(auditReport).where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind)));
-  return row?.bytes ?? null;
+  const parts = await db.select({ bytes: auditReport.bytes }).from(auditReport)
+    .where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind))).orderBy(asc(auditReport.part));
+  return parts.length ? joinParts(parts.map((p) => p.bytes)) : null;
+}
+
+/** The parts of a stored report joined in order. */
+export function joinParts(parts: readonly Uint8Array[]): Uint8Array {
+  if (parts.length === 1) return parts[0];
+  const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
+  let at = 0;
+  for (const p of parts) {
+    out.set(p, at);
+    at += p.length;
+  }
+  return out;
 }

@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, or, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
+import { joinParts } from "./audits";
 import { audit, auditReport, auditResidual, auditReviewEvent, auditSignoff, auditUnpaired, dataset, datasetFile, field, user } from "@/db/schema";
 import type { AuditSettingsDto, AuditSummary, Verdict } from "@/lib/api-types";
 import type { LifecycleState } from "@/lib/review/lifecycle";
@@ -207,9 +208,13 @@ export async function loadRecordMaterial(db: DB, { auditId, orgId, plantedDatase
     seq: auditUnpaired.seq, kind: auditUnpaired.kind, pointId: auditUnpaired.pointId, line: auditUnpaired.line, e: auditUnpaired.e, n: auditUnpaired.n,
     crop: auditUnpaired.crop, bed: auditUnpaired.bed, row: auditUnpaired.row,
   }).from(auditUnpaired).where(eq(auditUnpaired.auditId, auditId)).orderBy(asc(auditUnpaired.seq));
-  const reportRows = await db.select({ kind: auditReport.kind, bytes: auditReport.bytes }).from(auditReport).where(eq(auditReport.auditId, auditId));
+  const reportRows = await db.select({ kind: auditReport.kind, bytes: auditReport.bytes }).from(auditReport)
+    .where(eq(auditReport.auditId, auditId)).orderBy(asc(auditReport.kind), asc(auditReport.part));
   const reports: Partial<Record<"residuals" | "unpaired" | "summary", Uint8Array>> = {};
-  for (const r of reportRows) if (r.kind === "residuals" || r.kind === "unpaired" || r.kind === "summary") reports[r.kind] = r.bytes;
+  for (const kind of ["residuals", "unpaired", "summary"] as const) {
+    const parts = reportRows.filter((r) => r.kind === kind).map((r) => r.bytes);
+    if (parts.length) reports[kind] = joinParts(parts);
+  }
   return { datasets: new Map(ds.map((d) => [d.datasetId, d])), residuals, unpaired, reports };
 }
 

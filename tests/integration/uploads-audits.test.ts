@@ -160,9 +160,9 @@ describe("uploads and audits through the API", () => {
     const res = await auditsRoute.POST(req("/api/audits", { method: "POST", cookie: cookies.grower, body: JSON.stringify({}) }), ctx({}));
     expect(res.status).toBe(403);
   });
-  it("audit storage -- other work gets a turn of the event loop between batches of rows", async () => {
+  it("audit storage -- other work gets a turn of the event loop between batches of rows; a large report is stored in parts", async () => {
     const { getDb } = await import("@/db/client");
-    const { createAudit, storeAuditResult, getAuditById } = await import("@/db/queries/audits");
+    const { createAudit, storeAuditResult, getAuditById, getAuditReport, REPORT_PART_BYTES } = await import("@/db/queries/audits");
     const { audit: auditTable } = await import("@/db/schema");
     const { eq } = await import("drizzle-orm");
     const db = await getDb();
@@ -177,13 +177,18 @@ describe("uploads and audits through the API", () => {
       pairedBy: "position", beyondMaxDistance: false,
     });
     const batches = [0, 1, 2].map((b) => ({ kind: "residual" as const, rows: Array.from({ length: 2000 }, (_, k) => row(b * 2000 + k)) }));
+    const report = new Uint8Array(REPORT_PART_BYTES + 1234).map((_, i) => (i * 7919) % 251);
     let storedWhenOthersRan = -1, stored = 0;
     // A request arriving now is served at the next turn of the event loop: before the last batch, not after it.
     setImmediate(() => { storedWhenOthersRan = stored; });
     await storeAuditResult(db, {
       id, orgId: src.orgId, summary: audit.summary!, verdict: audit.verdict!, settings: audit.settings!,
-      rows: batches, total: 6000, reports: [], onBatch: (f) => { stored = Math.round(f * 6000); },
+      rows: batches, total: 6000, reports: [{ kind: "residuals", bytes: report }], onBatch: (f) => { stored = Math.round(f * 6000); },
     });
+    // A report larger than one stored part comes back byte for byte.
+    const back = await getAuditReport(db, { auditId: id, kind: "residuals" });
+    expect(back!.length).toBe(report.length);
+    expect(Buffer.compare(Buffer.from(back!), Buffer.from(report))).toBe(0);
     expect(storedWhenOthersRan).toBeGreaterThanOrEqual(0);
     expect(storedWhenOthersRan).toBeLessThan(6000);
     expect((await getAuditById(db, { id, orgId: src.orgId }))!.state).toBe("computed");
