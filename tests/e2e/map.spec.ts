@@ -2,6 +2,7 @@ import { test, expect } from "@playwright/test";
 import { SignInPage, otherOwner } from "./pages/session";
 import { AuditApi } from "./pages/audit";
 import { createDemoAudit, differingPixels, HIGHLIGHT, MapPage, VIRIDIS_LOW } from "./pages/map";
+import { bigAsPlanted } from "./pages/big-file";
 import { DEMO_PASSWORD } from "@/lib/demo/farm";
 import { decodeMapPayload } from "@/lib/map/binary";
 import { PAIR_FLAG } from "@/lib/map/types";
@@ -159,3 +160,39 @@ test("map -- refused outside the audit's organisation and without a session", as
   await page.goto(`/fields/${own}/map`);
   await expect(page.getByTestId("field-map-page")).toContainText("No audit of Saltings Trial Plot has results yet");
 });
+
+test("map -- opened while its audit is still computing, it shows the progress and then the map", async ({ page }) => {
+  test.setTimeout(300_000);
+  await new SignInPage(page).signInAs("technician");
+  const api = new AuditApi(page);
+  // A field of its own, so the other tests' "latest audit of Long Acre" stays what they expect.
+  const made = await page.request.post("/api/fields", { data: { name: `Great Drove ${Date.now()}`, farm: "Kestrel Fen", crs: "EPSG:25831", timeZone: "Europe/Amsterdam" } });
+  expect(made.status(), await made.text()).toBe(201);
+  const field = ((await made.json()) as { field: { id: string } }).field.id;
+  // 100,000 plants, every one surveyed (the same positions, paired by plant id): storing the rows takes several seconds.
+  const buffer = bigAsPlanted(100_000);
+  const upload = async (kind: "planted" | "survey") => {
+    const res = await page.request.post(`/api/fields/${field}/datasets`, {
+      multipart: { file: { name: `great-drove-${kind}.csv`, mimeType: "text/csv", buffer }, kind, crs: "EPSG:4326", acceptWarnings: "true" },
+      timeout: 120_000,
+    });
+    expect(res.status(), await res.text()).toBe(201);
+    return ((await res.json()) as { dataset: { id: string } }).dataset.id;
+  };
+  const plantedDatasetId = await upload("planted");
+  const surveyDatasetId = await upload("survey");
+  const profile = (await api.profiles()).find((p) => p.name === "Inter-row hoeing")!;
+  const res = await page.request.post("/api/audits", { data: { fieldId: field, plantedDatasetId, surveyDatasetId, profileId: profile.id, title: "Great Drove while computing" } });
+  expect(res.status()).toBe(202);
+  const { audit } = (await res.json()) as { audit: { id: string } };
+
+  await page.goto(`/audits/${audit.id}/map`);
+  await expect(page.getByTestId("map-waiting")).toBeVisible();
+  await expect(page.getByTestId("audit-progress")).toBeVisible();
+  await expect(page.getByTestId("map-error")).toHaveCount(0);
+  // No reload: the page polls and draws the map once the audit has finished.
+  const map = new MapPage(page);
+  await expect(map.root).toBeVisible({ timeout: 240_000 });
+  await expect(map.root).toHaveAttribute("data-pairs-shown", "100000");
+});
+

@@ -4,6 +4,7 @@ import path from "node:path";
 import { test, expect, type APIRequestContext } from "@playwright/test";
 import { SignInPage } from "./pages/session";
 import { FieldFormPage, UploadPage } from "./pages/upload";
+import { bigAsPlanted } from "./pages/big-file";
 
 const DEMO_DIR = path.join(process.cwd(), "public/demo");
 const AS_PLANTED = path.join(DEMO_DIR, "long-acre-as-planted.csv");
@@ -25,20 +26,6 @@ async function fileCount(request: APIRequestContext, fieldId: string): Promise<n
   const res = await request.get(`/api/fields/${fieldId}`);
   expect(res.status()).toBe(200);
   return ((await res.json()).datasets as unknown[]).length;
-}
-
-/** A synthetic as-planted file of `rows` plants on straight rows at Kestrel Fen (WGS 84), without problems. */
-function bigAsPlanted(rows: number): Buffer {
-  const lines = ["plant_id,crop,bed,row,arm,fix,hdop,planted_at,lat,lon"];
-  const t0 = Date.parse("2026-04-14T21:40:00Z");
-  const mPerDegLat = 111_320, mPerDegLon = 111_320 * Math.cos((52.5178 * Math.PI) / 180);
-  for (let i = 0; i < rows; i++) {
-    const bed = Math.floor(i / 5000) + 1, row = (Math.floor(i / 1000) % 5) + 1, k = i % 1000;
-    const lat = 52.5178 + (k * 0.3) / mPerDegLat;
-    const lon = 5.3936 + ((bed - 1) * 3 + (row - 1) * 0.5) / mPerDegLon;
-    lines.push(`KF-${String(i + 1).padStart(6, "0")},lettuce,${bed},${row},${(row % 3) + 1},rtk-fixed,0.7,${new Date(t0 + i * 1300).toISOString()},${lat.toFixed(9)},${lon.toFixed(9)}`);
-  }
-  return Buffer.from(lines.join("\n") + "\n");
 }
 
 /** A small square around the Long Acre plot, WGS 84 (longitude, latitude). */

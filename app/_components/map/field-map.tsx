@@ -1,7 +1,10 @@
 "use client";
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
-import { ApiError, toApiError } from "@/lib/fetcher";
+import { ApiError, fetcher, toApiError } from "@/lib/fetcher";
+import { keys } from "@/lib/swr-keys";
+import type { AuditDto } from "@/lib/api-types";
+import { AuditProgress } from "@/app/_components/audit/progress";
 import { decodeMapPayload } from "@/lib/map/binary";
 import { mapKeys } from "@/lib/map/keys";
 import { aggregateCells, type Cell } from "@/lib/map/cells";
@@ -34,6 +37,7 @@ async function fetchMapData(url: string): Promise<MapData> {
 }
 
 const GREY: [number, number, number, number] = [205, 201, 190, 255];
+const COMPUTING_POLL_MS = 1500;
 
 function limitOf(data: MapData, metric: ErrorMetric): number | null {
   const p = data.meta.profile;
@@ -43,9 +47,22 @@ function limitOf(data: MapData, metric: ErrorMetric): number | null {
 
 /** The map of one audit: controls, deck.gl canvas, legend, tooltip, details panel and per-bed summary. */
 export function FieldMap({ auditId, mode }: { auditId: string; mode: MapMode }) {
-  const { data, error } = useSWR<MapData>(mapKeys.auditMapData(auditId), fetchMapData, {
+  // An audit still computing has nothing to map yet: show its progress and load the map when it is done.
+  const { data: status } = useSWR<{ audit: AuditDto }>(keys.audit(auditId), fetcher, {
+    refreshInterval: (latest) => (latest?.audit.state === "computing" ? COMPUTING_POLL_MS : 0),
+  });
+  const computing = status?.audit.state === "computing";
+  const { data, error } = useSWR<MapData>(status && !computing ? mapKeys.auditMapData(auditId) : null, fetchMapData, {
     revalidateOnFocus: false, revalidateIfStale: false, revalidateOnReconnect: false,
   });
+  if (computing) {
+    return (
+      <div className="space-y-2" data-testid="map-waiting">
+        <AuditProgress audit={status.audit} />
+        <p className="text-sm text-ink-soft">The map appears here when the audit has finished.</p>
+      </div>
+    );
+  }
   if (error) {
     const e = error as ApiError;
     return (
