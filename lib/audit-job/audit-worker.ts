@@ -5,6 +5,7 @@
  */
 import { parentPort } from "node:worker_threads";
 import { IdColumn } from "@/geo/ids";
+import { residualDigest, unpairedDigest } from "@/lib/review/record";
 import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
 import { auditReports, computeFromTables } from "./compute";
 import { ROWS_PER_MESSAGE, type AuditJobInput, type AuditJobMessage } from "./messages";
@@ -28,16 +29,18 @@ port.once("message", (job: AuditJobInput) => {
     const reports = auditReports(outcome);
     const residuals = residualRecordRows(outcome.result, outcome.plantedP, outcome.surveyP, outcome.settings.timeZone);
     const unpaired = unpairedRecordRows(outcome.pairing, outcome.plantedP, outcome.surveyP);
+    const digests = job.digestsOnly ? { residuals: residualDigest(residuals), unpaired: unpairedDigest(unpaired) } : undefined;
     post(
       {
         type: "computed", summary: outcome.result.summary, verdict: outcome.verdict, settings: outcome.settings, reports,
-        residualCount: residuals.length, unpairedCount: unpaired.length,
+        residualCount: residuals.length, unpairedCount: unpaired.length, digests,
       },
       reports.map((r) => r.bytes.buffer as ArrayBuffer),
     );
     // One batch per request: the server asks for the next when it has stored the last, so a million
     // rows never wait as messages on its thread (nor are turned back into objects there all at once).
     function* batches(): Generator<AuditJobMessage> {
+      if (job.digestsOnly) return;
       for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE) yield { type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) };
       for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE) yield { type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) };
     }

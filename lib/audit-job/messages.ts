@@ -4,7 +4,7 @@ import type { AuditSummary } from "@/lib/audit";
 import type { Verdict } from "@/lib/audit/verdict";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import type { ProfileSnapshot } from "@/db/queries/audits";
-import type { ResidualRecordRow, UnpairedRecordRow } from "@/lib/review/record";
+import type { ResidualRecordRow, RowsDigest, UnpairedRecordRow } from "@/lib/review/record";
 import type { ComputeStage } from "./compute";
 
 /** What the worker is given. The tables' arrays are moved to the worker, not copied. */
@@ -15,6 +15,8 @@ export interface AuditJobInput {
   surveyCrs: string;
   settings: AuditSettingsDto;
   profile: ProfileSnapshot;
+  /** Re-computation for verification: send the digests of the rows instead of the rows. */
+  digestsOnly?: boolean;
 }
 
 /** The server asks for the next batch of rows. */
@@ -40,6 +42,8 @@ export type AuditJobMessage =
       reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
       residualCount: number;
       unpairedCount: number;
+      /** With `digestsOnly`. */
+      digests?: { residuals: RowsDigest; unpaired: RowsDigest };
     }
   | { type: "residuals"; rows: ResidualRecordRow[] }
   | { type: "unpaired"; rows: UnpairedRecordRow[] }

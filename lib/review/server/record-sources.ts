@@ -3,12 +3,11 @@ import { formatFromName, readPoints, type ColumnMapping, type PointFileFormat, t
 import type { DB } from "@/db/client";
 import { loadDatasetPoints } from "@/db/queries/datasets";
 import { getRawFile, loadRecordMaterial, type AuditReviewRow } from "@/db/queries/review";
-import { auditReports, computeFromTables } from "@/lib/audit-job/compute";
+import { startAuditWorker } from "@/lib/audit-job/run-in-worker";
 import { AppError } from "@/lib/errors";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import { sha256Hex } from "../hash";
 import { buildRecord, reportHashes, residualDigest, unpairedDigest, type RecordDataset, type RecordSigner, type SignedRecord } from "../record";
-import { residualRecordRows, unpairedRecordRows } from "../result-rows";
 
 export type RecordBody = Omit<SignedRecord, "schema" | "signoff">;
 
@@ -80,25 +79,34 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
 
   // A bearing the engine derived itself is derived again, not passed in as if it had been given.
   const settings: AuditSettingsDto = { ...a.settings, rowBearingDeg: a.summary.rowBearingSource === "derived" ? null : a.settings.rowBearingDeg };
-  const outcome = computeFromTables(tables.planted.table, tables.planted.meta.crs, tables.survey.table, tables.survey.meta.crs, settings, a.profile);
-  if (!outcome.ok) {
-    return { body: null, files, problem: `Re-computing failed: ${outcome.issues.filter((i) => i.severity === "error").map((i) => i.message).slice(0, 3).join("; ")}` };
+  // The engine runs on the audit worker thread (lib/audit-job), which sends digests rather than rows.
+  const job = await startAuditWorker({
+    planted: tables.planted.table, plantedCrs: tables.planted.meta.crs, survey: tables.survey.table, surveyCrs: tables.survey.meta.crs,
+    settings, profile: a.profile, digestsOnly: true,
+  });
+  try {
+    for await (const m of job.messages) {
+      if (m.type === "stage") continue;
+      if (m.type === "refused") return { body: null, files, problem: `Re-computing failed: ${m.errors.map((e) => e.message).slice(0, 3).join("; ")}` };
+      if (m.type === "error") return { body: null, files, problem: `Re-computing failed: ${m.message}` };
+      if (m.type !== "computed" || !m.digests) break;
+      return {
+        files,
+        problem: null,
+        body: {
+          audit: auditPart(a),
+          inputs: { planted: tables.planted.meta, survey: tables.survey.meta, settings: m.settings, profile: a.profile },
+          results: {
+            summary: m.summary, verdict: m.verdict, residuals: m.digests.residuals, unpaired: m.digests.unpaired,
+            reports: reportHashes(Object.fromEntries(m.reports.map((r) => [r.kind, r.bytes])) as Record<"residuals" | "unpaired" | "summary", Uint8Array>),
+          },
+        },
+      };
+    }
+    return { body: null, files, problem: "Re-computing failed: the audit worker stopped without a result." };
+  } finally {
+    await job.stop();
   }
-  const { result, plantedP, surveyP } = outcome;
-  return {
-    files,
-    problem: null,
-    body: {
-      audit: auditPart(a),
-      inputs: { planted: tables.planted.meta, survey: tables.survey.meta, settings: outcome.settings, profile: a.profile },
-      results: {
-        summary: result.summary, verdict: outcome.verdict,
-        residuals: residualDigest(residualRecordRows(result, plantedP, surveyP, outcome.settings.timeZone)),
-        unpaired: unpairedDigest(unpairedRecordRows(outcome.pairing, plantedP, surveyP)),
-        reports: reportHashes(Object.fromEntries(auditReports(outcome).map((r) => [r.kind, r.bytes])) as Record<"residuals" | "unpaired" | "summary", Uint8Array>),
-      },
-    },
-  };
 }
 
 export function withSigner(body: RecordBody, signoff: RecordSigner): SignedRecord {
