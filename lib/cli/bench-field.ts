@@ -10,6 +10,7 @@
 import { createWriteStream, existsSync, mkdirSync } from "node:fs";
 import { once } from "node:events";
 import proj4 from "proj4";
+import { gaussian, mulberry32 } from "@/lib/random";
 
 export const DIR = ".bench";
 const UTM = "+proj=utm +zone=32 +datum=WGS84 +units=m +no_defs";
@@ -17,28 +18,10 @@ const WGS = "+proj=longlat +datum=WGS84 +no_defs";
 const ORIGIN_E = 552_300, ORIGIN_N = 5_794_100; // near 52.3°N 9.77°E (fictional field)
 const BEARING = (28 * Math.PI) / 180;
 
-/** Deterministic normal random numbers (mulberry32 + Box–Muller). */
+/** Deterministic uniform and normal random numbers. */
 function rng(seed: number): { u: () => number; n: () => number } {
-  let a = seed >>> 0;
-  const u = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  let spare = NaN;
-  const n = () => {
-    if (spare === spare) {
-      const s = spare;
-      spare = NaN;
-      return s;
-    }
-    const r = Math.sqrt(-2 * Math.log(u() + 1e-300)), th = 2 * Math.PI * u();
-    spare = r * Math.sin(th);
-    return r * Math.cos(th);
-  };
-  return { u, n };
+  const u = mulberry32(seed);
+  return { u, n: gaussian(u) };
 }
 
 async function writeLines(path: string, gen: () => Generator<string>): Promise<void> {

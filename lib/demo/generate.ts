@@ -15,23 +15,12 @@
  *    cannot be surveyed; 6 weeds are surveyed by mistake (no plant id); 5 % of surveyed
  *    plants carry no id (their tag was lost) and must be paired by position.
  */
+import { mulberry32 } from "@/lib/random";
 import proj4 from "proj4";
 import { DEMO_CRS, type DemoFieldSpec } from "./farm";
 
 const UTM31_ETRS89 = "+proj=utm +zone=31 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs";
 const toLonLat = proj4(UTM31_ETRS89, "WGS84");
-
-/** mulberry32: small seeded PRNG so the demo files are the same on every machine. */
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function gaussian(rand: () => number) {
   return () => {
@@ -50,7 +39,7 @@ export interface DemoFiles {
 }
 
 export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
-  const rand = prng(spec.seed);
+  const rand = mulberry32(spec.seed); // the same files on every machine
   const g = gaussian(rand);
   const th = (spec.bearingDeg * Math.PI) / 180;
   const along = [Math.sin(th), Math.cos(th)]; // unit vector (E, N) along the row

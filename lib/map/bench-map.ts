@@ -11,22 +11,11 @@
 import fs from "node:fs";
 import path from "node:path";
 import { gzipSync } from "node:zlib";
+import { mulberry32 } from "@/lib/random";
 import { buildMapArrays, type PairColumns, type UnpairedColumns } from "./build";
 import { decodeMapPayload, encodeMapPayload } from "./binary";
 import { convexHull } from "./geometry";
 import { DICT_NAMES, PAIR_FLAG, type DictName, type MapMeta } from "./types";
-
-/** mulberry32 (seeded, so every run draws the same field). */
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export interface SyntheticField {
   plants: number;
@@ -37,7 +26,7 @@ export interface SyntheticField {
 
 /** A field of `plants` plants in `beds` beds of 5 rows; every `surveyEvery`-th plant of a row is a checkpoint. */
 export function syntheticField(plants: number, surveyEvery = 12, seed = 7): SyntheticField {
-  const rand = prng(seed);
+  const rand = mulberry32(seed); // seeded: every run draws the same field
   const g = () => Math.sqrt(-2 * Math.log(Math.max(rand(), 1e-12))) * Math.cos(2 * Math.PI * rand());
   const rowsPerBed = 5, rowSpacing = 0.5, bedSpacing = 3, plantSpacing = 0.3;
   const beds = Math.max(1, Math.round(Math.sqrt(plants / rowsPerBed / 20)));
