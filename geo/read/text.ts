@@ -23,7 +23,7 @@ export const SLICE = 1 << 20;
  * string is sliced). The first string has no byte-order mark.
  * Throws NotTextError for zip/xlsx, gzip or binary (NUL bytes) content in the first chunk.
  *
- * @example for await (const s of textChunks("a,b\n1,2\n")) console.log(s) // "a,b\n1,2\n"
+ * @example const parts: string[] = []; for await (const s of textChunks("a,b\n1,2\n")) parts.push(s); // ["a,b\n1,2\n"]
  */
 export async function* textChunks(input: TextInput, slice: number = SLICE): AsyncGenerator<string> {
   if (typeof input === "string") {

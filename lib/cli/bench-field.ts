@@ -43,7 +43,6 @@ async function writeLines(path: string, gen: () => Generator<string>): Promise<v
 export async function generate(n: number): Promise<void> {
   const rowsPerBed = 5, rowGap = 0.5, bedWidth = 3, spacing = 0.25;
   const perRow = Math.max(10, Math.round(Math.sqrt(n / 8)));
-  const totalRows = Math.ceil(n / perRow);
   const toGeo = proj4(UTM, WGS);
   const sinB = Math.sin(BEARING), cosB = Math.cos(BEARING);
   const r = rng(n);
@@ -82,7 +81,6 @@ export async function generate(n: number): Promise<void> {
       }
     }
   });
-  void totalRows;
 }
 
 /** Paths of the field of `n` plants, generated when missing (or when `regen`). */

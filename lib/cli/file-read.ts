@@ -5,7 +5,7 @@
 import { isAscii } from "node:buffer";
 import { createReadStream } from "node:fs";
 import { StringDecoder } from "node:string_decoder";
-import { readPoints, tableBuffers, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
+import { readPoints, type ColumnMapping, type FileRole, type PointFileFormat, type ReadResult } from "@/geo";
 
 /** One file (or the tail of one) to read. */
 export interface ReadJob {
@@ -77,9 +77,3 @@ export function readFileJob(job: ReadJob): Promise<ReadResult> {
     format: job.format,
   });
 }
-
-/** Buffers of a result's typed arrays, to move them to another thread without copying. */
-export function transferList(r: ReadResult): ArrayBuffer[] {
-  return r.table ? tableBuffers(r.table) : [];
-}
-

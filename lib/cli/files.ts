@@ -4,7 +4,7 @@ import { appendReadResults, formatFromName, IdColumn, type ReadResult } from "@/
 import { readFileJob, type ReadJob } from "./file-read";
 import { workerBundle } from "@/lib/workers/bundle";
 
-export { fileText, readFileJob, transferList, type ReadJob } from "./file-read";
+export { readFileJob, type ReadJob } from "./file-read";
 
 /**
  * Reads files on a worker thread, one after the other; typed arrays are transferred back, not copied.

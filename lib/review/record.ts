@@ -5,48 +5,20 @@
  * The same builder is fed twice when verifying: once from what is stored now, once from a fresh
  * computation from the raw files. Both must give the hash stored at sign-off.
  */
+import type { ResidualRowDto, UnpairedRowDto } from "@/lib/api-types";
 import { canonicalJson } from "./canonical";
 import { sha256Hex, sha256Stream } from "./hash";
 
 export const RECORD_SCHEMA = "plotproof.signoff.v1";
 
-/** One per-plant residual, columns as stored (metres, work CRS). */
-export interface ResidualRecordRow {
-  seq: number;
-  plantId: string | null;
-  surveyId: string | null;
-  crop: string | null;
-  bed: string | null;
-  row: string | null;
-  arm: string | null;
-  fix: string | null;
-  day: string | null;
-  plantedE: number;
-  plantedN: number;
-  surveyE: number;
-  surveyN: number;
-  dE: number;
-  dN: number;
-  along: number | null;
-  cross: number | null;
-  radial: number;
-  within: boolean | null;
-  outlier: boolean;
-  pairedBy: string;
-  beyondMaxDistance: boolean;
-}
+/**
+ * One per-plant residual, columns as stored (metres, work CRS): the API's row, with the text columns
+ * the database returns as plain strings.
+ */
+export type ResidualRecordRow = Omit<ResidualRowDto, "pairedBy"> & { pairedBy: string };
 
-export interface UnpairedRecordRow {
-  seq: number;
-  kind: string;
-  pointId: string | null;
-  line: number;
-  e: number;
-  n: number;
-  crop: string | null;
-  bed: string | null;
-  row: string | null;
-}
+/** One unpaired point, as stored. */
+export type UnpairedRecordRow = Omit<UnpairedRowDto, "kind"> & { kind: string };
 
 const RESIDUAL_COLUMNS = [
   "seq", "plantId", "surveyId", "crop", "bed", "row", "arm", "fix", "day", "plantedE", "plantedN", "surveyE", "surveyN",

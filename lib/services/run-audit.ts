@@ -81,11 +81,12 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
     ]);
     if (!planted || !survey) throw new Error("a dataset of this audit has no stored points");
     await setAuditProgress(db, { id, progress: 0.1, stage: "computing" });
-    job = await startAuditWorker({
+    const worker = await startAuditWorker({
       planted: planted.table, plantedCrs: planted.dto.crs, survey: survey.table, surveyCrs: survey.dto.crs,
       settings: auditRow.settings, profile: auditRow.profile,
     });
-    const messages = job.messages;
+    job = worker;
+    const messages = worker.messages;
     const next = async (): Promise<AuditJobMessage> => {
       const r = await messages.next();
       if (r.done) throw new Error("the audit worker stopped before it finished");
@@ -105,7 +106,6 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
     if (m.type !== "computed") throw new Error(`the audit worker sent "${m.type}" before its result`);
     const computed = m;
     await setAuditProgress(db, { id, progress: 0.5, stage: "saving" });
-    const worker = job;
     async function* rows(): AsyncGenerator<RowBatch> {
       for (;;) {
         worker.more();
