@@ -5,7 +5,9 @@ export async function register() {
   await getDb();
   // Bundle the audit worker now (about a second when its sources changed) rather than on the first audit.
   const { workerBundle } = await import("./lib/workers/bundle");
-  void workerBundle("lib/audit-job/audit-worker.ts").catch((err) => console.error("[plotproof] could not bundle the audit worker", err));
+  void workerBundle("lib/audit-job/audit-worker.ts").catch((err) =>
+    console.error("[plotproof] could not bundle the audit worker", err),
+  );
   if (process.env.PLOTPROOF_DEMO === "1") {
     const { seedDemo, demoCredentialsText } = await import("./lib/demo/seed");
     const result = await seedDemo();
@@ -15,7 +17,9 @@ export async function register() {
       // Demo e-mail goes to a fake SMTP server in this process; owners read it on /outbox.
       const { ensureDemoMailCapture } = await import("./lib/mail/demo");
       const smtp = await ensureDemoMailCapture();
-      console.log(`[plotproof] demo e-mail is captured by a fake SMTP server on ${smtp.host}:${smtp.port}; owners read it on /outbox.`);
+      console.log(
+        `[plotproof] demo e-mail is captured by a fake SMTP server on ${smtp.host}:${smtp.port}; owners read it on /outbox.`,
+      );
     }
   }
 }

@@ -43,7 +43,9 @@ export function getDb(): Promise<DB> {
   if (!g.__plotproofDb) {
     const dir = process.env.PGLITE_DIR ?? path.join(/* turbopackIgnore: true */ process.cwd(), "data", "pglite");
     g.__plotproofDb = openDb(dir);
-    g.__plotproofDb.catch(() => { g.__plotproofDb = undefined; });
+    g.__plotproofDb.catch(() => {
+      g.__plotproofDb = undefined;
+    });
   }
   return g.__plotproofDb;
 }

@@ -14,7 +14,9 @@ const sample = pgTable("copy_sample", {
 describe("copyRows", () => {
   it("copyRows -- text with quotes, commas and line breaks, empty text vs null, doubles exactly, booleans", async () => {
     const db = await openDb("memory://");
-    await db.$client.exec("create table copy_sample (seq integer not null, note text, value double precision, flag boolean)");
+    await db.$client.exec(
+      "create table copy_sample (seq integer not null, note text, value double precision, flag boolean)",
+    );
     const rows = [
       { seq: 1, note: 'say "hi", then\nleave', value: 0.1 + 0.2, flag: true },
       { seq: 2, note: "", value: -1.2345678901234567e-7, flag: false },

@@ -13,7 +13,14 @@ function cell(v: unknown, col: Column): string {
   if (v === null || v === undefined) return "";
   if (typeof v === "number") return Number.isFinite(v) ? String(v) : v !== v ? "NaN" : v > 0 ? "Infinity" : "-Infinity";
   if (typeof v === "boolean") return v ? "t" : "f";
-  const s = v instanceof Date ? v.toISOString() : typeof v === "string" ? v : col.dataType === "json" ? JSON.stringify(v) : String(v);
+  const s =
+    v instanceof Date
+      ? v.toISOString()
+      : typeof v === "string"
+        ? v
+        : col.dataType === "json"
+          ? JSON.stringify(v)
+          : String(v);
   return `"${s.replace(/"/g, '""')}"`;
 }
 

@@ -6,10 +6,19 @@ import type { PointTable } from "@/geo/types";
 describe("points blob", () => {
   it("points blob -- a table survives encode and decode unchanged", () => {
     const table: PointTable = {
-      source: "long-acre-as-planted.csv", role: "planted", length: 3,
-      x: new Float64Array([5.1, 5.2, 5.3]), y: new Float64Array([52.1, 52.2, 52.3]), line: new Int32Array([2, 3, 4]),
-      id: IdColumn.from(["LA-1", "LA-2", ""]), attrs: { crop: { codes: new Int32Array([0, 0, -1]), values: ["lettuce"] } },
-      time: new Float64Array([1, NaN, 3]), hdop: null, precision: null, rawX: new Float64Array([5.11, 5.21, 5.31]), rawY: new Float64Array([52.11, 52.21, 52.31]),
+      source: "long-acre-as-planted.csv",
+      role: "planted",
+      length: 3,
+      x: new Float64Array([5.1, 5.2, 5.3]),
+      y: new Float64Array([52.1, 52.2, 52.3]),
+      line: new Int32Array([2, 3, 4]),
+      id: IdColumn.from(["LA-1", "LA-2", ""]),
+      attrs: { crop: { codes: new Int32Array([0, 0, -1]), values: ["lettuce"] } },
+      time: new Float64Array([1, NaN, 3]),
+      hdop: null,
+      precision: null,
+      rawX: new Float64Array([5.11, 5.21, 5.31]),
+      rawY: new Float64Array([52.11, 52.21, 52.31]),
     };
     const back = decodePoints(encodePoints(table));
     expect(back).toEqual(table);
@@ -17,8 +26,19 @@ describe("points blob", () => {
 
   it("points blob -- decoding works from an unaligned view, as a database driver may return it", () => {
     const table: PointTable = {
-      source: "s.csv", role: "survey", length: 1, x: new Float64Array([1]), y: new Float64Array([2]), line: new Int32Array([2]),
-      id: null, attrs: {}, time: null, hdop: null, precision: new Float64Array([0.002]), rawX: null, rawY: null,
+      source: "s.csv",
+      role: "survey",
+      length: 1,
+      x: new Float64Array([1]),
+      y: new Float64Array([2]),
+      line: new Int32Array([2]),
+      id: null,
+      attrs: {},
+      time: null,
+      hdop: null,
+      precision: new Float64Array([0.002]),
+      rawX: null,
+      rawY: null,
     };
     const bytes = encodePoints(table);
     const shifted = new Uint8Array(bytes.length + 3);
@@ -29,8 +49,16 @@ describe("points blob", () => {
   it("points blob -- blobs of the first format (ids as JSON in the header) are still read", () => {
     // A PPT1 blob built by hand: header with ids, then x, y, line as f64, f64, i32.
     const header = JSON.stringify({
-      source: "old.csv", role: "planted", length: 2, id: ["A-1", ""], attrValues: {},
-      arrays: [{ name: "x", type: "f64", offset: 0 }, { name: "y", type: "f64", offset: 16 }, { name: "line", type: "i32", offset: 32 }],
+      source: "old.csv",
+      role: "planted",
+      length: 2,
+      id: ["A-1", ""],
+      attrValues: {},
+      arrays: [
+        { name: "x", type: "f64", offset: 0 },
+        { name: "y", type: "f64", offset: 16 },
+        { name: "line", type: "i32", offset: 32 },
+      ],
     });
     const hb = new TextEncoder().encode(header);
     const start = (8 + hb.length + 7) & ~7;
@@ -51,8 +79,19 @@ describe("points blob", () => {
     const ids = IdColumn.from(["植-1", "P2"]);
     const x = new Float64Array(8).subarray(0, 2);
     const table: PointTable = {
-      source: "s.csv", role: "planted", length: 2, x, y: new Float64Array([2, 3]), line: new Int32Array([2, 3]),
-      id: ids, attrs: {}, time: null, hdop: null, precision: null, rawX: null, rawY: null,
+      source: "s.csv",
+      role: "planted",
+      length: 2,
+      x,
+      y: new Float64Array([2, 3]),
+      line: new Int32Array([2, 3]),
+      id: ids,
+      attrs: {},
+      time: null,
+      hdop: null,
+      precision: null,
+      rawX: null,
+      rawY: null,
     };
     const back = decodePoints(encodePoints(table));
     expect(back.id!.toArray()).toEqual(["植-1", "P2"]);

@@ -13,7 +13,18 @@ import { IdColumn } from "@/geo/ids";
 const MAGIC = "PPT2";
 const MAGIC_V1 = "PPT1";
 
-type ArrayName = "x" | "y" | "line" | "time" | "hdop" | "precision" | "rawX" | "rawY" | "id.codes" | "id.offsets" | `attr:${string}`;
+type ArrayName =
+  | "x"
+  | "y"
+  | "line"
+  | "time"
+  | "hdop"
+  | "precision"
+  | "rawX"
+  | "rawY"
+  | "id.codes"
+  | "id.offsets"
+  | `attr:${string}`;
 type ArrayType = "f64" | "i32" | "u16" | "u8";
 type Data = Float64Array | Int32Array | Uint16Array | Uint8Array;
 
@@ -29,12 +40,15 @@ interface Header {
 }
 
 const pad8 = (n: number) => (n + 7) & ~7;
-const typeOf = (d: Data): ArrayType => (d instanceof Float64Array ? "f64" : d instanceof Int32Array ? "i32" : d instanceof Uint16Array ? "u16" : "u8");
+const typeOf = (d: Data): ArrayType =>
+  d instanceof Float64Array ? "f64" : d instanceof Int32Array ? "i32" : d instanceof Uint16Array ? "u16" : "u8";
 const SIZE: Record<ArrayType, number> = { f64: 8, i32: 4, u16: 2, u8: 1 };
 
 export function encodePoints(table: PointTable): Uint8Array {
   const arrays: { name: ArrayName; data: Data }[] = [
-    { name: "x", data: table.x }, { name: "y", data: table.y }, { name: "line", data: table.line },
+    { name: "x", data: table.x },
+    { name: "y", data: table.y },
+    { name: "line", data: table.line },
   ];
   for (const key of ["time", "hdop", "precision", "rawX", "rawY"] as const) {
     const a = table[key];
@@ -59,7 +73,9 @@ export function encodePoints(table: PointTable): Uint8Array {
   out.set(new TextEncoder().encode(MAGIC), 0);
   new DataView(out.buffer).setUint32(4, headerBytes.length, true);
   out.set(headerBytes, 8);
-  arrays.forEach((a, i) => out.set(new Uint8Array(a.data.buffer, a.data.byteOffset, a.data.byteLength), start + layout[i].offset));
+  arrays.forEach((a, i) =>
+    out.set(new Uint8Array(a.data.buffer, a.data.byteOffset, a.data.byteLength), start + layout[i].offset),
+  );
   return out;
 }
 
@@ -73,7 +89,13 @@ export function decodePoints(bytes: Uint8Array): PointTable {
   const read = (entry: Header["arrays"][number]): Data => {
     const byteLength = (entry.count ?? header.length) * SIZE[entry.type];
     const copy = bytes.slice(start + entry.offset, start + entry.offset + byteLength).buffer;
-    return entry.type === "f64" ? new Float64Array(copy) : entry.type === "i32" ? new Int32Array(copy) : entry.type === "u16" ? new Uint16Array(copy) : new Uint8Array(copy);
+    return entry.type === "f64"
+      ? new Float64Array(copy)
+      : entry.type === "i32"
+        ? new Int32Array(copy)
+        : entry.type === "u16"
+          ? new Uint16Array(copy)
+          : new Uint8Array(copy);
   };
   const arrays = new Map(header.arrays.map((e) => [e.name, read(e)]));
   const f64 = (name: ArrayName) => (arrays.get(name) as Float64Array | undefined) ?? null;
@@ -82,10 +104,24 @@ export function decodePoints(bytes: Uint8Array): PointTable {
     attrs[name as AttributeName] = { values, codes: arrays.get(`attr:${name}`) as Int32Array };
   }
   const codes = arrays.get("id.codes") as Uint8Array | Uint16Array | undefined;
-  const id = codes ? new IdColumn(codes, arrays.get("id.offsets") as Int32Array) : header.id ? IdColumn.from(header.id) : null;
+  const id = codes
+    ? new IdColumn(codes, arrays.get("id.offsets") as Int32Array)
+    : header.id
+      ? IdColumn.from(header.id)
+      : null;
   return {
-    source: header.source, role: header.role, length: header.length,
-    x: f64("x")!, y: f64("y")!, line: arrays.get("line") as Int32Array,
-    id, attrs, time: f64("time"), hdop: f64("hdop"), precision: f64("precision"), rawX: f64("rawX"), rawY: f64("rawY"),
+    source: header.source,
+    role: header.role,
+    length: header.length,
+    x: f64("x")!,
+    y: f64("y")!,
+    line: arrays.get("line") as Int32Array,
+    id,
+    attrs,
+    time: f64("time"),
+    hdop: f64("hdop"),
+    precision: f64("precision"),
+    rawX: f64("rawX"),
+    rawY: f64("rawY"),
   };
 }

@@ -8,19 +8,50 @@ export { readCsv, detectDelimiter, type ReadOptions, type ReadResult } from "./r
 export { readGeoJson } from "./read/geojson";
 export { appendReadResults } from "./read/merge";
 export { tallyIssues, addTallies, type Tally } from "./read/sink";
-export { planColumns, normaliseHeader, COLUMN_ROLES, type ColumnGuess, type ColumnMapping, type ColumnRole, type CoordinateKind } from "./read/columns";
+export {
+  planColumns,
+  normaliseHeader,
+  COLUMN_ROLES,
+  type ColumnGuess,
+  type ColumnMapping,
+  type ColumnRole,
+  type CoordinateKind,
+} from "./read/columns";
 export { normaliseFix, parseNumber, TimeReader, type FixQuality } from "./read/values";
 export type { TextInput } from "./read/text";
 export {
-  listCrs, findCrs, resolveCrs, utmFor, geographicOf, datumShiftBetween, containsLonLat,
-  type CrsEntry, type LonLatBox,
+  listCrs,
+  findCrs,
+  resolveCrs,
+  utmFor,
+  geographicOf,
+  datumShiftBetween,
+  containsLonLat,
+  type CrsEntry,
+  type LonLatBox,
 } from "./crs/registry";
-export { projectTable, convertArrays, convertPoint, toLonLat, resolveWorkCrs, centreLonLat, medianOf, type CrsLike } from "./project";
+export {
+  projectTable,
+  convertArrays,
+  convertPoint,
+  toLonLat,
+  resolveWorkCrs,
+  centreLonLat,
+  medianOf,
+  type CrsLike,
+} from "./project";
 export { validateTable, type TableCheckOptions } from "./validate/table";
 export { validateFiles, type FilesCheckOptions, type FileInCrs } from "./validate/files";
 export { IssueCollector, formatIssue, hasErrors, DEFAULT_ISSUE_CAP } from "./validate/issues";
 export { indexIds, findDuplicateIds, fnv1a, IdColumn, IdColumnBuilder, type IdIndex } from "./ids";
-export { pairPoints, DEFAULT_MAX_DISTANCE, type MatchMode, type PairInput, type PairOptions, type PairingNotes } from "./pair";
+export {
+  pairPoints,
+  DEFAULT_MAX_DISTANCE,
+  type MatchMode,
+  type PairInput,
+  type PairOptions,
+  type PairingNotes,
+} from "./pair";
 export { deriveRowBearing, type RowBearing } from "./row-bearing";
 export { prepareAudit, type FileInput, type PrepareOptions, type Prepared } from "./prepare";
 export { tableBuffers } from "./transfer";

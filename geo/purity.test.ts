@@ -22,7 +22,8 @@ describe("purity", () => {
     for (const file of sources(path.resolve(import.meta.dirname))) {
       const lines = readFileSync(file, "utf8").split("\n");
       lines.forEach((l, i) => {
-        if (/^export (async )?function/.test(l) && !/\*\/\s*$/.test(lines[i - 1] ?? "")) missing.push(`${path.relative(import.meta.dirname, file)}:${i + 1}`);
+        if (/^export (async )?function/.test(l) && !/\*\/\s*$/.test(lines[i - 1] ?? ""))
+          missing.push(`${path.relative(import.meta.dirname, file)}:${i + 1}`);
       });
     }
     expect(missing).toEqual([]);

@@ -90,7 +90,9 @@ export async function requirePageViewer(roles: readonly Role[] = ANY_ROLE): Prom
 /** The sign-in page, returning to the page asked for (proxy.ts passes it in x-plotproof-path). */
 function loginUrl(h: Headers): string {
   const path = h.get("x-plotproof-path");
-  return path && path !== "/" && path.startsWith("/") && !path.startsWith("//") ? `/login?next=${encodeURIComponent(path)}` : "/login";
+  return path && path !== "/" && path.startsWith("/") && !path.startsWith("//")
+    ? `/login?next=${encodeURIComponent(path)}`
+    : "/login";
 }
 
 /** For server actions: the same checks, reported as a typed error state instead of a throw. */

@@ -81,7 +81,11 @@ export interface UploadOkDto {
 /** Lines of the NDJSON stream when the upload asks for `Accept: application/x-ndjson`. */
 export type UploadStreamLine =
   | { type: "progress"; stage: "reading" | "checking" | "saving"; fraction: number }
-  | { type: "done"; status: number; body: UploadOkDto | { error: { code: string; message: string; issues?: InputIssue[] } } };
+  | {
+      type: "done";
+      status: number;
+      body: UploadOkDto | { error: { code: string; message: string; issues?: InputIssue[] } };
+    };
 
 export interface ToleranceProfileDto {
   id: string;

@@ -30,22 +30,42 @@ export function createAuth(db: DB, opts: { baseURL: string; secret: string; sign
     secret: opts.secret,
     database: drizzleAdapter(db, { provider: "pg", schema }),
     // Browsers may reach a local install as localhost or 127.0.0.1.
-    trustedOrigins: [opts.baseURL, `${origin.protocol}//localhost:${origin.port || 3000}`, `${origin.protocol}//127.0.0.1:${origin.port || 3000}`],
+    trustedOrigins: [
+      opts.baseURL,
+      `${origin.protocol}//localhost:${origin.port || 3000}`,
+      `${origin.protocol}//127.0.0.1:${origin.port || 3000}`,
+    ],
     emailAndPassword: {
-      enabled: true, autoSignIn: true, minPasswordLength: 10, maxPasswordLength: 128,
+      enabled: true,
+      autoSignIn: true,
+      minPasswordLength: 10,
+      maxPasswordLength: 128,
       // E-mail the one-time link; a reset signs the account out everywhere else.
       resetPasswordTokenExpiresIn: RESET_LINK_SECONDS,
       revokeSessionsOnPasswordReset: true,
-      sendResetPassword: async ({ user, url }) => { await sendPasswordResetMail({ user, url }, RESET_LINK_SECONDS / 60); },
+      sendResetPassword: async ({ user, url }) => {
+        await sendPasswordResetMail({ user, url }, RESET_LINK_SECONDS / 60);
+      },
     },
     // Sign-in attempts per minute per address; the browser tests raise it (AUTH_SIGNIN_PER_MINUTE).
-    rateLimit: { enabled: true, window: 60, max: 300, customRules: { "/sign-in/email": { window: 60, max: opts.signInPerMinute ?? 10 } } },
+    rateLimit: {
+      enabled: true,
+      window: 60,
+      max: 300,
+      customRules: { "/sign-in/email": { window: 60, max: opts.signInPerMinute ?? 10 } },
+    },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
     plugins: [
       organization({
-        ac, roles: orgRoles, creatorRole: "owner", allowUserToCreateOrganization: true, invitationExpiresIn: 60 * 60 * 24 * 7,
+        ac,
+        roles: orgRoles,
+        creatorRole: "owner",
+        allowUserToCreateOrganization: true,
+        invitationExpiresIn: 60 * 60 * 24 * 7,
         // The mailer never throws: a failed e-mail is recorded in the activity log and the team page shows the link.
-        sendInvitationEmail: async (data) => { await sendInvitationMail(data); },
+        sendInvitationEmail: async (data) => {
+          await sendInvitationMail(data);
+        },
       }),
       nextCookies(),
     ],
@@ -61,9 +81,15 @@ export function getAuth(): Promise<Auth> {
   if (!g.__plotproofAuth) {
     g.__plotproofAuth = getDb().then((db) => {
       const e = env();
-      return createAuth(db, { baseURL: e.BETTER_AUTH_URL, secret: e.authSecret, signInPerMinute: e.AUTH_SIGNIN_PER_MINUTE });
+      return createAuth(db, {
+        baseURL: e.BETTER_AUTH_URL,
+        secret: e.authSecret,
+        signInPerMinute: e.AUTH_SIGNIN_PER_MINUTE,
+      });
     });
-    g.__plotproofAuth.catch(() => { g.__plotproofAuth = undefined; });
+    g.__plotproofAuth.catch(() => {
+      g.__plotproofAuth = undefined;
+    });
   }
   return g.__plotproofAuth;
 }

@@ -25,9 +25,10 @@ export function env(): Env {
   const parsed = EnvSchema.parse(process.env);
   let authSecret = parsed.BETTER_AUTH_SECRET;
   if (!authSecret) {
-    const dataDir = parsed.PGLITE_DIR && !parsed.PGLITE_DIR.startsWith("memory://")
-      ? path.dirname(parsed.PGLITE_DIR)
-      : path.join(/* turbopackIgnore: true */ process.cwd(), "data");
+    const dataDir =
+      parsed.PGLITE_DIR && !parsed.PGLITE_DIR.startsWith("memory://")
+        ? path.dirname(parsed.PGLITE_DIR)
+        : path.join(/* turbopackIgnore: true */ process.cwd(), "data");
     const file = path.join(dataDir, "auth-secret");
     if (fs.existsSync(file)) authSecret = fs.readFileSync(file, "utf8").trim();
     else {

@@ -3,7 +3,12 @@ import type { ErrorBody } from "@/lib/errors";
 
 /** Error thrown by `fetcher` with the API's own code, message and issues. */
 export class ApiError extends Error {
-  constructor(public readonly status: number, public readonly code: string, message: string, public readonly issues?: unknown[]) {
+  constructor(
+    public readonly status: number,
+    public readonly code: string,
+    message: string,
+    public readonly issues?: unknown[],
+  ) {
     super(message);
   }
 }
@@ -16,7 +21,11 @@ export async function fetcher<T>(url: string): Promise<T> {
 }
 
 /** Send JSON (POST/PATCH/DELETE) and return the parsed answer or throw an ApiError. */
-export async function sendJson<T>(url: string, method: "POST" | "PATCH" | "PUT" | "DELETE", body?: unknown): Promise<T> {
+export async function sendJson<T>(
+  url: string,
+  method: "POST" | "PATCH" | "PUT" | "DELETE",
+  body?: unknown,
+): Promise<T> {
   const res = await fetch(url, {
     method,
     headers: { accept: "application/json", ...(body === undefined ? {} : { "content-type": "application/json" }) },

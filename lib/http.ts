@@ -6,5 +6,12 @@ export function contentDisposition(fileName: string): string {
 
 /** A file-name-safe slug: "Long Acre" → "long-acre". */
 export function fileSlug(text: string): string {
-  return text.toLowerCase().normalize("NFKD").replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 40) || "x";
+  return (
+    text
+      .toLowerCase()
+      .normalize("NFKD")
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "")
+      .slice(0, 40) || "x"
+  );
 }

@@ -12,16 +12,34 @@ import type { SignUpInput } from "@/lib/validation/account";
  * account is removed again, so a sign-up never leaves a user without an organisation.
  * Pass `headers` to sign the new user in (browser sign-up); omit it for seeding.
  */
-export async function createAccountWithOrganisation(input: SignUpInput, headers?: Headers): Promise<{ userId: string; orgId: string }> {
+export async function createAccountWithOrganisation(
+  input: SignUpInput,
+  headers?: Headers,
+): Promise<{ userId: string; orgId: string }> {
   const auth = await getAuth();
-  const { user } = await auth.api.signUpEmail({ body: { name: input.name, email: input.email, password: input.password }, headers });
+  const { user } = await auth.api.signUpEmail({
+    body: { name: input.name, email: input.email, password: input.password },
+    headers,
+  });
   try {
     const org = await auth.api.createOrganization({
-      body: { name: input.organisation, slug: slugFor(input.organisation, crypto.randomBytes(3).toString("hex")), userId: user.id, metadata: { kind: input.kind } },
+      body: {
+        name: input.organisation,
+        slug: slugFor(input.organisation, crypto.randomBytes(3).toString("hex")),
+        userId: user.id,
+        metadata: { kind: input.kind },
+      },
     });
     if (!org) throw new Error("organisation was not created");
     await seedDefaultProfiles(await getDb(), { orgId: org.id });
-    await logActivity(await getDb(), { orgId: org.id, actorId: user.id, action: "organisation.created", subjectType: "organisation", subjectId: org.id, detail: { name: org.name } });
+    await logActivity(await getDb(), {
+      orgId: org.id,
+      actorId: user.id,
+      action: "organisation.created",
+      subjectType: "organisation",
+      subjectId: org.id,
+      detail: { name: org.name },
+    });
     return { userId: user.id, orgId: org.id };
   } catch (err) {
     await deleteUserById(await getDb(), { userId: user.id });

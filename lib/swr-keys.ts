@@ -20,7 +20,8 @@ export const keys = {
   audit: (auditId: string) => `/api/audits/${auditId}`,
   auditSummary: (auditId: string) => `/api/audits/${auditId}/summary`,
   auditResiduals: (auditId: string, p: ResidualQuery) => `/api/audits/${auditId}/residuals${qs({ ...p })}`,
-  auditUnpaired: (auditId: string, p: { kind?: string; page?: number; pageSize?: number }) => `/api/audits/${auditId}/unpaired${qs(p)}`,
+  auditUnpaired: (auditId: string, p: { kind?: string; page?: number; pageSize?: number }) =>
+    `/api/audits/${auditId}/unpaired${qs(p)}`,
   auditChartData: (auditId: string) => `/api/audits/${auditId}/chart-data`,
   auditCsv: (auditId: string, kind: "residuals" | "summary" | "unpaired") => `/api/audits/${auditId}/${kind}.csv`,
   apiKeys: () => "/api/keys",

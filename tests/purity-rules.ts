@@ -24,7 +24,8 @@ export function impurities(root: string, files: readonly string[]): string[] {
   const found: string[] = [];
   for (const file of files) {
     const text = readFileSync(path.resolve(root, file), "utf8");
-    for (const [re, what] of FORBIDDEN_IN_CORE) if (re.test(text)) found.push(`${path.relative(root, path.resolve(root, file))}: ${what}`);
+    for (const [re, what] of FORBIDDEN_IN_CORE)
+      if (re.test(text)) found.push(`${path.relative(root, path.resolve(root, file))}: ${what}`);
   }
   return found;
 }

@@ -21,7 +21,10 @@ function run(name, cmd, args, env = {}) {
 
 if (!fs.existsSync(chromium)) {
   if (process.getuid?.() === 0) {
-    run("install chromium", "sh", ["-c", "apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium"]);
+    run("install chromium", "sh", [
+      "-c",
+      "apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium",
+    ]);
   } else {
     console.error(`Chromium not found at ${chromium}. Install it with: sudo apt-get install -y chromium`);
     failed = true;
@@ -32,7 +35,13 @@ if (!fs.existsSync(chromium)) {
 fs.rmSync(".test-report", { recursive: true, force: true });
 fs.mkdirSync(".test-report", { recursive: true });
 run("type check", "npx", ["tsc", "--noEmit", "-p", "."]);
-run("unit and integration tests", "npx", ["vitest", "run", "--reporter=default", "--reporter=json", "--outputFile=.test-report/unit.json"]);
+run("unit and integration tests", "npx", [
+  "vitest",
+  "run",
+  "--reporter=default",
+  "--reporter=json",
+  "--outputFile=.test-report/unit.json",
+]);
 const built = run("production build", "npx", ["next", "build"]);
 if (built && fs.existsSync(chromium)) {
   fs.rmSync("data/e2e", { recursive: true, force: true });
@@ -40,13 +49,27 @@ if (built && fs.existsSync(chromium)) {
 }
 
 function readJson(path) {
-  try { return JSON.parse(fs.readFileSync(path, "utf8")); } catch { return null; }
+  try {
+    return JSON.parse(fs.readFileSync(path, "utf8"));
+  } catch {
+    return null;
+  }
 }
 const unit = readJson(".test-report/unit.json");
 const e2e = readJson(".test-report/e2e.json");
-let passed = 0, failures = 0, skipped = 0;
-if (unit) { passed += unit.numPassedTests; failures += unit.numFailedTests; skipped += unit.numPendingTests + unit.numTodoTests; }
-if (e2e) { passed += e2e.stats.expected + e2e.stats.flaky; failures += e2e.stats.unexpected; skipped += e2e.stats.skipped; }
+let passed = 0,
+  failures = 0,
+  skipped = 0;
+if (unit) {
+  passed += unit.numPassedTests;
+  failures += unit.numFailedTests;
+  skipped += unit.numPendingTests + unit.numTodoTests;
+}
+if (e2e) {
+  passed += e2e.stats.expected + e2e.stats.flaky;
+  failures += e2e.stats.unexpected;
+  skipped += e2e.stats.skipped;
+}
 const stepFailures = steps.filter((s) => !s.ok).length;
 console.log("\nSteps:");
 for (const s of steps) console.log(`  ${s.ok ? "ok  " : "FAIL"} ${s.name} (${s.seconds.toFixed(1)} s)`);

@@ -26,10 +26,14 @@ export default async function HomePage() {
 
 function homeTitle(v: Viewer): string {
   switch (v.role) {
-    case "technician": return "Your uploads and audits";
-    case "qa_lead": return "Audits waiting for your review";
-    case "grower": return "Your fields and how far to trust their records";
-    case "owner": return `${v.orgName}: team and fields`;
+    case "technician":
+      return "Your uploads and audits";
+    case "qa_lead":
+      return "Audits waiting for your review";
+    case "grower":
+      return "Your fields and how far to trust their records";
+    case "owner":
+      return `${v.orgName}: team and fields`;
   }
 }
 
@@ -44,11 +48,16 @@ async function TechnicianHome({ viewer }: { viewer: Viewer }) {
       <FieldSafetyNote />
       <div className="grid gap-6 md:grid-cols-2">
         <Panel title="Recent uploads" action={<TextLink href="/fields">Choose a field</TextLink>}>
-          {datasets.length === 0 ? <Empty>No files uploaded yet. Open a field to upload its as-planted records and your survey.</Empty> : (
+          {datasets.length === 0 ? (
+            <Empty>No files uploaded yet. Open a field to upload its as-planted records and your survey.</Empty>
+          ) : (
             <ul className="divide-y divide-chalk-deep text-sm">
               {datasets.map((d) => (
                 <li key={d.id} className="flex justify-between py-2">
-                  <span><span className="font-medium">{d.fileName}</span> · {d.kind === "planted" ? "as-planted" : "survey"} · {d.fieldName}</span>
+                  <span>
+                    <span className="font-medium">{d.fileName}</span> · {d.kind === "planted" ? "as-planted" : "survey"}{" "}
+                    · {d.fieldName}
+                  </span>
                   <span className="text-ink-faint">{d.rowCount} rows</span>
                 </li>
               ))}
@@ -79,13 +88,24 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
   const fields = await listFields(await getDb(), { orgId: viewer.orgId });
   return (
     <Panel title="Fields">
-      {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
+      {fields.length === 0 ? (
+        <Empty>No fields yet.</Empty>
+      ) : (
         <table className="w-full text-left text-sm">
-          <thead className="text-ink-faint"><tr><th className="py-1 font-medium">Field</th><th className="font-medium">Latest audit</th><th className="font-medium">Horizontal RMSE</th></tr></thead>
+          <thead className="text-ink-faint">
+            <tr>
+              <th className="py-1 font-medium">Field</th>
+              <th className="font-medium">Latest audit</th>
+              <th className="font-medium">Horizontal RMSE</th>
+            </tr>
+          </thead>
           <tbody className="divide-y divide-chalk-deep">
             {fields.map((f) => (
               <tr key={f.id}>
-                <td className="py-2"><TextLink href={`/fields/${f.id}`}>{f.name}</TextLink> <span className="text-ink-faint">· {f.farm}</span></td>
+                <td className="py-2">
+                  <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>{" "}
+                  <span className="text-ink-faint">· {f.farm}</span>
+                </td>
                 <td>{f.latestAudit ? `${f.latestAudit.title} (${f.latestAudit.state})` : "Not audited yet"}</td>
                 <td>{formatMm(f.latestAudit?.rmseR)}</td>
               </tr>
@@ -99,21 +119,32 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
 
 async function OwnerHome({ viewer }: { viewer: Viewer }) {
   const db = await getDb();
-  const [members, fields] = await Promise.all([listTeamMembers(db, { orgId: viewer.orgId }), listFields(db, { orgId: viewer.orgId })]);
+  const [members, fields] = await Promise.all([
+    listTeamMembers(db, { orgId: viewer.orgId }),
+    listFields(db, { orgId: viewer.orgId }),
+  ]);
   return (
     <div className="grid gap-6 md:grid-cols-2">
       <Panel title="Team" action={<TextLink href="/team">Manage team</TextLink>}>
         <ul className="divide-y divide-chalk-deep text-sm">
           {members.map((m) => (
-            <li key={m.memberId} className="flex justify-between py-2"><span>{m.name}</span><span className="text-ink-soft">{ROLE_LABEL[m.role]}</span></li>
+            <li key={m.memberId} className="flex justify-between py-2">
+              <span>{m.name}</span>
+              <span className="text-ink-soft">{ROLE_LABEL[m.role]}</span>
+            </li>
           ))}
         </ul>
       </Panel>
       <Panel title="Fields" action={<TextLink href="/fields">All fields</TextLink>}>
-        {fields.length === 0 ? <Empty>No fields yet.</Empty> : (
+        {fields.length === 0 ? (
+          <Empty>No fields yet.</Empty>
+        ) : (
           <ul className="divide-y divide-chalk-deep text-sm">
             {fields.map((f) => (
-              <li key={f.id} className="flex justify-between py-2"><TextLink href={`/fields/${f.id}`}>{f.name}</TextLink><span className="text-ink-faint">{f.datasetCount} files</span></li>
+              <li key={f.id} className="flex justify-between py-2">
+                <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>
+                <span className="text-ink-faint">{f.datasetCount} files</span>
+              </li>
             ))}
           </ul>
         )}
@@ -122,15 +153,29 @@ async function OwnerHome({ viewer }: { viewer: Viewer }) {
   );
 }
 
-function AuditList({ title, audits, empty }: { title: string; audits: Awaited<ReturnType<typeof listAudits>>; empty: string }) {
+function AuditList({
+  title,
+  audits,
+  empty,
+}: {
+  title: string;
+  audits: Awaited<ReturnType<typeof listAudits>>;
+  empty: string;
+}) {
   return (
     <Panel title={title}>
-      {audits.length === 0 ? <Empty>{empty}</Empty> : (
+      {audits.length === 0 ? (
+        <Empty>{empty}</Empty>
+      ) : (
         <ul className="divide-y divide-chalk-deep text-sm">
           {audits.map((a) => (
             <li key={a.id} className="flex justify-between py-2">
-              <span><span className="font-medium">{a.title}</span> · {a.fieldName}</span>
-              <span className="text-ink-faint">{a.state} · {formatDate(a.updatedAt)}</span>
+              <span>
+                <span className="font-medium">{a.title}</span> · {a.fieldName}
+              </span>
+              <span className="text-ink-faint">
+                {a.state} · {formatDate(a.updatedAt)}
+              </span>
             </li>
           ))}
         </ul>

@@ -19,10 +19,14 @@ export function AppHeader({ viewer }: { viewer: Viewer }) {
   return (
     <header className="border-b border-chalk-line bg-white">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-8 gap-y-2 px-6 py-3">
-        <Link href="/" aria-label="Plotproof home"><Wordmark /></Link>
+        <Link href="/" aria-label="Plotproof home">
+          <Wordmark />
+        </Link>
         <nav aria-label="Main" className="flex gap-5 text-sm font-medium">
           {NAV.filter((n) => n.roles.includes(viewer.role)).map((n) => (
-            <Link key={n.href} href={n.href} className="text-ink-soft hover:text-ink">{n.label}</Link>
+            <Link key={n.href} href={n.href} className="text-ink-soft hover:text-ink">
+              {n.label}
+            </Link>
           ))}
         </nav>
         <div className="ml-auto flex items-center gap-4 text-sm">

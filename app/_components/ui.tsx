@@ -9,7 +9,15 @@ export function PageTitle({ children, sub }: { children: React.ReactNode; sub?: 
   );
 }
 
-export function Panel({ title, children, action }: { title: string; children: React.ReactNode; action?: React.ReactNode }) {
+export function Panel({
+  title,
+  children,
+  action,
+}: {
+  title: string;
+  children: React.ReactNode;
+  action?: React.ReactNode;
+}) {
   return (
     <section className="rounded-plot border border-chalk-line bg-white p-5" aria-label={title}>
       <div className="mb-3 flex items-baseline justify-between gap-4">
@@ -26,7 +34,11 @@ export function Empty({ children }: { children: React.ReactNode }) {
 }
 
 export function TextLink({ href, children }: { href: string; children: React.ReactNode }) {
-  return <Link href={href} className="font-medium text-leaf underline-offset-2 hover:underline">{children}</Link>;
+  return (
+    <Link href={href} className="font-medium text-leaf underline-offset-2 hover:underline">
+      {children}
+    </Link>
+  );
 }
 
 /** The standing caution for anyone working beside autonomous machinery. */
@@ -35,7 +47,10 @@ export function FieldSafetyNote() {
     <aside className="rounded-plot border-l-4 border-stake bg-stake-pale p-4 text-sm" aria-label="Safety in the field">
       <p className="font-semibold">Before you survey beside a planting or hoeing machine</p>
       <ul className="mt-1 list-disc pl-5 text-ink-soft">
-        <li>Make sure the machine is stopped, its autonomous mode is switched off and it cannot restart while you are in the beds; follow the operator&apos;s lock-out procedure.</li>
+        <li>
+          Make sure the machine is stopped, its autonomous mode is switched off and it cannot restart while you are in
+          the beds; follow the operator&apos;s lock-out procedure.
+        </li>
         <li>Keep clear of tool arms, blades and tines, even when still.</li>
         <li>Wear high-visibility clothing near farm tracks and public roads.</li>
         <li>Plotproof checks record accuracy only. Boundary and legal surveys follow local licensed practice.</li>

@@ -4,28 +4,52 @@ import type { DB } from "@/db/client";
 import { copyRows } from "@/db/copy";
 import { audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
 import type {
-  AuditDto, AuditListItemDto, AuditSettingsDto, AuditState, AuditSummary, ChartDataDto, Page, ResidualRowDto,
-  ToleranceProfileDto, UnpairedRowDto, Verdict,
+  AuditDto,
+  AuditListItemDto,
+  AuditSettingsDto,
+  AuditState,
+  AuditSummary,
+  ChartDataDto,
+  Page,
+  ResidualRowDto,
+  ToleranceProfileDto,
+  UnpairedRowDto,
+  Verdict,
 } from "@/lib/api-types";
 import type { ResidualQueryInput } from "@/lib/validation/audit";
 import { logActivity } from "./activity";
 
 export type AuditListItem = AuditListItemDto;
 
-export async function listAudits(db: DB, { orgId, fieldId, state, limit = 20 }: { orgId: string; fieldId?: string; state?: string; limit?: number }): Promise<AuditListItemDto[]> {
+export async function listAudits(
+  db: DB,
+  { orgId, fieldId, state, limit = 20 }: { orgId: string; fieldId?: string; state?: string; limit?: number },
+): Promise<AuditListItemDto[]> {
   const where = [eq(audit.orgId, orgId)];
   if (fieldId) where.push(eq(audit.fieldId, fieldId));
   if (state) where.push(eq(audit.state, state));
   const rows = await db
-    .select({ id: audit.id, title: audit.title, state: audit.state, fieldId: audit.fieldId, fieldName: field.name, updatedAt: audit.updatedAt, summary: audit.summary, verdict: audit.verdict })
+    .select({
+      id: audit.id,
+      title: audit.title,
+      state: audit.state,
+      fieldId: audit.fieldId,
+      fieldName: field.name,
+      updatedAt: audit.updatedAt,
+      summary: audit.summary,
+      verdict: audit.verdict,
+    })
     .from(audit)
     .innerJoin(field, eq(field.id, audit.fieldId))
     .where(and(...where))
     .orderBy(desc(audit.updatedAt))
     .limit(limit);
   return rows.map(({ summary, verdict, ...r }) => ({
-    ...r, state: r.state as AuditState, updatedAt: r.updatedAt.toISOString(),
-    rmseR: (summary as AuditSummary | null)?.rmseR ?? null, passed: (verdict as Verdict | null)?.passed ?? null,
+    ...r,
+    state: r.state as AuditState,
+    updatedAt: r.updatedAt.toISOString(),
+    rmseR: (summary as AuditSummary | null)?.rmseR ?? null,
+    passed: (verdict as Verdict | null)?.passed ?? null,
   }));
 }
 
@@ -39,9 +63,20 @@ export interface DatasetListItem {
   uploadedAt: string;
 }
 
-export async function listRecentDatasets(db: DB, { orgId, fieldId, limit = 20 }: { orgId: string; fieldId?: string; limit?: number }): Promise<DatasetListItem[]> {
+export async function listRecentDatasets(
+  db: DB,
+  { orgId, fieldId, limit = 20 }: { orgId: string; fieldId?: string; limit?: number },
+): Promise<DatasetListItem[]> {
   const rows = await db
-    .select({ id: dataset.id, kind: dataset.kind, fileName: dataset.fileName, rowCount: dataset.rowCount, fieldId: dataset.fieldId, fieldName: field.name, uploadedAt: dataset.uploadedAt })
+    .select({
+      id: dataset.id,
+      kind: dataset.kind,
+      fileName: dataset.fileName,
+      rowCount: dataset.rowCount,
+      fieldId: dataset.fieldId,
+      fieldName: field.name,
+      uploadedAt: dataset.uploadedAt,
+    })
     .from(dataset)
     .innerJoin(field, eq(field.id, dataset.fieldId))
     .where(fieldId ? and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId)) : eq(dataset.orgId, orgId))
@@ -52,29 +87,74 @@ export async function listRecentDatasets(db: DB, { orgId, fieldId, limit = 20 }:
 
 export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
 
-export async function createAudit(db: DB, a: {
-  orgId: string; userId: string; fieldId: string; plantedDatasetId: string; surveyDatasetId: string;
-  profileId: string; profileSnapshot: ProfileSnapshot; settings: AuditSettingsDto; title: string;
-}): Promise<string> {
+export async function createAudit(
+  db: DB,
+  a: {
+    orgId: string;
+    userId: string;
+    fieldId: string;
+    plantedDatasetId: string;
+    surveyDatasetId: string;
+    profileId: string;
+    profileSnapshot: ProfileSnapshot;
+    settings: AuditSettingsDto;
+    title: string;
+  },
+): Promise<string> {
   return db.transaction(async (tx) => {
-    const [row] = await tx.insert(audit).values({
-      orgId: a.orgId, fieldId: a.fieldId, plantedDatasetId: a.plantedDatasetId, surveyDatasetId: a.surveyDatasetId,
-      title: a.title, state: "computing", profileId: a.profileId, profileSnapshot: a.profileSnapshot, settings: a.settings,
-      createdBy: a.userId, progress: 0, progressStage: "queued",
-    }).returning({ id: audit.id });
-    await logActivity(tx, { orgId: a.orgId, actorId: a.userId, action: "audit.created", subjectType: "audit", subjectId: row.id, detail: { title: a.title } });
+    const [row] = await tx
+      .insert(audit)
+      .values({
+        orgId: a.orgId,
+        fieldId: a.fieldId,
+        plantedDatasetId: a.plantedDatasetId,
+        surveyDatasetId: a.surveyDatasetId,
+        title: a.title,
+        state: "computing",
+        profileId: a.profileId,
+        profileSnapshot: a.profileSnapshot,
+        settings: a.settings,
+        createdBy: a.userId,
+        progress: 0,
+        progressStage: "queued",
+      })
+      .returning({ id: audit.id });
+    await logActivity(tx, {
+      orgId: a.orgId,
+      actorId: a.userId,
+      action: "audit.created",
+      subjectType: "audit",
+      subjectId: row.id,
+      detail: { title: a.title },
+    });
     return row.id;
   });
 }
 
-export async function setAuditProgress(db: DB, { id, progress, stage }: { id: string; progress: number; stage: string }): Promise<void> {
+export async function setAuditProgress(
+  db: DB,
+  { id, progress, stage }: { id: string; progress: number; stage: string },
+): Promise<void> {
   await db.update(audit).set({ progress, progressStage: stage, updatedAt: new Date() }).where(eq(audit.id, id));
 }
 
-export async function failAudit(db: DB, { id, orgId, error }: { id: string; orgId: string; error: string }): Promise<void> {
+export async function failAudit(
+  db: DB,
+  { id, orgId, error }: { id: string; orgId: string; error: string },
+): Promise<void> {
   await db.transaction(async (tx) => {
-    await tx.update(audit).set({ state: "failed", error, progressStage: "failed", updatedAt: new Date() }).where(eq(audit.id, id));
-    await logActivity(tx, { orgId, actorId: null, action: "audit.failed", subjectType: "audit", subjectId: id, detail: { error } });
+    await tx
+      .update(audit)
+      .set({ state: "failed", error, progressStage: "failed", updatedAt: new Date() })
+      .where(eq(audit.id, id));
+    await logActivity(tx, {
+      orgId,
+      actorId: null,
+      action: "audit.failed",
+      subjectType: "audit",
+      subjectId: id,
+      detail: { error },
+    });
   });
 }
 
@@ -93,13 +173,21 @@ const BATCH = 2000;
  * not held up by one long transaction); the audit only turns "computed" — and its rows only count —
  * in the final transaction. If anything fails, the rows written so far are removed again.
  */
-export async function storeAuditResult(db: DB, r: {
-  id: string; orgId: string; summary: AuditSummary; verdict: Verdict; settings: AuditSettingsDto;
-  /** The per-plant rows, in batches (arrays or as they arrive from a worker thread); `total` rows in all. */
-  rows: Iterable<RowBatch> | AsyncIterable<RowBatch>; total: number;
-  reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
-  onBatch?: (fraction: number) => Promise<void> | void;
-}): Promise<void> {
+export async function storeAuditResult(
+  db: DB,
+  r: {
+    id: string;
+    orgId: string;
+    summary: AuditSummary;
+    verdict: Verdict;
+    settings: AuditSettingsDto;
+    /** The per-plant rows, in batches (arrays or as they arrive from a worker thread); `total` rows in all. */
+    rows: Iterable<RowBatch> | AsyncIterable<RowBatch>;
+    total: number;
+    reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
+    onBatch?: (fraction: number) => Promise<void> | void;
+  },
+): Promise<void> {
   let done = 0;
   try {
     // Batches outside one transaction: PGlite has a single connection, and a transaction would hold
@@ -119,17 +207,35 @@ export async function storeAuditResult(db: DB, r: {
     for (const report of r.reports) {
       // In parts, a turn of the event loop after each: one 150 MB value would hold PGlite for seconds.
       for (let part = 0, at = 0; part === 0 || at < report.bytes.length; part++, at += REPORT_PART_BYTES) {
-        await db.insert(auditReport).values({ auditId: r.id, kind: report.kind, part, bytes: report.bytes.subarray(at, at + REPORT_PART_BYTES) });
+        await db
+          .insert(auditReport)
+          .values({ auditId: r.id, kind: report.kind, part, bytes: report.bytes.subarray(at, at + REPORT_PART_BYTES) });
         await new Promise((resolve) => setImmediate(resolve));
       }
     }
     await db.transaction(async (tx) => {
-      await tx.update(audit).set({
-        state: "computed", summary: r.summary, verdict: r.verdict, settings: r.settings, progress: 1, progressStage: "done",
-        error: null, computedAt: new Date(), updatedAt: new Date(),
-      }).where(eq(audit.id, r.id));
-      await logActivity(tx, { orgId: r.orgId, actorId: null, action: "audit.computed", subjectType: "audit", subjectId: r.id,
-        detail: { pairs: r.summary.pairs, passed: r.verdict.passed } });
+      await tx
+        .update(audit)
+        .set({
+          state: "computed",
+          summary: r.summary,
+          verdict: r.verdict,
+          settings: r.settings,
+          progress: 1,
+          progressStage: "done",
+          error: null,
+          computedAt: new Date(),
+          updatedAt: new Date(),
+        })
+        .where(eq(audit.id, r.id));
+      await logActivity(tx, {
+        orgId: r.orgId,
+        actorId: null,
+        action: "audit.computed",
+        subjectType: "audit",
+        subjectId: r.id,
+        detail: { pairs: r.summary.pairs, passed: r.verdict.passed },
+      });
     });
   } catch (err) {
     await removeAuditRows(db, { id: r.id });
@@ -149,11 +255,25 @@ export async function removeAuditRows(db: DB, { id }: { id: string }): Promise<v
 export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<AuditDto | null> {
   const [row] = await db
     .select({
-      id: audit.id, title: audit.title, state: audit.state, progress: audit.progress, progressStage: audit.progressStage, error: audit.error,
-      fieldId: field.id, fieldName: field.name, fieldCrs: field.crs, fieldTimeZone: field.timeZone,
-      plantedDatasetId: audit.plantedDatasetId, surveyDatasetId: audit.surveyDatasetId,
-      profile: audit.profileSnapshot, settings: audit.settings, summary: audit.summary, verdict: audit.verdict,
-      createdBy: user.name, createdAt: audit.createdAt, computedAt: audit.computedAt,
+      id: audit.id,
+      title: audit.title,
+      state: audit.state,
+      progress: audit.progress,
+      progressStage: audit.progressStage,
+      error: audit.error,
+      fieldId: field.id,
+      fieldName: field.name,
+      fieldCrs: field.crs,
+      fieldTimeZone: field.timeZone,
+      plantedDatasetId: audit.plantedDatasetId,
+      surveyDatasetId: audit.surveyDatasetId,
+      profile: audit.profileSnapshot,
+      settings: audit.settings,
+      summary: audit.summary,
+      verdict: audit.verdict,
+      createdBy: user.name,
+      createdAt: audit.createdAt,
+      computedAt: audit.computedAt,
     })
     .from(audit)
     .innerJoin(field, eq(field.id, audit.fieldId))
@@ -162,10 +282,18 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
   if (!row) return null;
   const ids = [row.plantedDatasetId, row.surveyDatasetId].filter((x): x is string => !!x);
   const ds = ids.length
-    ? await db.select({ id: dataset.id, fileName: dataset.fileName, sha256: dataset.sha256, rowCount: dataset.rowCount }).from(dataset).where(and(inArray(dataset.id, ids), eq(dataset.orgId, orgId)))
+    ? await db
+        .select({ id: dataset.id, fileName: dataset.fileName, sha256: dataset.sha256, rowCount: dataset.rowCount })
+        .from(dataset)
+        .where(and(inArray(dataset.id, ids), eq(dataset.orgId, orgId)))
     : [];
   return {
-    id: row.id, title: row.title, state: row.state as AuditState, progress: row.progress, progressStage: row.progressStage, error: row.error,
+    id: row.id,
+    title: row.title,
+    state: row.state as AuditState,
+    progress: row.progress,
+    progressStage: row.progressStage,
+    error: row.error,
     field: { id: row.fieldId, name: row.fieldName, crs: row.fieldCrs, timeZone: row.fieldTimeZone },
     planted: ds.find((d) => d.id === row.plantedDatasetId) ?? null,
     survey: ds.find((d) => d.id === row.surveyDatasetId) ?? null,
@@ -173,45 +301,105 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
     settings: (row.settings as AuditSettingsDto | null) ?? null,
     summary: (row.summary as AuditSummary | null) ?? null,
     verdict: (row.verdict as Verdict | null) ?? null,
-    createdBy: row.createdBy, createdAt: row.createdAt.toISOString(), computedAt: row.computedAt?.toISOString() ?? null,
+    createdBy: row.createdBy,
+    createdAt: row.createdAt.toISOString(),
+    computedAt: row.computedAt?.toISOString() ?? null,
   };
 }
 
 const residualCols = {
-  seq: auditResidual.seq, plantId: auditResidual.plantId, surveyId: auditResidual.surveyId, crop: auditResidual.crop, bed: auditResidual.bed,
-  row: auditResidual.row, arm: auditResidual.arm, fix: auditResidual.fix, day: auditResidual.day, plantedE: auditResidual.plantedE,
-  plantedN: auditResidual.plantedN, surveyE: auditResidual.surveyE, surveyN: auditResidual.surveyN, dE: auditResidual.dE, dN: auditResidual.dN,
-  along: auditResidual.along, cross: auditResidual.cross, radial: auditResidual.radial, within: auditResidual.within, outlier: auditResidual.outlier,
-  pairedBy: auditResidual.pairedBy, beyondMaxDistance: auditResidual.beyondMaxDistance,
+  seq: auditResidual.seq,
+  plantId: auditResidual.plantId,
+  surveyId: auditResidual.surveyId,
+  crop: auditResidual.crop,
+  bed: auditResidual.bed,
+  row: auditResidual.row,
+  arm: auditResidual.arm,
+  fix: auditResidual.fix,
+  day: auditResidual.day,
+  plantedE: auditResidual.plantedE,
+  plantedN: auditResidual.plantedN,
+  surveyE: auditResidual.surveyE,
+  surveyN: auditResidual.surveyN,
+  dE: auditResidual.dE,
+  dN: auditResidual.dN,
+  along: auditResidual.along,
+  cross: auditResidual.cross,
+  radial: auditResidual.radial,
+  within: auditResidual.within,
+  outlier: auditResidual.outlier,
+  pairedBy: auditResidual.pairedBy,
+  beyondMaxDistance: auditResidual.beyondMaxDistance,
 };
 
 const SORT_COLUMN = {
-  seq: auditResidual.seq, plantId: auditResidual.plantId, radial: auditResidual.radial, dE: auditResidual.dE, dN: auditResidual.dN,
-  along: auditResidual.along, cross: auditResidual.cross, bed: auditResidual.bed, arm: auditResidual.arm,
+  seq: auditResidual.seq,
+  plantId: auditResidual.plantId,
+  radial: auditResidual.radial,
+  dE: auditResidual.dE,
+  dN: auditResidual.dN,
+  along: auditResidual.along,
+  cross: auditResidual.cross,
+  bed: auditResidual.bed,
+  arm: auditResidual.arm,
 } as const;
 
 /** One page of residuals; the audit must already be known to belong to the caller's organisation. */
-export async function pageResiduals(db: DB, { auditId, query }: { auditId: string; query: ResidualQueryInput }): Promise<Page<ResidualRowDto>> {
+export async function pageResiduals(
+  db: DB,
+  { auditId, query }: { auditId: string; query: ResidualQueryInput },
+): Promise<Page<ResidualRowDto>> {
   const where: SQL[] = [eq(auditResidual.auditId, auditId)];
   if (query.only === "out") where.push(eq(auditResidual.within, false));
   if (query.only === "outliers") where.push(eq(auditResidual.outlier, true));
-  for (const key of ["arm", "crop", "bed", "fix", "day"] as const) if (query[key]) where.push(eq(auditResidual[key], query[key]!));
+  for (const key of ["arm", "crop", "bed", "fix", "day"] as const)
+    if (query[key]) where.push(eq(auditResidual[key], query[key]!));
   if (query.q) where.push(ilike(auditResidual.plantId, `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
   const col = SORT_COLUMN[query.sort];
-  const [{ total }] = await db.select({ total: count() }).from(auditResidual).where(and(...where));
-  const rows = await db.select(residualCols).from(auditResidual).where(and(...where))
+  const [{ total }] = await db
+    .select({ total: count() })
+    .from(auditResidual)
+    .where(and(...where));
+  const rows = await db
+    .select(residualCols)
+    .from(auditResidual)
+    .where(and(...where))
     .orderBy(query.dir === "desc" ? sql`${col} desc nulls last` : sql`${col} asc nulls last`, asc(auditResidual.seq))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize);
-  return { rows: rows.map((r) => ({ ...r, pairedBy: r.pairedBy as ResidualRowDto["pairedBy"] })), total, page: query.page, pageSize: query.pageSize };
+    .limit(query.pageSize)
+    .offset((query.page - 1) * query.pageSize);
+  return {
+    rows: rows.map((r) => ({ ...r, pairedBy: r.pairedBy as ResidualRowDto["pairedBy"] })),
+    total,
+    page: query.page,
+    pageSize: query.pageSize,
+  };
 }
 
-export async function pageUnpaired(db: DB, { auditId, kind, page, pageSize }: { auditId: string; kind?: UnpairedRowDto["kind"]; page: number; pageSize: number }): Promise<Page<UnpairedRowDto>> {
-  const where = kind ? and(eq(auditUnpaired.auditId, auditId), eq(auditUnpaired.kind, kind)) : eq(auditUnpaired.auditId, auditId);
+export async function pageUnpaired(
+  db: DB,
+  { auditId, kind, page, pageSize }: { auditId: string; kind?: UnpairedRowDto["kind"]; page: number; pageSize: number },
+): Promise<Page<UnpairedRowDto>> {
+  const where = kind
+    ? and(eq(auditUnpaired.auditId, auditId), eq(auditUnpaired.kind, kind))
+    : eq(auditUnpaired.auditId, auditId);
   const [{ total }] = await db.select({ total: count() }).from(auditUnpaired).where(where);
-  const rows = await db.select({
-    seq: auditUnpaired.seq, kind: auditUnpaired.kind, pointId: auditUnpaired.pointId, line: auditUnpaired.line, e: auditUnpaired.e, n: auditUnpaired.n,
-    crop: auditUnpaired.crop, bed: auditUnpaired.bed, row: auditUnpaired.row,
-  }).from(auditUnpaired).where(where).orderBy(asc(auditUnpaired.seq)).limit(pageSize).offset((page - 1) * pageSize);
+  const rows = await db
+    .select({
+      seq: auditUnpaired.seq,
+      kind: auditUnpaired.kind,
+      pointId: auditUnpaired.pointId,
+      line: auditUnpaired.line,
+      e: auditUnpaired.e,
+      n: auditUnpaired.n,
+      crop: auditUnpaired.crop,
+      bed: auditUnpaired.bed,
+      row: auditUnpaired.row,
+    })
+    .from(auditUnpaired)
+    .where(where)
+    .orderBy(asc(auditUnpaired.seq))
+    .limit(pageSize)
+    .offset((page - 1) * pageSize);
   return { rows: rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })), total, page, pageSize };
 }
 
@@ -220,20 +408,42 @@ const CHART_MAX = 20_000;
 export async function chartData(db: DB, { auditId }: { auditId: string }): Promise<ChartDataDto> {
   const [{ total }] = await db.select({ total: count() }).from(auditResidual).where(eq(auditResidual.auditId, auditId));
   const step = Math.max(1, Math.ceil(total / CHART_MAX));
-  const rows = await db.select({ dE: auditResidual.dE, dN: auditResidual.dN, radial: auditResidual.radial, cross: auditResidual.cross, within: auditResidual.within })
+  const rows = await db
+    .select({
+      dE: auditResidual.dE,
+      dN: auditResidual.dN,
+      radial: auditResidual.radial,
+      cross: auditResidual.cross,
+      within: auditResidual.within,
+    })
     .from(auditResidual)
-    .where(step > 1 ? and(eq(auditResidual.auditId, auditId), sql`${auditResidual.seq} % ${step} = 0`) : eq(auditResidual.auditId, auditId))
+    .where(
+      step > 1
+        ? and(eq(auditResidual.auditId, auditId), sql`${auditResidual.seq} % ${step} = 0`)
+        : eq(auditResidual.auditId, auditId),
+    )
     .orderBy(asc(auditResidual.seq));
   const hasCross = rows.some((r) => r.cross !== null);
   return {
-    dE: rows.map((r) => r.dE), dN: rows.map((r) => r.dN), radial: rows.map((r) => r.radial),
-    cross: hasCross ? rows.map((r) => r.cross) : null, within: rows.map((r) => r.within), sampled: step > 1, total,
+    dE: rows.map((r) => r.dE),
+    dN: rows.map((r) => r.dN),
+    radial: rows.map((r) => r.radial),
+    cross: hasCross ? rows.map((r) => r.cross) : null,
+    within: rows.map((r) => r.within),
+    sampled: step > 1,
+    total,
   };
 }
 
-export async function getAuditReport(db: DB, { auditId, kind }: { auditId: string; kind: "residuals" | "unpaired" | "summary" }): Promise<Uint8Array | null> {
-  const parts = await db.select({ bytes: auditReport.bytes }).from(auditReport)
-    .where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind))).orderBy(asc(auditReport.part));
+export async function getAuditReport(
+  db: DB,
+  { auditId, kind }: { auditId: string; kind: "residuals" | "unpaired" | "summary" },
+): Promise<Uint8Array | null> {
+  const parts = await db
+    .select({ bytes: auditReport.bytes })
+    .from(auditReport)
+    .where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind)))
+    .orderBy(asc(auditReport.part));
   return parts.length ? joinParts(parts.map((p) => p.bytes)) : null;
 }
 

@@ -9,53 +9,106 @@ import { logActivity } from "./activity";
 import { savePreset } from "./presets";
 
 const cols = {
-  id: dataset.id, fieldId: dataset.fieldId, kind: dataset.kind, fileName: dataset.fileName, format: dataset.format,
-  sha256: dataset.sha256, sizeBytes: dataset.sizeBytes, rowCount: dataset.rowCount, crs: dataset.crs,
-  mapping: dataset.mapping, acceptedWarnings: dataset.acceptedWarnings, uploadedBy: dataset.uploadedBy, uploadedAt: dataset.uploadedAt,
+  id: dataset.id,
+  fieldId: dataset.fieldId,
+  kind: dataset.kind,
+  fileName: dataset.fileName,
+  format: dataset.format,
+  sha256: dataset.sha256,
+  sizeBytes: dataset.sizeBytes,
+  rowCount: dataset.rowCount,
+  crs: dataset.crs,
+  mapping: dataset.mapping,
+  acceptedWarnings: dataset.acceptedWarnings,
+  uploadedBy: dataset.uploadedBy,
+  uploadedAt: dataset.uploadedAt,
 };
 
 interface Row {
-  id: string; fieldId: string; kind: string; fileName: string; format: string; sha256: string; sizeBytes: number;
-  rowCount: number; crs: string; mapping: unknown; acceptedWarnings: unknown; uploadedBy: string | null; uploadedAt: Date;
+  id: string;
+  fieldId: string;
+  kind: string;
+  fileName: string;
+  format: string;
+  sha256: string;
+  sizeBytes: number;
+  rowCount: number;
+  crs: string;
+  mapping: unknown;
+  acceptedWarnings: unknown;
+  uploadedBy: string | null;
+  uploadedAt: Date;
 }
 
 async function inUseIds(db: DB, ids: string[]): Promise<Set<string>> {
   if (ids.length === 0) return new Set();
-  const rows = await db.select({ p: audit.plantedDatasetId, s: audit.surveyDatasetId }).from(audit)
+  const rows = await db
+    .select({ p: audit.plantedDatasetId, s: audit.surveyDatasetId })
+    .from(audit)
     .where(or(inArray(audit.plantedDatasetId, ids), inArray(audit.surveyDatasetId, ids)));
   return new Set(rows.flatMap((r) => [r.p, r.s]).filter((x): x is string => !!x));
 }
 
 function toDto(r: Row, inUse: Set<string>): DatasetDto {
   return {
-    ...r, kind: r.kind as DatasetDto["kind"], format: r.format as DatasetDto["format"],
-    mapping: (r.mapping as ColumnMapping | null) ?? null, acceptedWarnings: (r.acceptedWarnings as InputIssue[] | null) ?? null,
-    uploadedAt: r.uploadedAt.toISOString(), inUse: inUse.has(r.id),
+    ...r,
+    kind: r.kind as DatasetDto["kind"],
+    format: r.format as DatasetDto["format"],
+    mapping: (r.mapping as ColumnMapping | null) ?? null,
+    acceptedWarnings: (r.acceptedWarnings as InputIssue[] | null) ?? null,
+    uploadedAt: r.uploadedAt.toISOString(),
+    inUse: inUse.has(r.id),
   };
 }
 
-export async function listDatasets(db: DB, { orgId, fieldId }: { orgId: string; fieldId: string }): Promise<DatasetDto[]> {
-  const rows = await db.select(cols).from(dataset).where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId))).orderBy(desc(dataset.uploadedAt));
-  const used = await inUseIds(db, rows.map((r) => r.id));
+export async function listDatasets(
+  db: DB,
+  { orgId, fieldId }: { orgId: string; fieldId: string },
+): Promise<DatasetDto[]> {
+  const rows = await db
+    .select(cols)
+    .from(dataset)
+    .where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId)))
+    .orderBy(desc(dataset.uploadedAt));
+  const used = await inUseIds(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => toDto(r, used));
 }
 
 export async function getDatasetById(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<DatasetDto | null> {
-  const [row] = await db.select(cols).from(dataset).where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
+  const [row] = await db
+    .select(cols)
+    .from(dataset)
+    .where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
   return row ? toDto(row, await inUseIds(db, [row.id])) : null;
 }
 
 /** Parsed points of a dataset of this organisation. */
-export async function loadDatasetPoints(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<{ dto: DatasetDto; table: PointTable } | null> {
-  const [row] = await db.select({ ...cols, points: dataset.points }).from(dataset).where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
+export async function loadDatasetPoints(
+  db: DB,
+  { id, orgId }: { id: string; orgId: string },
+): Promise<{ dto: DatasetDto; table: PointTable } | null> {
+  const [row] = await db
+    .select({ ...cols, points: dataset.points })
+    .from(dataset)
+    .where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
   if (!row || !row.points) return null;
   const { points, ...rest } = row;
   return { dto: toDto(rest, new Set()), table: decodePoints(points) };
 }
 
 export async function getDatasetFile(db: DB, { id, orgId }: { id: string; orgId: string }) {
-  const [row] = await db.select({ fileName: dataset.fileName, contentType: datasetFile.contentType, bytes: datasetFile.bytes, sha256: dataset.sha256 })
-    .from(dataset).innerJoin(datasetFile, eq(datasetFile.datasetId, dataset.id))
+  const [row] = await db
+    .select({
+      fileName: dataset.fileName,
+      contentType: datasetFile.contentType,
+      bytes: datasetFile.bytes,
+      sha256: dataset.sha256,
+    })
+    .from(dataset)
+    .innerJoin(datasetFile, eq(datasetFile.datasetId, dataset.id))
     .where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
   return row ?? null;
 }
@@ -81,17 +134,43 @@ export interface NewDataset {
 /** Save the file exactly as received, its parsed points and an activity entry, all in one transaction. */
 export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> {
   return db.transaction(async (tx) => {
-    const [row] = await tx.insert(dataset).values({
-      orgId: d.orgId, fieldId: d.fieldId, kind: d.kind, fileName: d.fileName, format: d.format, sha256: d.sha256,
-      sizeBytes: d.bytes.byteLength, rowCount: d.table.length, crs: d.crs, mapping: d.mapping,
-      acceptedWarnings: d.acceptedWarnings.length ? d.acceptedWarnings : null, points: encodePoints(d.table), uploadedBy: d.userId,
-    }).returning(cols);
+    const [row] = await tx
+      .insert(dataset)
+      .values({
+        orgId: d.orgId,
+        fieldId: d.fieldId,
+        kind: d.kind,
+        fileName: d.fileName,
+        format: d.format,
+        sha256: d.sha256,
+        sizeBytes: d.bytes.byteLength,
+        rowCount: d.table.length,
+        crs: d.crs,
+        mapping: d.mapping,
+        acceptedWarnings: d.acceptedWarnings.length ? d.acceptedWarnings : null,
+        points: encodePoints(d.table),
+        uploadedBy: d.userId,
+      })
+      .returning(cols);
     await tx.insert(datasetFile).values({ datasetId: row.id, contentType: d.contentType, bytes: d.bytes });
     if (d.presetName) {
-      await savePreset(tx, { orgId: d.orgId, userId: d.userId, name: d.presetName, kind: d.kind, crs: d.crs, mapping: d.mapping });
+      await savePreset(tx, {
+        orgId: d.orgId,
+        userId: d.userId,
+        name: d.presetName,
+        kind: d.kind,
+        crs: d.crs,
+        mapping: d.mapping,
+      });
     }
-    await logActivity(tx, { orgId: d.orgId, actorId: d.userId, action: "dataset.uploaded", subjectType: "dataset", subjectId: row.id,
-      detail: { fileName: d.fileName, kind: d.kind, rows: d.table.length, sha256: d.sha256 } });
+    await logActivity(tx, {
+      orgId: d.orgId,
+      actorId: d.userId,
+      action: "dataset.uploaded",
+      subjectType: "dataset",
+      subjectId: row.id,
+      detail: { fileName: d.fileName, kind: d.kind, rows: d.table.length, sha256: d.sha256 },
+    });
     return toDto(row, new Set());
   });
 }
@@ -100,29 +179,52 @@ export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> 
  * Delete a dataset that no audit uses. Returns "deleted", "missing", or the reason it is kept.
  * Audits keep their inputs: a dataset used by any audit (above all a signed-off one) stays.
  */
-export async function deleteDataset(db: DB, { id, orgId, userId }: { id: string; orgId: string; userId: string }): Promise<"deleted" | "missing" | { keptBecause: string }> {
+export async function deleteDataset(
+  db: DB,
+  { id, orgId, userId }: { id: string; orgId: string; userId: string },
+): Promise<"deleted" | "missing" | { keptBecause: string }> {
   return db.transaction(async (tx) => {
-    const [row] = await tx.select({ id: dataset.id, fileName: dataset.fileName }).from(dataset).where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
+    const [row] = await tx
+      .select({ id: dataset.id, fileName: dataset.fileName })
+      .from(dataset)
+      .where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
     if (!row) return "missing" as const;
-    const users = await tx.select({ title: audit.title, state: audit.state }).from(audit)
+    const users = await tx
+      .select({ title: audit.title, state: audit.state })
+      .from(audit)
       .where(or(eq(audit.plantedDatasetId, id), eq(audit.surveyDatasetId, id)));
     if (users.length > 0) {
       const signed = users.find((u) => u.state === "signed_off");
-      return { keptBecause: signed
-        ? `"${row.fileName}" is an input of the signed-off audit "${signed.title}"; signed-off audits and their files can never be changed or deleted.`
-        : `"${row.fileName}" is an input of ${users.length} audit(s) (e.g. "${users[0].title}"); audits keep their input files.` };
+      return {
+        keptBecause: signed
+          ? `"${row.fileName}" is an input of the signed-off audit "${signed.title}"; signed-off audits and their files can never be changed or deleted.`
+          : `"${row.fileName}" is an input of ${users.length} audit(s) (e.g. "${users[0].title}"); audits keep their input files.`,
+      };
     }
     await tx.delete(datasetFile).where(eq(datasetFile.datasetId, id));
     await tx.delete(dataset).where(eq(dataset.id, id));
-    await logActivity(tx, { orgId, actorId: userId, action: "dataset.deleted", subjectType: "dataset", subjectId: id, detail: { fileName: row.fileName } });
+    await logActivity(tx, {
+      orgId,
+      actorId: userId,
+      action: "dataset.deleted",
+      subjectType: "dataset",
+      subjectId: id,
+      detail: { fileName: row.fileName },
+    });
     return "deleted" as const;
   });
 }
 
 /** The latest as-planted dataset of a field (for derived suggestions). */
-export async function latestPlantedDatasetId(db: DB, { orgId, fieldId }: { orgId: string; fieldId: string }): Promise<string | null> {
-  const [row] = await db.select({ id: dataset.id }).from(dataset)
+export async function latestPlantedDatasetId(
+  db: DB,
+  { orgId, fieldId }: { orgId: string; fieldId: string },
+): Promise<string | null> {
+  const [row] = await db
+    .select({ id: dataset.id })
+    .from(dataset)
     .where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId), eq(dataset.kind, "planted")))
-    .orderBy(desc(dataset.uploadedAt)).limit(1);
+    .orderBy(desc(dataset.uploadedAt))
+    .limit(1);
   return row?.id ?? null;
 }

@@ -26,8 +26,13 @@ const SEP = "\u001f";
 export async function getMapContext(db: DB, { auditId, orgId }: { auditId: string; orgId: string }) {
   const [row] = await db
     .select({
-      fieldId: field.id, fieldName: field.name, bedSpacingM: field.bedSpacingM, rowsPerBed: field.rowsPerBed, rowSpacingM: field.rowSpacingM,
-      fieldRowBearingDeg: field.rowBearingDeg, boundary: field.boundary,
+      fieldId: field.id,
+      fieldName: field.name,
+      bedSpacingM: field.bedSpacingM,
+      rowsPerBed: field.rowsPerBed,
+      rowSpacingM: field.rowSpacingM,
+      fieldRowBearingDeg: field.rowBearingDeg,
+      boundary: field.boundary,
     })
     .from(audit)
     .innerJoin(field, and(eq(field.id, audit.fieldId), eq(field.orgId, audit.orgId)))
@@ -37,7 +42,12 @@ export async function getMapContext(db: DB, { auditId, orgId }: { auditId: strin
 
 /** Bounding box (work CRS, metres) of the planted positions of the pairs and of the unpaired points. */
 export async function getMapExtent(db: DB, { auditId, orgId }: { auditId: string; orgId: string }) {
-  const res = await db.$client.query<{ min_e: number | null; max_e: number | null; min_n: number | null; max_n: number | null }>(
+  const res = await db.$client.query<{
+    min_e: number | null;
+    max_e: number | null;
+    min_n: number | null;
+    max_n: number | null;
+  }>(
     `select min(e) min_e, max(e) max_e, min(n) min_n, max(n) max_n from (
        select planted_e e, planted_n n from audit_residual r where r.audit_id = $1
        union all select e, n from audit_unpaired u where u.audit_id = $1
@@ -51,7 +61,8 @@ export async function getMapExtent(db: DB, { auditId, orgId }: { auditId: string
 function floatsBE(bytes: Uint8Array | null, count: number): Float32Array {
   const out = new Float32Array(count);
   if (!bytes || count === 0) return out;
-  if (bytes.byteLength !== count * 4) throw new Error(`map query: expected ${count * 4} bytes of float4, got ${bytes.byteLength}`);
+  if (bytes.byteLength !== count * 4)
+    throw new Error(`map query: expected ${count * 4} bytes of float4, got ${bytes.byteLength}`);
   const dv = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   for (let i = 0; i < count; i++) out[i] = dv.getFloat32(4 * i, false);
   return out;
@@ -60,7 +71,8 @@ function floatsBE(bytes: Uint8Array | null, count: number): Float32Array {
 function lowBytesBE(bytes: Uint8Array | null, count: number): Uint8Array {
   const out = new Uint8Array(count);
   if (!bytes || count === 0) return out;
-  if (bytes.byteLength !== count * 2) throw new Error(`map query: expected ${count * 2} bytes of int2, got ${bytes.byteLength}`);
+  if (bytes.byteLength !== count * 2)
+    throw new Error(`map query: expected ${count * 2} bytes of int2, got ${bytes.byteLength}`);
   for (let i = 0; i < count; i++) out[i] = bytes[2 * i + 1];
   return out;
 }
@@ -72,14 +84,19 @@ function texts(joined: string | null, count: number): string[] {
   return parts;
 }
 
-const textAgg = (col: string, alias: string) => `string_agg(replace(coalesce(${col}, ''), E'\\x1f', ' '), E'\\x1f' order by seq) "${alias}"`;
-const f4Agg = (expr: string, alias: string) => `string_agg(float4send((${expr})::real), ''::bytea order by seq) "${alias}"`;
+const textAgg = (col: string, alias: string) =>
+  `string_agg(replace(coalesce(${col}, ''), E'\\x1f', ' '), E'\\x1f' order by seq) "${alias}"`;
+const f4Agg = (expr: string, alias: string) =>
+  `string_agg(float4send((${expr})::real), ''::bytea order by seq) "${alias}"`;
 
 /**
  * Every pair and unpaired point of an audit as columns, coordinates minus `origin` (subtracted in double precision
  * before rounding to float4). Empty when the audit is not in this organisation.
  */
-export async function loadMapColumns(db: DB, { auditId, orgId, origin }: { auditId: string; orgId: string; origin: [number, number] }): Promise<{ pairs: PairColumns; unpaired: UnpairedColumns }> {
+export async function loadMapColumns(
+  db: DB,
+  { auditId, orgId, origin }: { auditId: string; orgId: string; origin: [number, number] },
+): Promise<{ pairs: PairColumns; unpaired: UnpairedColumns }> {
   const scope = `audit_id = $1 and exists (select 1 from audit a where a.id = $1 and a.org_id = $2)`;
   const flags = `int2send((
       (case when within is not null then 1 else 0 end) | (case when within then 2 else 0 end) | (case when outlier then 4 else 0 end)
@@ -96,13 +113,15 @@ export async function loadMapColumns(db: DB, { auditId, orgId, origin }: { audit
   );
   const u = await db.$client.query<Record<string, unknown>>(
     `select count(*)::int n, ${f4Agg("e - $3", "x")}, ${f4Agg("n - $4", "y")},
-       ${textAgg("kind", "kind")}, ${textAgg("crop", "t_crop")}, ${textAgg("bed", "t_bed")}, ${textAgg("\"row\"", "t_row")},
+       ${textAgg("kind", "kind")}, ${textAgg("crop", "t_crop")}, ${textAgg("bed", "t_bed")}, ${textAgg('"row"', "t_row")},
        min(seq) min_seq, max(seq) max_seq
      from audit_unpaired where ${scope}`,
     [auditId, orgId, origin[0], origin[1]],
   );
-  const pr = p.rows[0], ur = u.rows[0];
-  const n = Number(pr.n), m = Number(ur.n);
+  const pr = p.rows[0],
+    ur = u.rows[0];
+  const n = Number(pr.n),
+    m = Number(ur.n);
   // Index i of the payload is seq i: the engine numbers rows 0…count−1.
   if (n && (pr.min_seq !== 0 || pr.max_seq !== n - 1)) throw new Error("map query: pair seq numbers are not 0…n−1");
   if (m && (ur.min_seq !== 0 || ur.max_seq !== m - 1)) throw new Error("map query: unpaired seq numbers are not 0…m−1");
@@ -110,14 +129,29 @@ export async function loadMapColumns(db: DB, { auditId, orgId, origin }: { audit
   return {
     pairs: {
       count: n,
-      x: floatsBE(bytes(pr.x), n), y: floatsBE(bytes(pr.y), n), dE: floatsBE(bytes(pr.de), n), dN: floatsBE(bytes(pr.dn), n),
-      along: floatsBE(bytes(pr.along), n), cross: floatsBE(bytes(pr.cross), n), flags: lowBytesBE(bytes(pr.flags), n),
+      x: floatsBE(bytes(pr.x), n),
+      y: floatsBE(bytes(pr.y), n),
+      dE: floatsBE(bytes(pr.de), n),
+      dN: floatsBE(bytes(pr.dn), n),
+      along: floatsBE(bytes(pr.along), n),
+      cross: floatsBE(bytes(pr.cross), n),
+      flags: lowBytesBE(bytes(pr.flags), n),
       plantId: texts(pr.plant_id as string | null, n),
-      text: Object.fromEntries(DICT_NAMES.map((c) => [c, texts(pr[`t_${c}`] as string | null, n)])) as Record<DictName, string[]>,
+      text: Object.fromEntries(DICT_NAMES.map((c) => [c, texts(pr[`t_${c}`] as string | null, n)])) as Record<
+        DictName,
+        string[]
+      >,
     },
     unpaired: {
-      count: m, x: floatsBE(bytes(ur.x), m), y: floatsBE(bytes(ur.y), m), kind: texts(ur.kind as string | null, m),
-      text: { crop: texts(ur.t_crop as string | null, m), bed: texts(ur.t_bed as string | null, m), row: texts(ur.t_row as string | null, m) },
+      count: m,
+      x: floatsBE(bytes(ur.x), m),
+      y: floatsBE(bytes(ur.y), m),
+      kind: texts(ur.kind as string | null, m),
+      text: {
+        crop: texts(ur.t_crop as string | null, m),
+        bed: texts(ur.t_bed as string | null, m),
+        row: texts(ur.t_row as string | null, m),
+      },
     },
   };
 }
@@ -125,14 +159,34 @@ export async function loadMapColumns(db: DB, { auditId, orgId, origin }: { audit
 const auditInOrg = (auditId: string, orgId: string) => and(eq(audit.id, auditId), eq(audit.orgId, orgId));
 
 /** One pair with everything stored for it (the side panel); null when absent or not in this organisation. */
-export async function getMapPair(db: DB, { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number }): Promise<ResidualRowDto | null> {
+export async function getMapPair(
+  db: DB,
+  { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number },
+): Promise<ResidualRowDto | null> {
   const [row] = await db
     .select({
-      seq: auditResidual.seq, plantId: auditResidual.plantId, surveyId: auditResidual.surveyId, crop: auditResidual.crop, bed: auditResidual.bed,
-      row: auditResidual.row, arm: auditResidual.arm, fix: auditResidual.fix, day: auditResidual.day, plantedE: auditResidual.plantedE,
-      plantedN: auditResidual.plantedN, surveyE: auditResidual.surveyE, surveyN: auditResidual.surveyN, dE: auditResidual.dE, dN: auditResidual.dN,
-      along: auditResidual.along, cross: auditResidual.cross, radial: auditResidual.radial, within: auditResidual.within, outlier: auditResidual.outlier,
-      pairedBy: auditResidual.pairedBy, beyondMaxDistance: auditResidual.beyondMaxDistance,
+      seq: auditResidual.seq,
+      plantId: auditResidual.plantId,
+      surveyId: auditResidual.surveyId,
+      crop: auditResidual.crop,
+      bed: auditResidual.bed,
+      row: auditResidual.row,
+      arm: auditResidual.arm,
+      fix: auditResidual.fix,
+      day: auditResidual.day,
+      plantedE: auditResidual.plantedE,
+      plantedN: auditResidual.plantedN,
+      surveyE: auditResidual.surveyE,
+      surveyN: auditResidual.surveyN,
+      dE: auditResidual.dE,
+      dN: auditResidual.dN,
+      along: auditResidual.along,
+      cross: auditResidual.cross,
+      radial: auditResidual.radial,
+      within: auditResidual.within,
+      outlier: auditResidual.outlier,
+      pairedBy: auditResidual.pairedBy,
+      beyondMaxDistance: auditResidual.beyondMaxDistance,
     })
     .from(auditResidual)
     .innerJoin(audit, eq(audit.id, auditResidual.auditId))
@@ -141,11 +195,21 @@ export async function getMapPair(db: DB, { auditId, orgId, seq }: { auditId: str
 }
 
 /** One unpaired point; null when absent or not in this organisation. */
-export async function getMapUnpaired(db: DB, { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number }): Promise<UnpairedRowDto | null> {
+export async function getMapUnpaired(
+  db: DB,
+  { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number },
+): Promise<UnpairedRowDto | null> {
   const [row] = await db
     .select({
-      seq: auditUnpaired.seq, kind: auditUnpaired.kind, pointId: auditUnpaired.pointId, line: auditUnpaired.line, e: auditUnpaired.e, n: auditUnpaired.n,
-      crop: auditUnpaired.crop, bed: auditUnpaired.bed, row: auditUnpaired.row,
+      seq: auditUnpaired.seq,
+      kind: auditUnpaired.kind,
+      pointId: auditUnpaired.pointId,
+      line: auditUnpaired.line,
+      e: auditUnpaired.e,
+      n: auditUnpaired.n,
+      crop: auditUnpaired.crop,
+      bed: auditUnpaired.bed,
+      row: auditUnpaired.row,
     })
     .from(auditUnpaired)
     .innerJoin(audit, eq(audit.id, auditUnpaired.auditId))
@@ -154,11 +218,21 @@ export async function getMapUnpaired(db: DB, { auditId, orgId, seq }: { auditId:
 }
 
 /** The most recently computed audit of a field that has stored results; null when there is none. */
-export async function getLatestMappedAudit(db: DB, { fieldId, orgId }: { fieldId: string; orgId: string }): Promise<{ id: string } | null> {
+export async function getLatestMappedAudit(
+  db: DB,
+  { fieldId, orgId }: { fieldId: string; orgId: string },
+): Promise<{ id: string } | null> {
   const [row] = await db
     .select({ id: audit.id })
     .from(audit)
-    .where(and(eq(audit.fieldId, fieldId), eq(audit.orgId, orgId), inArray(audit.state, RESULT_STATES), isNotNull(audit.computedAt)))
+    .where(
+      and(
+        eq(audit.fieldId, fieldId),
+        eq(audit.orgId, orgId),
+        inArray(audit.state, RESULT_STATES),
+        isNotNull(audit.computedAt),
+      ),
+    )
     .orderBy(desc(audit.computedAt), asc(audit.id))
     .limit(1);
   return row ?? null;
@@ -166,7 +240,14 @@ export async function getLatestMappedAudit(db: DB, { fieldId, orgId }: { fieldId
 
 /** Per-pair columns of the per-bed summary: bed label, radial, cross, along (NaN unknown), within (1, 0, −1 unknown). */
 export async function loadBedColumns(db: DB, { auditId, orgId }: { auditId: string; orgId: string }) {
-  const res = await db.$client.query<{ n: number; bed: string | null; radial: Uint8Array | null; cross: Uint8Array | null; along: Uint8Array | null; within: string | null }>(
+  const res = await db.$client.query<{
+    n: number;
+    bed: string | null;
+    radial: Uint8Array | null;
+    cross: Uint8Array | null;
+    along: Uint8Array | null;
+    within: string | null;
+  }>(
     `select count(*)::int n, ${textAgg("bed", "bed")}, ${f4Agg("radial", "radial")},
        ${f4Agg("coalesce(\"cross\", 'NaN'::float8)", "cross")}, ${f4Agg("coalesce(along, 'NaN'::float8)", "along")},
        string_agg(case when within is null then 'u' when within then 'w' else 'o' end, '' order by seq) "within"
@@ -177,7 +258,10 @@ export async function loadBedColumns(db: DB, { auditId, orgId }: { auditId: stri
   const n = Number(r.n);
   const w = r.within ?? "";
   return {
-    bed: texts(r.bed, n), radial: floatsBE(r.radial, n), cross: floatsBE(r.cross, n), along: floatsBE(r.along, n),
+    bed: texts(r.bed, n),
+    radial: floatsBE(r.radial, n),
+    cross: floatsBE(r.cross, n),
+    along: floatsBE(r.along, n),
     within: Int8Array.from({ length: n }, (_, i) => (w[i] === "w" ? 1 : w[i] === "o" ? 0 : -1)),
   };
 }
@@ -186,16 +270,36 @@ export async function loadBedColumns(db: DB, { auditId, orgId }: { auditId: stri
  * The grower's summary of a field: its latest audit with results, statistics and guidance per bed.
  * Null when the field is not in this organisation.
  */
-export async function getFieldMapSummary(db: DB, { fieldId, orgId }: { fieldId: string; orgId: string }): Promise<FieldMapDto | null> {
+export async function getFieldMapSummary(
+  db: DB,
+  { fieldId, orgId }: { fieldId: string; orgId: string },
+): Promise<FieldMapDto | null> {
   const f = await getFieldById(db, { id: fieldId, orgId });
   if (!f) return null;
   const latest = await getLatestMappedAudit(db, { fieldId, orgId });
   const a = latest ? await getAuditById(db, { id: latest.id, orgId }) : null;
   const fieldPart = { id: f.id, name: f.name, crs: f.crs };
-  if (!a) return { field: fieldPart, audit: null, profile: null, beds: [], guidance: [], summary: `No audit of ${f.name} has results yet. ${RECORD_ACCURACY_REMINDER}` };
+  if (!a)
+    return {
+      field: fieldPart,
+      audit: null,
+      profile: null,
+      beds: [],
+      guidance: [],
+      summary: `No audit of ${f.name} has results yet. ${RECORD_ACCURACY_REMINDER}`,
+    };
   const p = a.profile;
   const profile: MapProfile | null = p
-    ? { name: p.name, operation: p.operation ?? null, radialM: p.radialM, crossM: p.crossM, alongM: p.alongM, requiredShare: p.requiredShare, confidence: p.confidence, minCheckpoints: p.minCheckpoints }
+    ? {
+        name: p.name,
+        operation: p.operation ?? null,
+        radialM: p.radialM,
+        crossM: p.crossM,
+        alongM: p.alongM,
+        requiredShare: p.requiredShare,
+        confidence: p.confidence,
+        minCheckpoints: p.minCheckpoints,
+      }
     : null;
   const cols = await loadBedColumns(db, { auditId: a.id, orgId });
   const beds = bedStats({ ...cols, confidence: profile?.confidence ?? 0.95 });
@@ -203,6 +307,9 @@ export async function getFieldMapSummary(db: DB, { fieldId, orgId }: { fieldId: 
   return {
     field: fieldPart,
     audit: { id: a.id, title: a.title, state: a.state, computedAt: a.computedAt, pairs: cols.bed.length },
-    profile, beds, guidance, summary: overallGuidance(guidance, profile),
+    profile,
+    beds,
+    guidance,
+    summary: overallGuidance(guidance, profile),
   };
 }

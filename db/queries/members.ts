@@ -14,7 +14,10 @@ export interface Membership {
  * The organisation and role a user acts in: the session's active organisation when set,
  * otherwise the user's first membership.
  */
-export async function getMembershipForUser(db: DB, { userId, activeOrgId }: { userId: string; activeOrgId?: string | null }): Promise<Membership | null> {
+export async function getMembershipForUser(
+  db: DB,
+  { userId, activeOrgId }: { userId: string; activeOrgId?: string | null },
+): Promise<Membership | null> {
   const rows = await db
     .select({ orgId: member.organizationId, orgName: organization.name, role: member.role })
     .from(member)
@@ -41,9 +44,14 @@ export async function listTeamMembers(db: DB, { orgId }: { orgId: string }): Pro
     .innerJoin(user, eq(user.id, member.userId))
     .where(eq(member.organizationId, orgId))
     .orderBy(asc(user.name));
-  return rows.filter((r) => isRole(r.role)).map((r) => ({ ...r, role: r.role as Role, joinedAt: r.joinedAt.toISOString() }));
+  return rows
+    .filter((r) => isRole(r.role))
+    .map((r) => ({ ...r, role: r.role as Role, joinedAt: r.joinedAt.toISOString() }));
 }
 
 export async function setMemberRole(db: DB, { orgId, userId, role }: { orgId: string; userId: string; role: Role }) {
-  await db.update(member).set({ role }).where(and(eq(member.organizationId, orgId), eq(member.userId, userId)));
+  await db
+    .update(member)
+    .set({ role })
+    .where(and(eq(member.organizationId, orgId), eq(member.userId, userId)));
 }

@@ -4,12 +4,20 @@ import type { DB } from "@/db/client";
 import { organization, user } from "@/db/schema";
 
 export function slugFor(name: string, suffix: string): string {
-  const base = name.toLowerCase().normalize("NFKD").replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 40);
+  const base = name
+    .toLowerCase()
+    .normalize("NFKD")
+    .replace(/[^a-z0-9]+/g, "-")
+    .replace(/^-|-$/g, "")
+    .slice(0, 40);
   return `${base || "org"}-${suffix}`;
 }
 
 export async function getOrganisationBySlug(db: DB, { slug }: { slug: string }) {
-  const [row] = await db.select({ id: organization.id, name: organization.name }).from(organization).where(eq(organization.slug, slug));
+  const [row] = await db
+    .select({ id: organization.id, name: organization.name })
+    .from(organization)
+    .where(eq(organization.slug, slug));
   return row ?? null;
 }
 

@@ -12,7 +12,17 @@ describe("crs registry", () => {
       expect(codes.has(`EPSG:${32700 + z}`)).toBe(true);
     }
     for (let z = 28; z <= 38; z++) expect(codes.has(`EPSG:${25800 + z}`)).toBe(true);
-    for (const c of ["EPSG:4326", "EPSG:4258", "EPSG:27700", "EPSG:28992", "EPSG:2193", "EPSG:3035", "EPSG:2056", "EPSG:31467", "EPSG:3006"]) {
+    for (const c of [
+      "EPSG:4326",
+      "EPSG:4258",
+      "EPSG:27700",
+      "EPSG:28992",
+      "EPSG:2193",
+      "EPSG:3035",
+      "EPSG:2056",
+      "EPSG:31467",
+      "EPSG:3006",
+    ]) {
       expect(codes.has(c)).toBe(true);
     }
     for (const c of listCrs()) {
@@ -50,7 +60,9 @@ describe("crs registry", () => {
   });
 
   it("geographicOf / datumShiftBetween -- same datum vs a towgs84 shift", () => {
-    expect(geographicOf(resolveCrs("EPSG:27700").proj4)).toBe("+proj=longlat +ellps=airy +towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489 +no_defs");
+    expect(geographicOf(resolveCrs("EPSG:27700").proj4)).toBe(
+      "+proj=longlat +ellps=airy +towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489 +no_defs",
+    );
     expect(datumShiftBetween(resolveCrs("EPSG:27700").proj4, resolveCrs("EPSG:4326").proj4)).toBe(true);
     expect(datumShiftBetween(resolveCrs("EPSG:25832").proj4, resolveCrs("EPSG:32632").proj4)).toBe(false);
     expect(datumShiftBetween(resolveCrs("EPSG:4258").proj4, resolveCrs("EPSG:4326").proj4)).toBe(false);

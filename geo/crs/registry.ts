@@ -64,42 +64,48 @@ const NATIONAL: CrsEntry[] = [
     code: "EPSG:27700",
     name: "OSGB 1936 / British National Grid",
     kind: "projected",
-    proj4: "+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy +towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489 +units=m +no_defs",
+    proj4:
+      "+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy +towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489 +units=m +no_defs",
     area: [-9.01, 49.75, 2.01, 61.01],
   },
   {
     code: "EPSG:28992",
     name: "Amersfoort / RD New",
     kind: "projected",
-    proj4: "+proj=sterea +lat_0=52.1561605555556 +lon_0=5.38763888888889 +k=0.9999079 +x_0=155000 +y_0=463000 +ellps=bessel +towgs84=565.4171,50.3319,465.5524,1.9342,-1.6677,9.1019,4.0725 +units=m +no_defs",
+    proj4:
+      "+proj=sterea +lat_0=52.1561605555556 +lon_0=5.38763888888889 +k=0.9999079 +x_0=155000 +y_0=463000 +ellps=bessel +towgs84=565.4171,50.3319,465.5524,1.9342,-1.6677,9.1019,4.0725 +units=m +no_defs",
     area: [3.2, 50.75, 7.22, 53.7],
   },
   {
     code: "EPSG:2193",
     name: "NZGD2000 / New Zealand Transverse Mercator 2000",
     kind: "projected",
-    proj4: "+proj=tmerc +lat_0=0 +lon_0=173 +k=0.9996 +x_0=1600000 +y_0=10000000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
+    proj4:
+      "+proj=tmerc +lat_0=0 +lon_0=173 +k=0.9996 +x_0=1600000 +y_0=10000000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
     area: [166.37, -47.33, 178.63, -34.1],
   },
   {
     code: "EPSG:3035",
     name: "ETRS89-extended / LAEA Europe",
     kind: "projected",
-    proj4: "+proj=laea +lat_0=52 +lon_0=10 +x_0=4321000 +y_0=3210000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
+    proj4:
+      "+proj=laea +lat_0=52 +lon_0=10 +x_0=4321000 +y_0=3210000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
     area: [-35.58, 24.6, 44.83, 84.73],
   },
   {
     code: "EPSG:2056",
     name: "CH1903+ / LV95",
     kind: "projected",
-    proj4: "+proj=somerc +lat_0=46.9524055555556 +lon_0=7.43958333333333 +k_0=1 +x_0=2600000 +y_0=1200000 +ellps=bessel +towgs84=674.374,15.056,405.346,0,0,0,0 +units=m +no_defs",
+    proj4:
+      "+proj=somerc +lat_0=46.9524055555556 +lon_0=7.43958333333333 +k_0=1 +x_0=2600000 +y_0=1200000 +ellps=bessel +towgs84=674.374,15.056,405.346,0,0,0,0 +units=m +no_defs",
     area: [5.96, 45.82, 10.49, 47.81],
   },
   {
     code: "EPSG:31467",
     name: "DHDN / 3-degree Gauss-Kruger zone 3",
     kind: "projected",
-    proj4: "+proj=tmerc +lat_0=0 +lon_0=9 +k=1 +x_0=3500000 +y_0=0 +ellps=bessel +towgs84=598.1,73.7,418.2,0.202,0.045,-2.455,6.7 +units=m +no_defs",
+    proj4:
+      "+proj=tmerc +lat_0=0 +lon_0=9 +k=1 +x_0=3500000 +y_0=0 +ellps=bessel +towgs84=598.1,73.7,418.2,0.202,0.045,-2.455,6.7 +units=m +no_defs",
     area: [7.5, 47.27, 10.51, 55.09],
   },
   {
@@ -113,7 +119,8 @@ const NATIONAL: CrsEntry[] = [
     code: "EPSG:2154",
     name: "RGF93 v1 / Lambert-93",
     kind: "projected",
-    proj4: "+proj=lcc +lat_0=46.5 +lon_0=3 +lat_1=49 +lat_2=44 +x_0=700000 +y_0=6600000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
+    proj4:
+      "+proj=lcc +lat_0=46.5 +lon_0=3 +lat_1=49 +lat_2=44 +x_0=700000 +y_0=6600000 +ellps=GRS80 +towgs84=0,0,0,0,0,0,0 +units=m +no_defs",
     area: [-9.86, 41.15, 10.38, 51.56],
   },
 ];
@@ -142,10 +149,16 @@ export function listCrs(): readonly CrsEntry[] {
  * @example findCrs("27700")[0].name // "OSGB 1936 / British National Grid"
  */
 export function findCrs(query: string, near?: { lon: number; lat: number }): CrsEntry[] {
-  const words = query.toLowerCase().replace(/epsg:?/g, "").split(/[\s,/]+/).filter(Boolean);
+  const words = query
+    .toLowerCase()
+    .replace(/epsg:?/g, "")
+    .split(/[\s,/]+/)
+    .filter(Boolean);
   const hits = ENTRIES.filter((e) => {
     const hay = `${e.code.toLowerCase()} ${e.name.toLowerCase()}`;
-    return words.every((w) => (/^\d+$/.test(w) ? new RegExp(`(^|\\D)${w}(\\D|$)`).test(hay) || e.code.endsWith(`:${w}`) : hay.includes(w)));
+    return words.every((w) =>
+      /^\d+$/.test(w) ? new RegExp(`(^|\\D)${w}(\\D|$)`).test(hay) || e.code.endsWith(`:${w}`) : hay.includes(w),
+    );
   });
   // Exact code matches first, then those covering `near`.
   const exact = (e: CrsEntry) => words.length === 1 && e.code.endsWith(`:${words[0]}`);
@@ -173,12 +186,26 @@ export function resolveCrs(spec: string): CrsEntry {
   if (s.startsWith("+")) {
     if (!/\+proj=\w+/.test(s)) throw new Error(`unknown CRS "${spec}": a proj string needs +proj=...`);
     const geographic = /\+proj=(longlat|latlong|lonlat|latlon)\b/.test(s);
-    return { code: "custom", name: `Custom: ${s}`, kind: geographic ? "geographic" : "projected", proj4: s, area: [-180, -90, 180, 90] };
+    return {
+      code: "custom",
+      name: `Custom: ${s}`,
+      kind: geographic ? "geographic" : "projected",
+      proj4: s,
+      area: [-180, -90, 180, 90],
+    };
   }
-  const alias: Record<string, string> = { wgs84: "EPSG:4326", "wgs 84": "EPSG:4326", etrs89: "EPSG:4258", crs84: "EPSG:4326" };
+  const alias: Record<string, string> = {
+    wgs84: "EPSG:4326",
+    "wgs 84": "EPSG:4326",
+    etrs89: "EPSG:4258",
+    crs84: "EPSG:4326",
+  };
   const key = alias[s.toLowerCase()] ?? (/^\d+$/.test(s) ? `EPSG:${s}` : s.toUpperCase().replace(/^EPSG::?/, "EPSG:"));
   const hit = BY_CODE.get(key);
-  if (!hit) throw new Error(`unknown CRS "${spec}": expected one of the bundled EPSG codes (e.g. EPSG:4326, EPSG:32632, EPSG:25832, EPSG:27700) or a proj string starting with +proj=`);
+  if (!hit)
+    throw new Error(
+      `unknown CRS "${spec}": expected one of the bundled EPSG codes (e.g. EPSG:4326, EPSG:32632, EPSG:25832, EPSG:27700) or a proj string starting with +proj=`,
+    );
   return hit;
 }
 
@@ -212,7 +239,8 @@ function datumKey(proj4: string): string {
   if (datum === "WGS84") return "WGS84";
   const towgs = get("towgs84");
   const ellps = get("ellps") ?? (get("a") ? `a${get("a")}` : undefined);
-  if (towgs !== undefined && /^0(,0)*$/.test(towgs.replace(/\.0+/g, "")) && (ellps === "GRS80" || ellps === "WGS84")) return "WGS84";
+  if (towgs !== undefined && /^0(,0)*$/.test(towgs.replace(/\.0+/g, "")) && (ellps === "GRS80" || ellps === "WGS84"))
+    return "WGS84";
   return `${datum ?? ""}|${ellps ?? ""}|${towgs ?? ""}`;
 }
 
@@ -229,6 +257,12 @@ export function datumShiftBetween(a: string, b: string): boolean {
 
 /** True when two proj strings describe the same conversion (same tokens, any order). */
 export function sameDefinition(a: string, b: string): boolean {
-  const norm = (s: string) => s.trim().split(/\s+/).filter((t) => t !== "+no_defs" && t !== "+type=crs").sort().join(" ");
+  const norm = (s: string) =>
+    s
+      .trim()
+      .split(/\s+/)
+      .filter((t) => t !== "+no_defs" && t !== "+type=crs")
+      .sort()
+      .join(" ");
   return norm(a) === norm(b);
 }

@@ -18,7 +18,12 @@ describe("ids", () => {
     expect(idx.lookup("P3")).toBe(4);
     expect(idx.lookup("nope")).toBe(-1);
     expect(idx.lookup("")).toBe(-1);
-    expect(idx.duplicates).toEqual(new Map([["P1", [0, 3, 5]], ["P2", [1, 7]]]));
+    expect(idx.duplicates).toEqual(
+      new Map([
+        ["P1", [0, 3, 5]],
+        ["P2", [1, 7]],
+      ]),
+    );
   });
 
   it("indexIds -- agrees with a Map on many ids with hash collisions in the table", () => {

@@ -35,10 +35,12 @@ export class IdColumn {
 
   /** The id of row i ("" when none). */
   get(i: number): string {
-    const a = this.offsets[i], b = this.offsets[i + 1];
+    const a = this.offsets[i],
+      b = this.offsets[i + 1];
     if (a === b) return "";
     let s = "";
-    for (let k = a; k < b; k += 4096) s += String.fromCharCode.apply(null, this.codes.subarray(k, Math.min(b, k + 4096)) as unknown as number[]);
+    for (let k = a; k < b; k += 4096)
+      s += String.fromCharCode.apply(null, this.codes.subarray(k, Math.min(b, k + 4096)) as unknown as number[]);
     return s;
   }
 
@@ -63,9 +65,12 @@ export class IdColumn {
    * negative, 0 or positive.
    */
   compare(i: number, other: IdColumn, j: number): number {
-    const a = this.codes, b = other.codes;
-    let p = this.offsets[i], q = other.offsets[j];
-    const pe = this.offsets[i + 1], qe = other.offsets[j + 1];
+    const a = this.codes,
+      b = other.codes;
+    let p = this.offsets[i],
+      q = other.offsets[j];
+    const pe = this.offsets[i + 1],
+      qe = other.offsets[j + 1];
     for (; p < pe && q < qe; p++, q++) if (a[p] !== b[q]) return a[p] - b[q];
     return pe - p - (qe - q);
   }
@@ -86,9 +91,11 @@ export class IdColumn {
 
   /** This column followed by `other` (in this column's spare room when it has some, see geo/spare.ts). */
   concat(other: IdColumn): IdColumn {
-    const used = this.offsets[this.length], extra = other.offsets[other.length];
+    const used = this.offsets[this.length],
+      extra = other.offsets[other.length];
     let codes: Uint8Array | Uint16Array;
-    if (this.codes instanceof Uint8Array && other.codes instanceof Uint8Array) codes = appendTo(this.codes.subarray(0, used), extra);
+    if (this.codes instanceof Uint8Array && other.codes instanceof Uint8Array)
+      codes = appendTo(this.codes.subarray(0, used), extra);
     else {
       codes = new Uint16Array(used + extra);
       codes.set(this.codes.subarray(0, used));

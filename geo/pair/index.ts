@@ -71,7 +71,11 @@ export const DEFAULT_MAX_DISTANCE = 0.1;
  * const p = pairPoints(planted, survey, { mode: "nearest", maxDistance: 0.1 });
  * // p.plantedIndex[k] ↔ p.surveyIndex[k], sorted by planted index
  */
-export function pairPoints(planted: PairInput, survey: PairInput, options: PairOptions = {}): Pairing & { notes: PairingNotes } {
+export function pairPoints(
+  planted: PairInput,
+  survey: PairInput,
+  options: PairOptions = {},
+): Pairing & { notes: PairingNotes } {
   const mode = options.mode ?? "auto";
   const maxD = options.maxDistance ?? DEFAULT_MAX_DISTANCE;
   const ratio = options.ambiguityRatio ?? 1.2;
@@ -79,8 +83,12 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
   const maxCand = Math.max(1, options.maxCandidates ?? 16);
   if (!(maxD > 0)) throw new Error(`pairing: maxDistance must be a positive number of metres, got ${maxD}`);
 
-  const np = planted.length, ns = survey.length;
-  const px = planted.x, py = planted.y, sx = survey.x, sy = survey.y;
+  const np = planted.length,
+    ns = survey.length;
+  const px = planted.x,
+    py = planted.y,
+    sx = survey.x,
+    sy = survey.y;
   const partnerOfPlanted = new Int32Array(np).fill(-1);
   const partnerOfSurvey = new Int32Array(ns).fill(-1);
   const pairMethod = new Uint8Array(np);
@@ -91,7 +99,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
   const positionSurvey = new Uint8Array(ns); // 1 = may be paired by position
   if (mode === "nearest") positionSurvey.fill(1);
   if (mode !== "nearest") {
-    const pid = planted.id, sid = survey.id;
+    const pid = planted.id,
+      sid = survey.id;
     if (pid && sid) {
       const index = indexIds(pid);
       for (let s = 0; s < ns; s++) {
@@ -118,7 +127,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
     let nFree = 0;
     for (let i = 0; i < np; i++) if (partnerOfPlanted[i] < 0 && px[i] === px[i] && py[i] === py[i]) nFree++;
     const freeP = new Int32Array(nFree);
-    for (let i = 0, j = 0; i < np; i++) if (partnerOfPlanted[i] < 0 && px[i] === px[i] && py[i] === py[i]) freeP[j++] = i;
+    for (let i = 0, j = 0; i < np; i++)
+      if (partnerOfPlanted[i] < 0 && px[i] === px[i] && py[i] === py[i]) freeP[j++] = i;
     if (nFree > 0) pairByPosition();
 
     function pairByPosition(): void {
@@ -139,12 +149,14 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
       let m = 0;
       const degree = new Int32Array(np);
       const out: number[] = [];
-      let tmpP = new Int32Array(64), tmpD = new Float64Array(64);
+      let tmpP = new Int32Array(64),
+        tmpD = new Float64Array(64);
       const r2 = maxD * maxD;
       for (let q = 0; q < visit.length; q++) {
         const s = visit[q];
         start[s] = m;
-        const qx = sx[s], qy = sy[s];
+        const qx = sx[s],
+          qy = sy[s];
         const k = tree.withinInto(qx, qy, maxD, out);
         if (k === 0) continue;
         if (k > tmpP.length) {
@@ -154,7 +166,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
         let c = 0;
         for (let j = 0; j < k; j++) {
           const p = freeP[out[j]];
-          const dx = px[p] - qx, dy = py[p] - qy;
+          const dx = px[p] - qx,
+            dy = py[p] - qy;
           const d2 = dx * dx + dy * dy;
           if (d2 > r2) continue;
           tmpP[c] = p;
@@ -166,7 +179,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
         if (c > 1) {
           order = [];
           for (let j = 0; j < c; j++) order.push(j);
-          const tp = tmpP, td = tmpD;
+          const tp = tmpP,
+            td = tmpD;
           order.sort((a, b) => td[a] - td[b] || cmpPlanted(tp[a], tp[b]));
           if (c > maxCand) c = maxCand;
         }
@@ -196,7 +210,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
       // Isolated edges (the survey point's only candidate, and the plant's only one) are taken directly.
       const contested: number[] = [];
       for (let e = 0; e < m; ) {
-        const s = edgeS[e], c = cnt[s];
+        const s = edgeS[e],
+          c = cnt[s];
         if (c === 1 && degree[edgeP[e]] === 1) {
           const p = edgeP[e];
           partnerOfPlanted[p] = s;
@@ -209,7 +224,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
 
       contested.sort((e, f) => edgeD[e] - edgeD[f] || cmpSurvey(edgeS[e], edgeS[f]) || cmpPlanted(edgeP[e], edgeP[f]));
       for (const e of contested) {
-        const s = edgeS[e], p = edgeP[e];
+        const s = edgeS[e],
+          p = edgeP[e];
         if (partnerOfSurvey[s] >= 0 || ambiguous[s] || partnerOfPlanted[p] >= 0) continue;
         // p is s's nearest free plant: earlier edges of s were skipped only because their plant was taken.
         const d1 = edgeD[e];
@@ -247,7 +263,8 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
   const method = new Uint8Array(count);
   const beyond = new Uint8Array(count);
   const unmatchedPlanted = new Int32Array(np - count);
-  let k = 0, u = 0;
+  let k = 0,
+    u = 0;
   for (let p = 0; p < np; p++) {
     const s = partnerOfPlanted[p];
     if (s < 0) {
@@ -267,12 +284,22 @@ export function pairPoints(planted: PairInput, survey: PairInput, options: PairO
   for (let s = 0; s < ns; s++) if (ambiguous[s]) nAmb++;
   const ambiguousSurvey = new Int32Array(nAmb);
   const unmatchedSurvey = new Int32Array(ns - count - nAmb);
-  let a = 0, b = 0;
+  let a = 0,
+    b = 0;
   for (let s = 0; s < ns; s++) {
     if (ambiguous[s]) ambiguousSurvey[a++] = s;
     else if (partnerOfSurvey[s] < 0) unmatchedSurvey[b++] = s;
   }
-  return { plantedIndex, surveyIndex, method, beyondMaxDistance: beyond, unmatchedPlanted, unmatchedSurvey, ambiguousSurvey, notes };
+  return {
+    plantedIndex,
+    surveyIndex,
+    method,
+    beyondMaxDistance: beyond,
+    unmatchedPlanted,
+    unmatchedSurvey,
+    ambiguousSurvey,
+    notes,
+  };
 }
 
 /**
@@ -292,11 +319,14 @@ function spatialOrder(x: Float64Array, y: Float64Array, use: Uint8Array): Int32A
   // Already in walking order (consecutive points close together, the usual survey file)? Keep it.
   const steps: number[] = [];
   const stride = Math.max(1, Math.floor(count / 2000));
-  for (let j = 0; j + 1 < count; j += stride) steps.push(Math.hypot(x[idx[j + 1]] - x[idx[j]], y[idx[j + 1]] - y[idx[j]]));
+  for (let j = 0; j + 1 < count; j += stride)
+    steps.push(Math.hypot(x[idx[j + 1]] - x[idx[j]], y[idx[j + 1]] - y[idx[j]]));
   steps.sort((p, q) => p - q);
-  const [x0, x1] = spread(x, idx), [y0, y1] = spread(y, idx);
+  const [x0, x1] = spread(x, idx),
+    [y0, y1] = spread(y, idx);
   if (steps[steps.length >> 1] < Math.max(x1 - x0, y1 - y0) / 1000) return idx;
-  const fx = x1 > x0 ? 1023 / (x1 - x0) : 0, fy = y1 > y0 ? 1023 / (y1 - y0) : 0;
+  const fx = x1 > x0 ? 1023 / (x1 - x0) : 0,
+    fy = y1 > y0 ? 1023 / (y1 - y0) : 0;
   const cells = new Int32Array(count);
   const counts = new Int32Array(1024 * 1024 + 1);
   for (let j = 0; j < count; j++) {

@@ -6,9 +6,11 @@ import { prepareAudit } from "./index";
 // End-to-end of the pure core on a tiny fictional field (truth by construction): records in
 // WGS 84 lat/lon, survey in UTM 32N without ids, 3 mm off each plant.
 async function files(n = 30, surveyShift = 0.003) {
-  const p = ["plant_id,bed,row,lat,lon"], s = ["easting,northing"];
+  const p = ["plant_id,bed,row,lat,lon"],
+    s = ["easting,northing"];
   for (let i = 0; i < n; i++) {
-    const lat = 52.3 + (i % 10) * 0.25 / 111_200, lon = 9.77 + Math.floor(i / 10) * 0.5 / 68_000;
+    const lat = 52.3 + ((i % 10) * 0.25) / 111_200,
+      lon = 9.77 + (Math.floor(i / 10) * 0.5) / 68_000;
     p.push(`P${i},1,${Math.floor(i / 10) + 1},${lat.toFixed(9)},${lon.toFixed(9)}`);
     const [e, nn] = convertPoint(lon, lat, "EPSG:4326", "EPSG:32632");
     s.push(`${(e + surveyShift).toFixed(4)},${nn.toFixed(4)}`);
@@ -56,7 +58,11 @@ describe("prepareAudit", () => {
 
   it("prepareAudit -- few pairs and a given row bearing", async () => {
     const { planted, survey } = await files(12);
-    const r = prepareAudit({ table: planted.table!, crs: "EPSG:4326" }, { table: survey.table!, crs: "EPSG:32632" }, { rowBearingDeg: 200 });
+    const r = prepareAudit(
+      { table: planted.table!, crs: "EPSG:4326" },
+      { table: survey.table!, crs: "EPSG:32632" },
+      { rowBearingDeg: 200 },
+    );
     if (!r.ok) throw new Error("expected ok");
     expect(r.issues.map((i) => i.code)).toEqual(["few-points", "few-pairs"]);
     expect(r.rowBearing).toMatchObject({ bearingDeg: 20, given: true });

@@ -67,11 +67,18 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
     try {
       return resolveCrs(f.crs);
     } catch (e) {
-      issues.push({ severity: "error", code: "crs-unknown", file: f.table.source, value: f.crs, message: (e as Error).message });
+      issues.push({
+        severity: "error",
+        code: "crs-unknown",
+        file: f.table.source,
+        value: f.crs,
+        message: (e as Error).message,
+      });
       return null;
     }
   };
-  const pc = crsOf(planted), sc = crsOf(survey);
+  const pc = crsOf(planted),
+    sc = crsOf(survey);
   if (!pc || !sc) return { ok: false, issues };
 
   issues.push(...validateTable(planted.table, pc, { columns: planted.columns, issueCap: options.issueCap }));
@@ -85,7 +92,13 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
       { table: survey.table, crs: sc },
     ]);
   } catch (e) {
-    issues.push({ severity: "error", code: "work-crs-invalid", file: planted.table.source, value: options.workCrs, message: (e as Error).message });
+    issues.push({
+      severity: "error",
+      code: "work-crs-invalid",
+      file: planted.table.source,
+      value: options.workCrs,
+      message: (e as Error).message,
+    });
     return { ok: false, issues };
   }
   stage("project");
@@ -122,7 +135,12 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
     return { ok: false, issues };
   }
   if (n < 20) {
-    issues.push({ severity: "warning", code: "few-pairs", file, message: `only ${n} pair(s); at least 20 checkpoints are needed for an NSSDA accuracy statement (FGDC-STD-007.3-1998 §3.2.2)` });
+    issues.push({
+      severity: "warning",
+      code: "few-pairs",
+      file,
+      message: `only ${n} pair(s); at least 20 checkpoints are needed for an NSSDA accuracy statement (FGDC-STD-007.3-1998 §3.2.2)`,
+    });
   }
   if (notes.surveyIdsNotFound > 0) {
     issues.push({
@@ -135,7 +153,12 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
   let beyond = 0;
   for (let k = 0; k < n; k++) beyond += pairs.beyondMaxDistance[k];
   if (beyond > 0) {
-    issues.push({ severity: "warning", code: "pair-beyond-max-distance", file, message: `${beyond} pair(s) matched by id lie farther apart than ${maxDistance} m; they are kept and flagged` });
+    issues.push({
+      severity: "warning",
+      code: "pair-beyond-max-distance",
+      file,
+      message: `${beyond} pair(s) matched by id lie farther apart than ${maxDistance} m; they are kept and flagged`,
+    });
   }
   if (pairs.ambiguousSurvey.length > 0) {
     issues.push({

@@ -8,8 +8,20 @@ import { convertArrays, convertPoint, projectTable, resolveWorkCrs, toLonLat } f
 const own = (code: string) => geographicOf(resolveCrs(code).proj4);
 
 const table = (x: number[], y: number[], extra: Partial<PointTable> = {}): PointTable => ({
-  source: "t.csv", role: "planted", length: x.length, x: Float64Array.from(x), y: Float64Array.from(y),
-  line: Int32Array.from(x.map((_, i) => i + 2)), id: null, attrs: {}, time: null, hdop: null, precision: null, rawX: null, rawY: null, ...extra,
+  source: "t.csv",
+  role: "planted",
+  length: x.length,
+  x: Float64Array.from(x),
+  y: Float64Array.from(y),
+  line: Int32Array.from(x.map((_, i) => i + 2)),
+  id: null,
+  attrs: {},
+  time: null,
+  hdop: null,
+  precision: null,
+  rawX: null,
+  rawY: null,
+  ...extra,
 });
 
 describe("projection", () => {
@@ -51,7 +63,11 @@ describe("projection", () => {
   it("convertPoint -- southern UTM zone mirrors the northern one", () => {
     // UTM definition: southern zones add a false northing of 10 000 000 m, and transverse Mercator is
     // symmetric about the equator, so N_south(lon, -lat) = 10 000 000 − N_north(lon, lat) — from memory (NGA.SIG.0012, UTM/UPS)
-    for (const [lon, lat] of [[171.3, 34.4], [174.8, 41.3], [168.0, 5.0]]) {
+    for (const [lon, lat] of [
+      [171.3, 34.4],
+      [174.8, 41.3],
+      [168.0, 5.0],
+    ]) {
       const [en, nn] = convertPoint(lon, lat, "EPSG:4326", "EPSG:32659");
       const [es, ns] = convertPoint(lon, -lat, "EPSG:4326", "EPSG:32759");
       expect(Math.abs(es - en)).toBeLessThan(1e-6);
@@ -65,7 +81,8 @@ describe("projection", () => {
   });
 
   it("convertArrays -- identical definitions return the same arrays; NaN stays NaN", () => {
-    const x = Float64Array.from([500000, NaN]), y = Float64Array.from([5800000, 1]);
+    const x = Float64Array.from([500000, NaN]),
+      y = Float64Array.from([5800000, 1]);
     const [ox, oy] = convertArrays(x, y, "EPSG:32632", "EPSG:32632");
     expect(ox).toBe(x);
     expect(oy).toBe(y);
@@ -92,7 +109,10 @@ describe("projection", () => {
   });
 
   it("projectTable -- projects positions and raw GNSS, leaves the input untouched", () => {
-    const t = table([9.1, 9.2], [52.1, 52.2], { rawX: Float64Array.from([9.1000001, NaN]), rawY: Float64Array.from([52.1, NaN]) });
+    const t = table([9.1, 9.2], [52.1, 52.2], {
+      rawX: Float64Array.from([9.1000001, NaN]),
+      rawY: Float64Array.from([52.1, NaN]),
+    });
     const copy = structuredClone(t);
     const p = projectTable(t, "EPSG:4326", "EPSG:32632");
     expect(p.crs).toBe("EPSG:32632");
@@ -104,10 +124,14 @@ describe("projection", () => {
   });
 
   it("resolveWorkCrs -- auto picks the UTM zone of the data, hemisphere aware", () => {
-    expect(resolveWorkCrs("auto", [{ table: table([9.1, 9.2], [52.1, 52.2]), crs: "EPSG:4326" }]).code).toBe("EPSG:32632");
+    expect(resolveWorkCrs("auto", [{ table: table([9.1, 9.2], [52.1, 52.2]), crs: "EPSG:4326" }]).code).toBe(
+      "EPSG:32632",
+    );
     expect(resolveWorkCrs("auto", [{ table: table([1576041], [6188574]), crs: "EPSG:2193" }]).code).toBe("EPSG:32759"); // 172.74°E → zone 59
     expect(resolveWorkCrs("EPSG:25832", []).code).toBe("EPSG:25832");
     expect(() => resolveWorkCrs("EPSG:4326", [])).toThrow(/geographic/);
-    expect(() => resolveWorkCrs("auto", [{ table: table([NaN], [NaN]), crs: "EPSG:4326" }])).toThrow(/no finite positions/);
+    expect(() => resolveWorkCrs("auto", [{ table: table([NaN], [NaN]), crs: "EPSG:4326" }])).toThrow(
+      /no finite positions/,
+    );
   });
 });

@@ -69,14 +69,18 @@ export function convertArrays(
   from: CrsLike,
   to: CrsLike,
 ): [Float64Array, Float64Array] {
-  const fe = entry(from), te = entry(to);
-  const f = fe.proj4, t = te.proj4;
+  const fe = entry(from),
+    te = entry(to);
+  const f = fe.proj4,
+    t = te.proj4;
   if (sameDefinition(f, t)) return [x, y];
   const c = converter(f, t);
   const n = x.length;
-  const ox = new Float64Array(n), oy = new Float64Array(n);
+  const ox = new Float64Array(n),
+    oy = new Float64Array(n);
   const slow = (i: number, p: number[]) => {
-    const xi = x[i], yi = y[i];
+    const xi = x[i],
+      yi = y[i];
     if (xi !== xi || yi !== yi) {
       ox[i] = NaN;
       oy[i] = NaN;
@@ -100,7 +104,8 @@ export function convertArrays(
     const dest = projObject(t);
     const pt = { x: 0, y: 0 };
     for (let i = 0; i < n; i++) {
-      const xi = x[i], yi = y[i];
+      const xi = x[i],
+        yi = y[i];
       if (xi !== xi || yi !== yi || yi > 90 || yi < -90) {
         slow(i, p);
         continue;
@@ -123,9 +128,11 @@ export function convertArrays(
 
 /** True when calling the target projection's `forward` on radians equals proj4's full conversion on sample points. */
 function fastPathAgrees(x: Float64Array, y: Float64Array, f: string, t: string, c: proj4.Converter): boolean {
-  const src = projObject(f), dest = projObject(t);
+  const src = projObject(f),
+    dest = projObject(t);
   if (src.projName !== "longlat" || src.from_greenwich || dest.from_greenwich) return false;
-  if ((dest.to_meter !== undefined && dest.to_meter !== 1) || (dest.axis !== undefined && dest.axis !== "enu")) return false;
+  if ((dest.to_meter !== undefined && dest.to_meter !== 1) || (dest.axis !== undefined && dest.axis !== "enu"))
+    return false;
   const n = x.length;
   let checked = 0;
   for (let k = 0; k < 16; k++) {
@@ -171,10 +178,12 @@ export function toLonLat(x: number, y: number, crs: CrsLike): [number, number] {
  * const p = projectTable(table, "EPSG:4326", "EPSG:32632"); // p.crs === "EPSG:32632"
  */
 export function projectTable(table: PointTable, from: CrsLike, to: CrsLike): ProjectedTable {
-  const f = entry(from), t = entry(to);
+  const f = entry(from),
+    t = entry(to);
   if (t.kind !== "projected") throw new Error(`work CRS "${t.code}" is geographic; expected a projected CRS in metres`);
   const [x, y] = convertArrays(table.x, table.y, f, t);
-  let rawX = table.rawX, rawY = table.rawY;
+  let rawX = table.rawX,
+    rawY = table.rawY;
   if (rawX && rawY) [rawX, rawY] = convertArrays(rawX, rawY, f, t);
   return { ...table, x, y, rawX, rawY, crs: t.code === "custom" ? t.proj4 : t.code };
 }
@@ -213,10 +222,13 @@ export function centreLonLat(table: PointTable, crs: CrsLike): [number, number] 
 export function resolveWorkCrs(spec: string, tables: readonly { table: PointTable; crs: CrsLike }[]): CrsEntry {
   if (spec.trim().toLowerCase() !== "auto") {
     const e = resolveCrs(spec);
-    if (e.kind !== "projected") throw new Error(`work CRS "${spec}" is geographic; expected a projected CRS in metres, or auto`);
+    if (e.kind !== "projected")
+      throw new Error(`work CRS "${spec}" is geographic; expected a projected CRS in metres, or auto`);
     return e;
   }
-  let lon = 0, lat = 0, k = 0;
+  let lon = 0,
+    lat = 0,
+    k = 0;
   for (const { table, crs } of tables) {
     const [l, b] = centreLonLat(table, crs);
     if (Number.isFinite(l) && Number.isFinite(b)) {

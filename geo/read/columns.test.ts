@@ -10,9 +10,33 @@ describe("columns", () => {
   });
 
   it("planColumns -- guesses geographic roles and attributes", () => {
-    const p = planColumns(["Plant ID", "Crop", "Bed", "Row", "Tool_Arm", "Fix Quality", "HDOP", "planted_at", "Latitude", "Lng", "raw_lat", "raw_lon", "note"]);
+    const p = planColumns([
+      "Plant ID",
+      "Crop",
+      "Bed",
+      "Row",
+      "Tool_Arm",
+      "Fix Quality",
+      "HDOP",
+      "planted_at",
+      "Latitude",
+      "Lng",
+      "raw_lat",
+      "raw_lon",
+      "note",
+    ]);
     expect(p.guess.coordinates).toBe("geographic");
-    expect(p.guess.columns).toMatchObject({ id: "Plant ID", y: "Latitude", x: "Lng", arm: "Tool_Arm", fix: "Fix Quality", time: "planted_at", rawX: "raw_lon", rawY: "raw_lat", hdop: "HDOP" });
+    expect(p.guess.columns).toMatchObject({
+      id: "Plant ID",
+      y: "Latitude",
+      x: "Lng",
+      arm: "Tool_Arm",
+      fix: "Fix Quality",
+      time: "planted_at",
+      rawX: "raw_lon",
+      rawY: "raw_lat",
+      hdop: "HDOP",
+    });
     expect(p.guess.rawCoordinates).toBe("geographic");
     expect(p.guess.unused).toEqual(["note"]);
     expect(p.problems).toEqual([]);
@@ -80,7 +104,9 @@ describe("columns", () => {
     const p = planColumns(["id", "lat", "lon", "easting", "northing"]);
     expect(p.guess.coordinates).toBe("geographic");
     expect(p.problems.map((x) => x.code)).toEqual(["coordinates-both-kinds"]);
-    expect(planColumns(["id", "lat", "lon", "easting", "northing"], { coordinates: "projected" }).guess.columns.x).toBe("easting");
+    expect(planColumns(["id", "lat", "lon", "easting", "northing"], { coordinates: "projected" }).guess.columns.x).toBe(
+      "easting",
+    );
   });
 
   it("planColumns -- raw GNSS of another kind than the main coordinates is dropped with a warning", () => {

@@ -6,8 +6,21 @@
 
 /** A column the reader knows how to use. `x`/`y` are longitude/latitude or easting/northing. */
 export const COLUMN_ROLES = [
-  "id", "x", "y", "crop", "bed", "row", "cell", "arm", "fix", "method",
-  "hdop", "time", "precision", "rawX", "rawY",
+  "id",
+  "x",
+  "y",
+  "crop",
+  "bed",
+  "row",
+  "cell",
+  "arm",
+  "fix",
+  "method",
+  "hdop",
+  "time",
+  "precision",
+  "rawX",
+  "rawY",
 ] as const;
 export type ColumnRole = (typeof COLUMN_ROLES)[number];
 
@@ -123,8 +136,10 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
     return i;
   };
 
-  const lat = find(NAMES.lat), lon = find(NAMES.lon);
-  const east = find(NAMES.easting), north = find(NAMES.northing);
+  const lat = find(NAMES.lat),
+    lon = find(NAMES.lon);
+  const east = find(NAMES.easting),
+    north = find(NAMES.northing);
   const hasGeo = lat >= 0 && lon >= 0;
   const hasProj = east >= 0 && north >= 0;
 
@@ -159,8 +174,10 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
   index.time = find(NAMES.time);
   index.precision = find(NAMES.precision);
 
-  const rawLat = find(NAMES.rawLat), rawLon = find(NAMES.rawLon);
-  const rawE = find(NAMES.rawEasting), rawN = find(NAMES.rawNorthing);
+  const rawLat = find(NAMES.rawLat),
+    rawLon = find(NAMES.rawLon);
+  const rawE = find(NAMES.rawEasting),
+    rawN = find(NAMES.rawNorthing);
   let rawKind: CoordinateKind | null = null;
   if (rawLat >= 0 && rawLon >= 0 && (kind === "geographic" || !(rawE >= 0 && rawN >= 0))) {
     rawKind = "geographic";
@@ -180,9 +197,18 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
   }
   for (const role of ["x", "y"] as const) {
     if (mapping[role] !== null) continue;
-    const what = role === "x"
-      ? (kind === "projected" ? "easting" : kind === "geographic" ? "longitude" : "longitude or easting")
-      : (kind === "projected" ? "northing" : kind === "geographic" ? "latitude" : "latitude or northing");
+    const what =
+      role === "x"
+        ? kind === "projected"
+          ? "easting"
+          : kind === "geographic"
+            ? "longitude"
+            : "longitude or easting"
+        : kind === "projected"
+          ? "northing"
+          : kind === "geographic"
+            ? "latitude"
+            : "latitude or northing";
     problems.push({
       code: "mapping-coordinate-not-in-file",
       severity: "error",
@@ -198,7 +224,12 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
   if ((named("rawX") || named("rawY")) && rawKind === null) rawKind = kind;
 
   if ((index.x < 0 && mapping.x !== null) || (index.y < 0 && mapping.y !== null)) {
-    const what = kind === "projected" ? "easting and northing" : kind === "geographic" ? "latitude and longitude" : "latitude/longitude or easting/northing";
+    const what =
+      kind === "projected"
+        ? "easting and northing"
+        : kind === "geographic"
+          ? "latitude and longitude"
+          : "latitude/longitude or easting/northing";
     problems.push({
       code: "coordinate-columns-missing",
       severity: "error",
@@ -215,7 +246,7 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
     index.rawY = -1;
     rawKind = null;
   }
-  if ((index.rawX >= 0) !== (index.rawY >= 0)) {
+  if (index.rawX >= 0 !== index.rawY >= 0) {
     index.rawX = -1;
     index.rawY = -1;
     rawKind = null;

@@ -13,7 +13,8 @@ const enc = new TextEncoder();
 
 async function* chunksOf(text: string, sizes: number[]): AsyncGenerator<Uint8Array> {
   const bytes = enc.encode(text);
-  let i = 0, k = 0;
+  let i = 0,
+    k = 0;
   while (i < bytes.length) {
     const n = Math.max(1, sizes[k++ % sizes.length]);
     yield bytes.subarray(i, i + n);
@@ -23,7 +24,10 @@ async function* chunksOf(text: string, sizes: number[]): AsyncGenerator<Uint8Arr
 
 describe("csv", () => {
   it("readCsv -- comma file with header variants", async () => {
-    const r = await readCsv("plant_id,crop,bed,row,Latitude,Longitude\nP1,lettuce,B1,1,52.1,9.2\nP2,lettuce,B1,2,52.2,9.3\n", opts);
+    const r = await readCsv(
+      "plant_id,crop,bed,row,Latitude,Longitude\nP1,lettuce,B1,1,52.1,9.2\nP2,lettuce,B1,2,52.2,9.3\n",
+      opts,
+    );
     expect(r.issues).toEqual([]);
     const t = r.table!;
     expect(t.length).toBe(2);
@@ -45,7 +49,10 @@ describe("csv", () => {
   });
 
   it("readCsv -- tab delimiter and projected columns", async () => {
-    const r = await readCsv("Easting\tNorthing\tsigma\n552300.1234\t5794100.5\t0.008\n", { source: "survey.txt", role: "survey" });
+    const r = await readCsv("Easting\tNorthing\tsigma\n552300.1234\t5794100.5\t0.008\n", {
+      source: "survey.txt",
+      role: "survey",
+    });
     expect(r.columns.coordinates).toBe("projected");
     expect(r.table!.x[0]).toBe(552300.1234);
     expect(r.table!.precision![0]).toBe(0.008);
@@ -69,7 +76,13 @@ describe("csv", () => {
     const r = await readCsv(rows.join("\n"), opts);
     expect(r.table).toBeNull();
     expect(r.issues).toEqual([
-      expect.objectContaining({ severity: "error", code: "coordinate-not-numeric", line: 57, column: "lat", value: "n/a" }),
+      expect.objectContaining({
+        severity: "error",
+        code: "coordinate-not-numeric",
+        line: 57,
+        column: "lat",
+        value: "n/a",
+      }),
     ]);
   });
 
@@ -96,7 +109,10 @@ describe("csv", () => {
       yield "id,lat,lon\n";
       throw new Error("EACCES: permission denied");
     })();
-    expect((await readCsv(failing, opts)).issues[0]).toMatchObject({ code: "file-unreadable", message: "EACCES: permission denied" });
+    expect((await readCsv(failing, opts)).issues[0]).toMatchObject({
+      code: "file-unreadable",
+      message: "EACCES: permission denied",
+    });
   });
 
   it("readCsv -- caps repeated issues at 50 plus a count", async () => {
@@ -107,7 +123,10 @@ describe("csv", () => {
   });
 
   it("readCsv -- explicit mapping overrides guessing", async () => {
-    const r = await readCsv("a,b,c\nP1,552300,5794100\n", { ...opts, mapping: { id: "a", x: "b", y: "c", coordinates: "projected" } });
+    const r = await readCsv("a,b,c\nP1,552300,5794100\n", {
+      ...opts,
+      mapping: { id: "a", x: "b", y: "c", coordinates: "projected" },
+    });
     expect(r.table!.id!.toArray()).toEqual(["P1"]);
     expect(r.columns.columns).toMatchObject({ id: "a", x: "b", y: "c" });
     expect(r.columns.coordinates).toBe("projected");
@@ -131,7 +150,8 @@ describe("csv", () => {
   });
 
   it("readCsv -- times, raw GNSS, fix and missing ids", async () => {
-    const text = "id,fix,time,lat,lon,raw_lat,raw_lon\nP1,4,2025-05-03T08:00:00Z,52,9,52.0000001,9.0000002\n,RTK float,2025-05-03 10:00,52,9,,\n";
+    const text =
+      "id,fix,time,lat,lon,raw_lat,raw_lon\nP1,4,2025-05-03T08:00:00Z,52,9,52.0000001,9.0000002\n,RTK float,2025-05-03 10:00,52,9,,\n";
     const r = await readCsv(text, opts);
     const t = r.table!;
     expect(t.attrs.fix!.values).toEqual(["rtk-fixed", "rtk-float"]);
@@ -149,11 +169,15 @@ describe("csv", () => {
     const text = '\uFEFFid;crop;lat;lon\r\n"P;1";Möhre;52,1;9,2\r\nP2;"Kohl\r\nrabi";52,2;9,3\r\nP3;Möhre;52,3;9,4\r\n';
     const whole = await readCsv(text, opts);
     await fc.assert(
-      fc.asyncProperty(fc.array(fc.integer({ min: 1, max: 17 }), { minLength: 1, maxLength: 8 }), fc.integer({ min: 1, max: 40 }), async (sizes, slice) => {
-        const r = await readCsv(chunksOf(text, sizes), { ...opts, sliceChars: slice });
-        expect(r.issues).toEqual(whole.issues);
-        expect(r.table).toEqual(whole.table);
-      }),
+      fc.asyncProperty(
+        fc.array(fc.integer({ min: 1, max: 17 }), { minLength: 1, maxLength: 8 }),
+        fc.integer({ min: 1, max: 40 }),
+        async (sizes, slice) => {
+          const r = await readCsv(chunksOf(text, sizes), { ...opts, sliceChars: slice });
+          expect(r.issues).toEqual(whole.issues);
+          expect(r.table).toEqual(whole.table);
+        },
+      ),
       { numRuns: 60 },
     );
     expect(whole.table!.attrs.crop!.values).toEqual(["Möhre", "Kohl\r\nrabi"]);
@@ -165,10 +189,20 @@ describe("csv", () => {
     const cell = fc.stringMatching(/^[A-Za-z0-9 ._-]{0,6}$/);
     await fc.assert(
       fc.asyncProperty(
-        fc.array(fc.tuple(cell, fc.double({ min: -89, max: 89, noNaN: true }), fc.double({ min: -179, max: 179, noNaN: true })), { minLength: 1, maxLength: 40 }),
+        fc.array(
+          fc.tuple(
+            cell,
+            fc.double({ min: -89, max: 89, noNaN: true }),
+            fc.double({ min: -179, max: 179, noNaN: true }),
+          ),
+          { minLength: 1, maxLength: 40 },
+        ),
         fc.constantFrom(",", ";", "\t"),
         async (rows, d) => {
-          const text = [["plant_id", "lat", "lon"].join(d), ...rows.map(([id, a, b]) => [id.trim() || "X", String(a), String(b)].join(d))].join("\n");
+          const text = [
+            ["plant_id", "lat", "lon"].join(d),
+            ...rows.map(([id, a, b]) => [id.trim() || "X", String(a), String(b)].join(d)),
+          ].join("\n");
           const oracle = Papa.parse<string[]>(text, { delimiter: d, skipEmptyLines: true }).data.slice(1);
           const r = await readCsv(text, { ...opts, sliceChars: 64 });
           expect(r.table!.id!.toArray()).toEqual(oracle.map((o) => o[0].trim()));
@@ -192,7 +226,17 @@ describe("csv", () => {
       }),
       { numRuns: 2000 },
     );
-    for (const s of ["0.1", "-0.000000123", "552300.1234", "5794100.0001", "007", "1e5", "9007199254740993", ".5", "5."]) {
+    for (const s of [
+      "0.1",
+      "-0.000000123",
+      "552300.1234",
+      "5794100.0001",
+      "007",
+      "1e5",
+      "9007199254740993",
+      ".5",
+      "5.",
+    ]) {
       parseSpanTo(s, 0, s.length, false, out);
       expect(out[0]).toBe(Number(s));
     }

@@ -169,7 +169,11 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
         stopped = true;
         return;
       }
-      sink = new RowSink(plan, { source: file, role: options.role, timeZone: options.timeZone, decimalComma: delimiter !== "," }, issues);
+      sink = new RowSink(
+        plan,
+        { source: file, role: options.role, timeZone: options.timeZone, decimalComma: delimiter !== "," },
+        issues,
+      );
     }
     const s = sink!;
     const errorRows = new Map<number, string>();
@@ -178,11 +182,18 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       const row = rows[r];
       line++;
       const at = line;
-      if (slowPath) for (const cell of row) for (let k = cell.indexOf("\n"); k >= 0; k = cell.indexOf("\n", k + 1)) line++;
+      if (slowPath)
+        for (const cell of row) for (let k = cell.indexOf("\n"); k >= 0; k = cell.indexOf("\n", k + 1)) line++;
       if (row.length === 1 && row[0].trim() === "") continue;
       const err = errorRows.get(r);
       if (err !== undefined) {
-        issues.add({ severity: "error", code: "csv-malformed", file, line: at, message: `the row cannot be split into fields: ${err}` });
+        issues.add({
+          severity: "error",
+          code: "csv-malformed",
+          file,
+          line: at,
+          message: `the row cannot be split into fields: ${err}`,
+        });
         continue;
       }
       s.add(row, at);
@@ -197,7 +208,8 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
    */
   const fastParse = (text: string, last: boolean): number => {
     const s = sink!;
-    const starts = s.starts, ends = s.ends;
+    const starts = s.starts,
+      ends = s.ends;
     const lastNeeded = s.lastNeeded;
     const nlCode = newline === "\r" ? 13 : 10;
     const crlf = newline === "\r\n";
@@ -207,7 +219,9 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
     for (;;) {
       if (pos >= n) break;
       // One pass over the row's characters: field boundaries up to the newline.
-      let f = 0, a = pos, j = pos;
+      let f = 0,
+        a = pos,
+        j = pos;
       for (; j < n; j++) {
         const c = text.charCodeAt(j);
         if (c === dc) {
@@ -260,7 +274,11 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       return;
     }
     const p = parser!;
-    const res = p.parse(text, 0, !last) as { data: string[][]; errors: { row?: number; message: string }[]; meta: { cursor: number } };
+    const res = p.parse(text, 0, !last) as {
+      data: string[][];
+      errors: { row?: number; message: string }[];
+      meta: { cursor: number };
+    };
     pending = last ? "" : text.substring(res.meta.cursor);
     handle(res.data, quoted, res.errors);
   };
@@ -286,7 +304,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
           code: "row-too-long",
           file,
           line: line + 1,
-          message: "a row is longer than 32 MB; probably a quote (\") is not closed",
+          message: 'a row is longer than 32 MB; probably a quote (") is not closed',
         });
         stopped = true;
       }
@@ -308,7 +326,12 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   }
 
   if (!sawHeader && !issues.hasErrors()) {
-    issues.add({ severity: "error", code: "file-empty", file, message: "the file is empty; expected a header line and one row per point" });
+    issues.add({
+      severity: "error",
+      code: "file-empty",
+      file,
+      message: "the file is empty; expected a header line and one row per point",
+    });
   }
   if (sink === null) return { table: null, issues: issues.finish(), columns };
   const done = sink as RowSink;
@@ -316,8 +339,20 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   const tally = done.tally();
   issues.addAll(tallyIssues(tally, file));
   if (table.length === 0 && !issues.hasErrors()) {
-    issues.add({ severity: "error", code: "file-no-rows", file, message: "the file has a header but no rows with a position" });
+    issues.add({
+      severity: "error",
+      code: "file-no-rows",
+      file,
+      message: "the file has a header but no rows with a position",
+    });
   }
   const list = issues.finish();
-  return { table: list.some((i) => i.severity === "error") ? null : table, issues: list, columns, tally, linesRead: line, sawQuote };
+  return {
+    table: list.some((i) => i.severity === "error") ? null : table,
+    issues: list,
+    columns,
+    tally,
+    linesRead: line,
+    sawQuote,
+  };
 }

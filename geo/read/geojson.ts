@@ -27,14 +27,20 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   try {
     const text = await readAllText(input);
     if (text.trim() === "") {
-      issues.add({ severity: "error", code: "file-empty", file, message: "the file is empty; expected a GeoJSON FeatureCollection of points" });
+      issues.add({
+        severity: "error",
+        code: "file-empty",
+        file,
+        message: "the file is empty; expected a GeoJSON FeatureCollection of points",
+      });
       return { table: null, issues: issues.finish(), columns: empty };
     }
     doc = JSON.parse(text);
   } catch (e) {
     issues.add({
       severity: "error",
-      code: e instanceof NotTextError ? "file-not-text" : e instanceof SyntaxError ? "geojson-invalid" : "file-unreadable",
+      code:
+        e instanceof NotTextError ? "file-not-text" : e instanceof SyntaxError ? "geojson-invalid" : "file-unreadable",
       file,
       message: e instanceof SyntaxError ? `not valid JSON: ${e.message}` : e instanceof Error ? e.message : String(e),
     });
@@ -42,10 +48,20 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   }
   const fc = doc as { type?: unknown; features?: unknown; crs?: { properties?: { name?: unknown } } };
   if (!fc || typeof fc !== "object" || fc.type !== "FeatureCollection" || !Array.isArray(fc.features)) {
-    issues.add({ severity: "error", code: "geojson-not-feature-collection", file, message: 'expected a GeoJSON object with "type": "FeatureCollection" and a "features" array' });
+    issues.add({
+      severity: "error",
+      code: "geojson-not-feature-collection",
+      file,
+      message: 'expected a GeoJSON object with "type": "FeatureCollection" and a "features" array',
+    });
     return { table: null, issues: issues.finish(), columns: empty };
   }
-  const features = fc.features as { type?: unknown; id?: unknown; geometry?: { type?: unknown; coordinates?: unknown } | null; properties?: Record<string, unknown> | null }[];
+  const features = fc.features as {
+    type?: unknown;
+    id?: unknown;
+    geometry?: { type?: unknown; coordinates?: unknown } | null;
+    properties?: Record<string, unknown> | null;
+  }[];
 
   // Header = union of property keys in first-seen order (+ the feature id as a pseudo column).
   const keys: string[] = [];
@@ -54,7 +70,12 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   for (const f of features) {
     if (f && f.id !== undefined && f.id !== null) anyFeatureId = true;
     const p = f?.properties;
-    if (p && typeof p === "object") for (const k of Object.keys(p)) if (!seen.has(k)) { seen.add(k); keys.push(k); }
+    if (p && typeof p === "object")
+      for (const k of Object.keys(p))
+        if (!seen.has(k)) {
+          seen.add(k);
+          keys.push(k);
+        }
   }
   let crsHint: string | undefined;
   const crsName = fc.crs?.properties?.name;
@@ -66,12 +87,18 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
 
   let kind: CoordinateKind | undefined = options.mapping?.coordinates;
   if (!kind) {
-    if (crsHint && crsHint !== "EPSG:4326" && crsHint !== "EPSG:4258") kind = /^EPSG:(4\d{3})$/.test(crsHint) ? "geographic" : "projected";
+    if (crsHint && crsHint !== "EPSG:4326" && crsHint !== "EPSG:4258")
+      kind = /^EPSG:(4\d{3})$/.test(crsHint) ? "geographic" : "projected";
     else {
       kind = "geographic";
       for (const f of features) {
         const c = f?.geometry?.coordinates;
-        if (Array.isArray(c) && typeof c[0] === "number" && typeof c[1] === "number" && (Math.abs(c[0]) > 180 || Math.abs(c[1]) > 90)) {
+        if (
+          Array.isArray(c) &&
+          typeof c[0] === "number" &&
+          typeof c[1] === "number" &&
+          (Math.abs(c[0]) > 180 || Math.abs(c[1]) > 90)
+        ) {
           kind = "projected";
           break;
         }
@@ -93,27 +120,56 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   header.push("@x", "@y");
   const plan = planColumns(header, { ...mapping, x: "@x", y: "@y", coordinates: kind });
   for (const p of plan.problems) issues.add({ ...p, file });
-  const columns: ColumnGuess = { ...plan.guess, header: header.filter((h) => h !== "@x" && h !== "@y"), coordinates: kind };
+  const columns: ColumnGuess = {
+    ...plan.guess,
+    header: header.filter((h) => h !== "@x" && h !== "@y"),
+    coordinates: kind,
+  };
   columns.columns = { ...columns.columns, x: "geometry", y: "geometry" };
   columns.unused = columns.unused.filter((h) => h !== "@x" && h !== "@y");
   if (issues.hasErrors()) return { table: null, issues: issues.finish(), columns, crsHint };
 
-  const sink = new RowSink(plan, { source: file, role: options.role, timeZone: options.timeZone, decimalComma: false }, issues);
+  const sink = new RowSink(
+    plan,
+    { source: file, role: options.role, timeZone: options.timeZone, decimalComma: false },
+    issues,
+  );
   const row: string[] = new Array(header.length).fill("");
   for (let i = 0; i < features.length; i++) {
     const f = features[i];
     const line = i + 1;
     const g = f?.geometry;
     if (!f || f.type !== "Feature") {
-      issues.add({ severity: "error", code: "geojson-not-feature", file, line, message: 'expected an object with "type": "Feature"' });
+      issues.add({
+        severity: "error",
+        code: "geojson-not-feature",
+        file,
+        line,
+        message: 'expected an object with "type": "Feature"',
+      });
       continue;
     }
     if (g === null || g === undefined) {
-      issues.add({ severity: "warning", code: "coordinate-missing", file, line, column: "geometry", message: "the feature has no geometry; it is left out" });
+      issues.add({
+        severity: "warning",
+        code: "coordinate-missing",
+        file,
+        line,
+        column: "geometry",
+        message: "the feature has no geometry; it is left out",
+      });
       continue;
     }
     if (g.type !== "Point") {
-      issues.add({ severity: "error", code: "geometry-not-point", file, line, column: "geometry", value: String(g.type), message: "expected a Point geometry (one plant per feature)" });
+      issues.add({
+        severity: "error",
+        code: "geometry-not-point",
+        file,
+        line,
+        column: "geometry",
+        value: String(g.type),
+        message: "expected a Point geometry (one plant per feature)",
+      });
       continue;
     }
     const c = g.coordinates;
@@ -137,7 +193,12 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   const table = sink.finish();
   issues.addAll(tallyIssues(sink.tally(), file));
   if (table.length === 0 && !issues.hasErrors()) {
-    issues.add({ severity: "error", code: "file-no-rows", file, message: "the FeatureCollection has no point features" });
+    issues.add({
+      severity: "error",
+      code: "file-no-rows",
+      file,
+      message: "the FeatureCollection has no point features",
+    });
   }
   const list = issues.finish();
   return { table: list.some((x) => x.severity === "error") ? null : table, issues: list, columns, crsHint };

@@ -39,7 +39,9 @@ describe("merge", () => {
     const merged = appendReadResults(first, second, first.linesRead! - 1);
     const whole = await readCsv(text, opts);
     expect(merged.table).toBeNull();
-    expect(merged.issues.find((i) => i.code === "coordinate-not-numeric")).toEqual(whole.issues.find((i) => i.code === "coordinate-not-numeric"));
+    expect(merged.issues.find((i) => i.code === "coordinate-not-numeric")).toEqual(
+      whole.issues.find((i) => i.code === "coordinate-not-numeric"),
+    );
     expect(merged.issues.find((i) => i.code === "coordinate-not-numeric")!.line).toBe(8);
   });
 });

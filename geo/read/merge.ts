@@ -16,7 +16,12 @@ const SUMMARY_CODES = new Set(["id-missing", "time-without-zone"]);
  *
  * @example appendReadResults(first, second, first.linesRead! - 1).table!.length // rows of both parts
  */
-export function appendReadResults(first: ReadResult, second: ReadResult, lineOffset: number, issueCap?: number): ReadResult {
+export function appendReadResults(
+  first: ReadResult,
+  second: ReadResult,
+  lineOffset: number,
+  issueCap?: number,
+): ReadResult {
   const file = first.table?.source ?? second.table?.source ?? first.issues[0]?.file ?? "";
   const issues = new IssueCollector(issueCap);
   for (const i of first.issues) if (!SUMMARY_CODES.has(i.code)) issues.add(i);
@@ -26,10 +31,12 @@ export function appendReadResults(first: ReadResult, second: ReadResult, lineOff
     if (i.line === undefined && first.issues.some((f) => f.code === i.code && f.line === undefined)) continue;
     issues.add(i.line === undefined || i.line <= 1 ? i : { ...i, line: i.line + lineOffset });
   }
-  const tally = first.tally && second.tally ? addTallies(first.tally, second.tally, lineOffset) : (first.tally ?? second.tally);
+  const tally =
+    first.tally && second.tally ? addTallies(first.tally, second.tally, lineOffset) : (first.tally ?? second.tally);
   if (tally) issues.addAll(tallyIssues(tally, file));
   const list = issues.finish();
-  const a = first.table, b = second.table;
+  const a = first.table,
+    b = second.table;
   const table = a && b && !list.some((i) => i.severity === "error") ? concatTables(a, b, lineOffset) : null;
   return {
     table,
@@ -71,7 +78,8 @@ function concatTables(a: PointTable, b: PointTable, lineOffset: number): PointTa
   for (let i = 0; i < b.length; i++) line[a.length + i] = b.line[i] + lineOffset;
   const attrs: PointTable["attrs"] = {};
   for (const k of Object.keys(a.attrs) as (keyof PointTable["attrs"])[]) {
-    const ca = a.attrs[k], cb = b.attrs[k];
+    const ca = a.attrs[k],
+      cb = b.attrs[k];
     if (ca && cb) attrs[k] = catCoded(ca, cb);
   }
   return {

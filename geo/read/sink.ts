@@ -22,7 +22,9 @@ function isSpace(c: number): boolean {
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 
 /** Outcome codes of `parseSpanTo` (small integers, so nothing is boxed on the hot path). */
-export const NUM_OK = 0, NUM_BLANK = 1, NUM_TEXT = 2;
+export const NUM_OK = 0,
+  NUM_BLANK = 1,
+  NUM_TEXT = 2;
 
 /**
  * Parses the number written in `text[s, e)` into `out[0]` without making a substring; returns
@@ -48,7 +50,11 @@ export function parseSpanTo(text: string, s: number, e: number, decimalComma: bo
     neg = c === 45;
     i++;
   }
-  let m = 0, digits = 0, frac = 0, seenDot = false, any = false;
+  let m = 0,
+    digits = 0,
+    frac = 0,
+    seenDot = false,
+    any = false;
   for (; i < e; i++) {
     c = text.charCodeAt(i);
     if (c >= 48 && c <= 57) {
@@ -158,7 +164,11 @@ export class RowSink {
    * row's real number of fields, for the ragged-row warning). `gx`/`gy` replace the x/y cells.
    */
   addSpans(text: string, nFields: number, line: number, fieldCount: number, gx?: number, gy?: number): boolean {
-    const ix = this.ix, st = this.starts, en = this.ends, num = this.num, dc = this.decimalComma;
+    const ix = this.ix,
+      st = this.starts,
+      en = this.ends,
+      num = this.num,
+      dc = this.decimalComma;
     if (fieldCount !== this.width) {
       this.issues.add({
         severity: "warning",
@@ -173,7 +183,8 @@ export class RowSink {
       x = gx;
       y = gy;
     } else {
-      const cx = ix.x, cy = ix.y;
+      const cx = ix.x,
+        cy = ix.y;
       const kx = cx < nFields ? parseSpanTo(text, st[cx], en[cx], dc, num) : NUM_BLANK;
       x = num[0];
       const ky = cy < nFields ? parseSpanTo(text, st[cy], en[cy], dc, num) : NUM_BLANK;
@@ -190,7 +201,8 @@ export class RowSink {
     s.line[r] = line;
     if (s.id) {
       const c = ix.id;
-      let a = 0, b = 0;
+      let a = 0,
+        b = 0;
       if (c < nFields) {
         a = st[c];
         b = en[c];
@@ -222,7 +234,10 @@ export class RowSink {
   private badPosition(text: string, nFields: number, line: number, kx: number, ky: number): false {
     const ix = this.ix;
     if (kx === NUM_TEXT || ky === NUM_TEXT) {
-      for (const [k, c] of [[kx, ix.x], [ky, ix.y]] as const) {
+      for (const [k, c] of [
+        [kx, ix.x],
+        [ky, ix.y],
+      ] as const) {
         if (k !== NUM_TEXT) continue;
         this.issues.add({
           severity: "error",

@@ -66,14 +66,16 @@ function checkBytes(b: Uint8Array): void {
   if (b.length >= 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04) {
     throw new NotTextError("the file is a zip archive or a spreadsheet (.xlsx/.ods), not text; export it as CSV");
   }
-  if (b.length >= 2 && b[0] === 0x1f && b[1] === 0x8b) throw new NotTextError("the file is gzip-compressed; unpack it first");
+  if (b.length >= 2 && b[0] === 0x1f && b[1] === 0x8b)
+    throw new NotTextError("the file is gzip-compressed; unpack it first");
   if (b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff))) {
     throw new NotTextError("the file is UTF-16 text; save it as UTF-8");
   }
 }
 
 function checkText(s: string): void {
-  if (s.startsWith("PK\u0003\u0004")) throw new NotTextError("the file is a zip archive or a spreadsheet (.xlsx/.ods), not text; export it as CSV");
+  if (s.startsWith("PK\u0003\u0004"))
+    throw new NotTextError("the file is a zip archive or a spreadsheet (.xlsx/.ods), not text; export it as CSV");
   if (s.indexOf("\u0000") >= 0) throw new NotTextError("the file contains binary data (NUL bytes), not text");
 }
 

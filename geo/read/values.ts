@@ -33,10 +33,27 @@ export type FixQuality = "rtk-fixed" | "rtk-float" | "dgnss" | "autonomous";
 const NMEA_FIX: Record<string, FixQuality> = { "4": "rtk-fixed", "5": "rtk-float", "2": "dgnss", "1": "autonomous" };
 
 const TEXT_FIX: Record<string, FixQuality> = {
-  rtkfixed: "rtk-fixed", fixed: "rtk-fixed", rtkfix: "rtk-fixed", fix: "rtk-fixed", rtkint: "rtk-fixed", fixedrtk: "rtk-fixed",
-  rtkfloat: "rtk-float", float: "rtk-float", floatrtk: "rtk-float", rtkflt: "rtk-float",
-  dgnss: "dgnss", dgps: "dgnss", differential: "dgnss", diff: "dgnss", sbas: "dgnss",
-  autonomous: "autonomous", single: "autonomous", standalone: "autonomous", gps: "autonomous", gnss: "autonomous", sps: "autonomous",
+  rtkfixed: "rtk-fixed",
+  fixed: "rtk-fixed",
+  rtkfix: "rtk-fixed",
+  fix: "rtk-fixed",
+  rtkint: "rtk-fixed",
+  fixedrtk: "rtk-fixed",
+  rtkfloat: "rtk-float",
+  float: "rtk-float",
+  floatrtk: "rtk-float",
+  rtkflt: "rtk-float",
+  dgnss: "dgnss",
+  dgps: "dgnss",
+  differential: "dgnss",
+  diff: "dgnss",
+  sbas: "dgnss",
+  autonomous: "autonomous",
+  single: "autonomous",
+  standalone: "autonomous",
+  gps: "autonomous",
+  gnss: "autonomous",
+  sps: "autonomous",
 };
 
 /**
@@ -62,7 +79,8 @@ export type TimeParse =
   | { ok: true; ms: number }
   | { ok: false; reason: "empty" | "not-a-time" | "no-zone" | "bad-zone" };
 
-const ISO = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)?)?\s*(Z|z|[+-]\d{2}(?::?\d{2})?)?$/;
+const ISO =
+  /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)?)?\s*(Z|z|[+-]\d{2}(?::?\d{2})?)?$/;
 
 /**
  * Parses ISO 8601 times to epoch milliseconds UTC.
@@ -90,8 +108,12 @@ export class TimeReader {
         this.format = new Intl.DateTimeFormat("en-US", {
           timeZone,
           hourCycle: "h23",
-          year: "numeric", month: "2-digit", day: "2-digit",
-          hour: "2-digit", minute: "2-digit", second: "2-digit",
+          year: "numeric",
+          month: "2-digit",
+          day: "2-digit",
+          hour: "2-digit",
+          minute: "2-digit",
+          second: "2-digit",
         });
       } catch {
         valid = false;
@@ -109,10 +131,15 @@ export class TimeReader {
     }
     const m = ISO.exec(s);
     if (!m) return { ok: false, reason: "not-a-time" };
-    const y = +m[1], mo = +m[2], d = +m[3];
-    const h = m[4] ? +m[4] : 0, mi = m[5] ? +m[5] : 0, sec = m[6] ? +m[6] : 0;
+    const y = +m[1],
+      mo = +m[2],
+      d = +m[3];
+    const h = m[4] ? +m[4] : 0,
+      mi = m[5] ? +m[5] : 0,
+      sec = m[6] ? +m[6] : 0;
     const frac = m[7] ? Math.round(+`0.${m[7]}` * 1000) : 0;
-    if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 24 || mi > 59 || sec > 60) return { ok: false, reason: "not-a-time" };
+    if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 24 || mi > 59 || sec > 60)
+      return { ok: false, reason: "not-a-time" };
     const wall = Date.UTC(y, mo - 1, d, h, mi, sec, frac);
     if (new Date(Date.UTC(y, mo - 1, d)).getUTCDate() !== d) return { ok: false, reason: "not-a-time" };
     const zone = m[8];
@@ -120,7 +147,8 @@ export class TimeReader {
       if (zone === "Z" || zone === "z") return { ok: true, ms: wall };
       const sign = zone[0] === "-" ? -1 : 1;
       const digits = zone.slice(1).replace(":", "");
-      const oh = +digits.slice(0, 2), om = digits.length > 2 ? +digits.slice(2, 4) : 0;
+      const oh = +digits.slice(0, 2),
+        om = digits.length > 2 ? +digits.slice(2, 4) : 0;
       if (oh > 18 || om > 59) return { ok: false, reason: "not-a-time" };
       return { ok: true, ms: wall - sign * (oh * 60 + om) * 60000 };
     }

@@ -32,10 +32,17 @@ export interface RowBearing {
  * @example deriveRowBearing(planted).bearingDeg // 30.0 for rows running north-north-east
  */
 export function deriveRowBearing(table: Pick<PointTable, "length" | "x" | "y" | "attrs">): RowBearing {
-  const bed = table.attrs.bed, row = table.attrs.row;
+  const bed = table.attrs.bed,
+    row = table.attrs.row;
   if (row || bed) {
     const method = bed && row ? "bed-row" : row ? "row" : "bed";
-    const r = pooledGroups(table, bed?.codes ?? null, bed?.values.length ?? 0, row?.codes ?? null, row?.values.length ?? 0);
+    const r = pooledGroups(
+      table,
+      bed?.codes ?? null,
+      bed?.values.length ?? 0,
+      row?.codes ?? null,
+      row?.values.length ?? 0,
+    );
     if (r.used > 0) return { ...r, method };
   }
   return neighbourBearing(table);
@@ -43,26 +50,36 @@ export function deriveRowBearing(table: Pick<PointTable, "length" | "x" | "y" | 
 
 function pooledGroups(
   t: Pick<PointTable, "length" | "x" | "y">,
-  a: Int32Array | null, na: number,
-  b: Int32Array | null, nb: number,
+  a: Int32Array | null,
+  na: number,
+  b: Int32Array | null,
+  nb: number,
 ): Omit<RowBearing, "method"> {
   const n = t.length;
   const groups = (a ? na : 1) * (b ? nb : 1);
   if (groups > 4_000_000) return { bearingDeg: NaN, used: 0, linearity: 0 };
-  const ox = new Float64Array(groups).fill(NaN), oy = new Float64Array(groups);
-  const cnt = new Float64Array(groups), se = new Float64Array(groups), sn = new Float64Array(groups);
-  const see = new Float64Array(groups), snn = new Float64Array(groups), sen = new Float64Array(groups);
+  const ox = new Float64Array(groups).fill(NaN),
+    oy = new Float64Array(groups);
+  const cnt = new Float64Array(groups),
+    se = new Float64Array(groups),
+    sn = new Float64Array(groups);
+  const see = new Float64Array(groups),
+    snn = new Float64Array(groups),
+    sen = new Float64Array(groups);
   for (let i = 0; i < n; i++) {
-    const ca = a ? a[i] : 0, cb = b ? b[i] : 0;
+    const ca = a ? a[i] : 0,
+      cb = b ? b[i] : 0;
     if (ca < 0 || cb < 0) continue;
-    const x = t.x[i], y = t.y[i];
+    const x = t.x[i],
+      y = t.y[i];
     if (x !== x || y !== y) continue;
     const g = ca * (b ? nb : 1) + cb;
     if (ox[g] !== ox[g]) {
       ox[g] = x;
       oy[g] = y;
     }
-    const e = x - ox[g], nn = y - oy[g];
+    const e = x - ox[g],
+      nn = y - oy[g];
     cnt[g]++;
     se[g] += e;
     sn[g] += nn;
@@ -70,7 +87,10 @@ function pooledGroups(
     snn[g] += nn * nn;
     sen[g] += e * nn;
   }
-  let Sxx = 0, Syy = 0, Sxy = 0, used = 0;
+  let Sxx = 0,
+    Syy = 0,
+    Sxy = 0,
+    used = 0;
   for (let g = 0; g < groups; g++) {
     const c = cnt[g];
     if (c < 3) continue;
@@ -99,7 +119,10 @@ function neighbourBearing(t: Pick<PointTable, "length" | "x" | "y">): RowBearing
   for (let i = 0; i < n; i++) if (Number.isFinite(t.x[i]) && Number.isFinite(t.y[i])) ids.push(i);
   if (ids.length < 3) return { bearingDeg: NaN, method: "none", used: 0, linearity: 0 };
   const tree = new KDBush(ids.length, 64, Float64Array);
-  let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    maxX = -Infinity,
+    minY = Infinity,
+    maxY = -Infinity;
   for (const i of ids) {
     tree.add(t.x[i], t.y[i]);
     minX = Math.min(minX, t.x[i]);
@@ -111,12 +134,16 @@ function neighbourBearing(t: Pick<PointTable, "length" | "x" | "y">): RowBearing
   const area = Math.max((maxX - minX) * (maxY - minY), 1e-6);
   const r0 = Math.max(Math.sqrt(area / ids.length), 1e-4);
   const step = Math.max(1, Math.floor(ids.length / 20000));
-  let c2 = 0, s2 = 0, used = 0;
+  let c2 = 0,
+    s2 = 0,
+    used = 0;
   const out: number[] = [];
   for (let k = 0; k < ids.length; k += step) {
     const i = ids[k];
-    const qx = t.x[i], qy = t.y[i];
-    let best = -1, bestD = Infinity;
+    const qx = t.x[i],
+      qy = t.y[i];
+    let best = -1,
+      bestD = Infinity;
     for (let r = r0; r < r0 * 1e4 && best < 0; r *= 2) {
       const m = tree.withinInto(qx, qy, r, out);
       for (let j = 0; j < m; j++) {
@@ -130,7 +157,8 @@ function neighbourBearing(t: Pick<PointTable, "length" | "x" | "y">): RowBearing
       }
     }
     if (best < 0) continue;
-    const dx = t.x[best] - qx, dy = t.y[best] - qy;
+    const dx = t.x[best] - qx,
+      dy = t.y[best] - qy;
     const a = Math.atan2(dx, dy); // bearing of the vector, from north
     c2 += Math.cos(2 * a);
     s2 += Math.sin(2 * a);

@@ -41,7 +41,8 @@ export function validateFiles(planted: FileInCrs, survey: FileInCrs, options: Fi
   for (const f of [planted, survey]) {
     const p = f.projected;
     for (let i = 0; i < p.length; i++) {
-      const x = p.x[i], y = p.y[i];
+      const x = p.x[i],
+        y = p.y[i];
       if (!(x - x === 0) || !(y - y === 0)) {
         issues.add({
           severity: "error",
@@ -75,12 +76,14 @@ export function validateFiles(planted: FileInCrs, survey: FileInCrs, options: Fi
 
   for (const f of [planted, survey]) {
     const p = f.projected;
-    const mx = medianOf(p.x), my = medianOf(p.y);
+    const mx = medianOf(p.x),
+      my = medianOf(p.y);
     let count = 0;
     const lines: number[] = [];
     const stray2 = stray * stray;
     for (let i = 0; i < p.length; i++) {
-      const dx = p.x[i] - mx, dy = p.y[i] - my;
+      const dx = p.x[i] - mx,
+        dy = p.y[i] - my;
       if (dx * dx + dy * dy > stray2) {
         count++;
         if (lines.length < 20) lines.push(p.line[i]);
@@ -110,7 +113,8 @@ export function validateFiles(planted: FileInCrs, survey: FileInCrs, options: Fi
 
 /** Tries swapped axes, millimetres and other bundled CRSs for a file; returns a hint or "". */
 function diagnose(f: FileInCrs, target: number[], work: string, maxD: number): string {
-  const sx = medianOf(f.source.x), sy = medianOf(f.source.y);
+  const sx = medianOf(f.source.x),
+    sy = medianOf(f.source.y);
   const near = (x: number, y: number, from: CrsEntry | string) => {
     try {
       const [e, n] = convertPoint(x, y, from, work);
@@ -121,8 +125,11 @@ function diagnose(f: FileInCrs, target: number[], work: string, maxD: number): s
   };
   const name = f.projected.source;
   if (near(sy, sx, f.crs)) return `In ${name} the two coordinate columns look swapped.`;
-  if (f.crs.kind === "projected" && near(sx / 1000, sy / 1000, f.crs)) return `The values in ${name} look like millimetres.`;
-  const fits = listCrs().filter((c) => c.code !== f.crs.code && near(sx, sy, c)).map((c) => `${c.code} (${c.name})`);
+  if (f.crs.kind === "projected" && near(sx / 1000, sy / 1000, f.crs))
+    return `The values in ${name} look like millimetres.`;
+  const fits = listCrs()
+    .filter((c) => c.code !== f.crs.code && near(sx, sy, c))
+    .map((c) => `${c.code} (${c.name})`);
   if (fits.length) return `${name} fits the other file if its CRS is ${fits.slice(0, 3).join(" or ")}.`;
   return "";
 }

@@ -14,7 +14,10 @@ export const DEFAULT_ISSUE_CAP = 50;
  */
 export class IssueCollector {
   private readonly kept: InputIssue[] = [];
-  private readonly counts = new Map<string, { n: number; severity: InputIssue["severity"]; file: string; code: string }>();
+  private readonly counts = new Map<
+    string,
+    { n: number; severity: InputIssue["severity"]; file: string; code: string }
+  >();
 
   constructor(private readonly cap: number = DEFAULT_ISSUE_CAP) {}
 

@@ -8,10 +8,23 @@ import { validateTable } from "./table";
 // Checks by construction (coordinate ranges: latitude ±90°, longitude ±180°); the 20-checkpoint
 // minimum is FGDC-STD-007.3-1998 §3.2.2 (read). A fictional field near 52.3°N 9.77°E is used.
 const t = (x: number[], y: number[], extra: Partial<PointTable> = {}): PointTable => ({
-  source: "f.csv", role: "planted", length: x.length, x: Float64Array.from(x), y: Float64Array.from(y),
-  line: Int32Array.from(x.map((_, i) => i + 2)), id: null, attrs: {}, time: null, hdop: null, precision: null, rawX: null, rawY: null, ...extra,
+  source: "f.csv",
+  role: "planted",
+  length: x.length,
+  x: Float64Array.from(x),
+  y: Float64Array.from(y),
+  line: Int32Array.from(x.map((_, i) => i + 2)),
+  id: null,
+  attrs: {},
+  time: null,
+  hdop: null,
+  precision: null,
+  rawX: null,
+  rawY: null,
+  ...extra,
 });
-const WGS = resolveCrs("EPSG:4326"), UTM = resolveCrs("EPSG:32632");
+const WGS = resolveCrs("EPSG:4326"),
+  UTM = resolveCrs("EPSG:32632");
 const codes = (issues: { code: string }[]) => issues.map((i) => i.code);
 
 describe("validateTable", () => {
@@ -20,9 +33,23 @@ describe("validateTable", () => {
   });
 
   it("validateTable -- latitude out of range names line, column and value", () => {
-    const issues = validateTable(t([9.77, 9.78, 200], [52.3, 95, 52.3]), WGS, { columns: { header: [], columns: { x: "lon", y: "lat" }, coordinates: "geographic", rawCoordinates: null, unused: [] } });
+    const issues = validateTable(t([9.77, 9.78, 200], [52.3, 95, 52.3]), WGS, {
+      columns: {
+        header: [],
+        columns: { x: "lon", y: "lat" },
+        coordinates: "geographic",
+        rawCoordinates: null,
+        unused: [],
+      },
+    });
     expect(issues).toEqual([
-      expect.objectContaining({ code: "latitude-out-of-range", line: 3, column: "lat", value: "95", severity: "error" }),
+      expect.objectContaining({
+        code: "latitude-out-of-range",
+        line: 3,
+        column: "lat",
+        value: "95",
+        severity: "error",
+      }),
       expect.objectContaining({ code: "longitude-out-of-range", line: 4, column: "lon", value: "200" }),
     ]);
   });
@@ -38,7 +65,9 @@ describe("validateTable", () => {
   });
 
   it("validateTable -- columns of the wrong kind for the CRS", () => {
-    const issues = validateTable(t([9.77], [52.3]), UTM, { columns: { header: [], columns: {}, coordinates: "geographic", rawCoordinates: null, unused: [] } });
+    const issues = validateTable(t([9.77], [52.3]), UTM, {
+      columns: { header: [], columns: {}, coordinates: "geographic", rawCoordinates: null, unused: [] },
+    });
     expect(codes(issues)).toEqual(["crs-kind-mismatch"]);
   });
 
@@ -46,11 +75,16 @@ describe("validateTable", () => {
     const [e, n] = convertPoint(9.77, 52.3, "EPSG:4326", "EPSG:32632");
     expect(validateTable(t([e, e + 1], [n, n + 1]), UTM)).toEqual([]);
     expect(codes(validateTable(t([n, n + 1], [e, e + 1]), UTM))).toEqual(["easting-northing-swapped"]);
-    expect(codes(validateTable(t([e * 1000, e * 1000 + 5], [n * 1000, n * 1000 + 5]), UTM))).toEqual(["coordinates-look-like-millimetres"]);
+    expect(codes(validateTable(t([e * 1000, e * 1000 + 5], [n * 1000, n * 1000 + 5]), UTM))).toEqual([
+      "coordinates-look-like-millimetres",
+    ]);
   });
 
   it("validateTable -- duplicate ids list every line", () => {
-    const issues = validateTable(t([9.77, 9.78, 9.79, 9.8], [52.3, 52.3, 52.3, 52.3], { id: IdColumn.from(["A", "B", "A", "A"]) }), WGS);
+    const issues = validateTable(
+      t([9.77, 9.78, 9.79, 9.8], [52.3, 52.3, 52.3, 52.3], { id: IdColumn.from(["A", "B", "A", "A"]) }),
+      WGS,
+    );
     expect(issues).toEqual([expect.objectContaining({ code: "id-duplicate", severity: "error", value: "A", line: 4 })]);
     expect(issues[0].message).toContain("appears 3 times, on lines 2, 4, 5");
   });

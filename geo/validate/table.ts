@@ -55,9 +55,12 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
     return issues.finish();
   }
 
-  let maxAbsX = 0, maxAbsY = 0, yOver90 = 0;
+  let maxAbsX = 0,
+    maxAbsY = 0,
+    yOver90 = 0;
   for (let i = 0; i < n; i++) {
-    const ax = Math.abs(x[i]), ay = Math.abs(y[i]);
+    const ax = Math.abs(x[i]),
+      ay = Math.abs(y[i]);
     if (ax > maxAbsX) maxAbsX = ax;
     if (ay > maxAbsY) maxAbsY = ay;
     if (ay > 90) yOver90++;
@@ -82,14 +85,31 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
     } else {
       for (let i = 0; i < n; i++) {
         if (Math.abs(y[i]) > 90) {
-          issues.add({ severity: "error", code: "latitude-out-of-range", file, line: line[i], column: yName, value: String(y[i]), message: "expected a latitude between -90 and 90 degrees" });
+          issues.add({
+            severity: "error",
+            code: "latitude-out-of-range",
+            file,
+            line: line[i],
+            column: yName,
+            value: String(y[i]),
+            message: "expected a latitude between -90 and 90 degrees",
+          });
         }
         if (Math.abs(x[i]) > 180) {
-          issues.add({ severity: "error", code: "longitude-out-of-range", file, line: line[i], column: xName, value: String(x[i]), message: "expected a longitude between -180 and 180 degrees" });
+          issues.add({
+            severity: "error",
+            code: "longitude-out-of-range",
+            file,
+            line: line[i],
+            column: xName,
+            value: String(x[i]),
+            message: "expected a longitude between -180 and 180 degrees",
+          });
         }
       }
       if (!issues.hasErrors() && n > 0) {
-        const lon = medianOf(x), lat = medianOf(y);
+        const lon = medianOf(x),
+          lat = medianOf(y);
         if (!containsLonLat(crs.area, lon, lat, 1)) {
           issues.add({
             severity: "warning",
@@ -109,10 +129,13 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
         message: `all values of "${xName}" and "${yName}" fit within ±180/±90: they look like longitude/latitude in degrees, not metres of ${crs.code} (${crs.name}). Choose a geographic CRS such as EPSG:4326`,
       });
     } else {
-      const mx = medianOf(x), my = medianOf(y);
+      const mx = medianOf(x),
+        my = medianOf(y);
       const inArea = (px: number, py: number) => {
         const [lon, lat] = toLonLat(px, py, crs);
-        return Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lat) <= 90 && containsLonLat(crs.area, lon, lat, 3);
+        return (
+          Number.isFinite(lon) && Number.isFinite(lat) && Math.abs(lat) <= 90 && containsLonLat(crs.area, lon, lat, 3)
+        );
       };
       if (!inArea(mx, my)) {
         if (inArea(my, mx)) {
@@ -132,7 +155,10 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
           });
         } else {
           const [lon, lat] = toLonLat(mx, my, crs);
-          const where = Number.isFinite(lon) && Math.abs(lat) <= 90 ? `around ${fmt(lat)}°, ${fmt(lon)}° (lat, lon)` : "nowhere on Earth";
+          const where =
+            Number.isFinite(lon) && Math.abs(lat) <= 90
+              ? `around ${fmt(lat)}°, ${fmt(lon)}° (lat, lon)`
+              : "nowhere on Earth";
           issues.add({
             severity: Number.isFinite(lon) && Math.abs(lat) <= 90 ? "warning" : "error",
             code: "outside-crs-area",

@@ -18,22 +18,40 @@ port.once("message", (job: AuditJobInput) => {
     // Structured cloning keeps an IdColumn's arrays but not its class.
     job.planted.id = IdColumn.revive(job.planted.id);
     job.survey.id = IdColumn.revive(job.survey.id);
-    const outcome = computeFromTables(job.planted, job.plantedCrs, job.survey, job.surveyCrs, job.settings, job.profile, (stage) => post({ type: "stage", stage }));
+    const outcome = computeFromTables(
+      job.planted,
+      job.plantedCrs,
+      job.survey,
+      job.surveyCrs,
+      job.settings,
+      job.profile,
+      (stage) => post({ type: "stage", stage }),
+    );
     if (!outcome.ok) {
       post({
         type: "refused",
-        errors: outcome.issues.filter((i) => i.severity === "error").map((i) => ({ file: i.file, line: i.line, message: i.message })),
+        errors: outcome.issues
+          .filter((i) => i.severity === "error")
+          .map((i) => ({ file: i.file, line: i.line, message: i.message })),
       });
       return;
     }
     const reports = auditReports(outcome);
     const residuals = residualRecordRows(outcome.result, outcome.plantedP, outcome.surveyP, outcome.settings.timeZone);
     const unpaired = unpairedRecordRows(outcome.pairing, outcome.plantedP, outcome.surveyP);
-    const digests = job.digestsOnly ? { residuals: residualDigest(residuals), unpaired: unpairedDigest(unpaired) } : undefined;
+    const digests = job.digestsOnly
+      ? { residuals: residualDigest(residuals), unpaired: unpairedDigest(unpaired) }
+      : undefined;
     post(
       {
-        type: "computed", summary: outcome.result.summary, verdict: outcome.verdict, settings: outcome.settings, reports,
-        residualCount: residuals.length, unpairedCount: unpaired.length, digests,
+        type: "computed",
+        summary: outcome.result.summary,
+        verdict: outcome.verdict,
+        settings: outcome.settings,
+        reports,
+        residualCount: residuals.length,
+        unpairedCount: unpaired.length,
+        digests,
       },
       reports.map((r) => r.bytes.buffer as ArrayBuffer),
     );
@@ -41,8 +59,10 @@ port.once("message", (job: AuditJobInput) => {
     // rows never wait as messages on its thread (nor are turned back into objects there all at once).
     function* batches(): Generator<AuditJobMessage> {
       if (job.digestsOnly) return;
-      for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE) yield { type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) };
-      for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE) yield { type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) };
+      for (let i = 0; i < residuals.length; i += ROWS_PER_MESSAGE)
+        yield { type: "residuals", rows: residuals.slice(i, i + ROWS_PER_MESSAGE) };
+      for (let i = 0; i < unpaired.length; i += ROWS_PER_MESSAGE)
+        yield { type: "unpaired", rows: unpaired.slice(i, i + ROWS_PER_MESSAGE) };
     }
     const next = batches();
     port.on("message", (m: { type: "more" }) => {

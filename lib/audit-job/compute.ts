@@ -22,26 +22,39 @@ export type ComputeStage = "validate" | "project" | "check-files" | "pair" | "ro
 
 /** The engine run shared with the command line: prepare (project, check, pair), statistics, verdict. */
 export function computeFromTables(
-  planted: PointTable, plantedCrs: string, survey: PointTable, surveyCrs: string,
-  settings: AuditSettingsDto, profile: ProfileSnapshot,
+  planted: PointTable,
+  plantedCrs: string,
+  survey: PointTable,
+  surveyCrs: string,
+  settings: AuditSettingsDto,
+  profile: ProfileSnapshot,
   onStage: (stage: ComputeStage) => void = () => {},
 ) {
-  const prepared = prepareAudit({ table: planted, crs: plantedCrs }, { table: survey, crs: surveyCrs }, {
-    workCrs: settings.workCrs, match: settings.match, maxDistance: settings.maxDistanceM, rowBearingDeg: settings.rowBearingDeg ?? undefined,
-    onStage: (s) => {
-      if (s !== "done") onStage(s);
+  const prepared = prepareAudit(
+    { table: planted, crs: plantedCrs },
+    { table: survey, crs: surveyCrs },
+    {
+      workCrs: settings.workCrs,
+      match: settings.match,
+      maxDistance: settings.maxDistanceM,
+      rowBearingDeg: settings.rowBearingDeg ?? undefined,
+      onStage: (s) => {
+        if (s !== "done") onStage(s);
+      },
     },
-  });
+  );
   if (!prepared.ok) return { ok: false as const, issues: prepared.issues };
   onStage("statistics");
   const bearing = Number.isFinite(prepared.rowBearing.bearingDeg) ? prepared.rowBearing.bearingDeg : undefined;
   const hasBearing = bearing !== undefined;
   const result = computeAudit({
-    planted: prepared.planted, survey: prepared.survey, pairing: prepared.pairing,
+    planted: prepared.planted,
+    survey: prepared.survey,
+    pairing: prepared.pairing,
     options: {
       toleranceRadial: profile.radialM ?? undefined,
-      toleranceCross: hasBearing ? profile.crossM ?? undefined : undefined,
-      toleranceAlong: hasBearing ? profile.alongM ?? undefined : undefined,
+      toleranceCross: hasBearing ? (profile.crossM ?? undefined) : undefined,
+      toleranceAlong: hasBearing ? (profile.alongM ?? undefined) : undefined,
       confidence: profile.confidence,
       rowBearingDeg: bearing,
       rowBearingSource: hasBearing ? (prepared.rowBearing.given ? "given" : "derived") : "none",
@@ -52,12 +65,21 @@ export function computeFromTables(
   const r = result.residuals;
   const wt = result.summary.withinTolerance;
   const verdict = evaluateVerdict(profile, {
-    pairs: result.summary.pairs, radial: r.radial, cross: r.cross, along: r.along,
+    pairs: result.summary.pairs,
+    radial: r.radial,
+    cross: r.cross,
+    along: r.along,
     within: wt && wt.share !== null && wt.lower95 !== null ? { share: wt.share, lower95: wt.lower95 } : null,
   });
   return {
-    ok: true as const, result, verdict, pairing: prepared.pairing, plantedP: prepared.planted, surveyP: prepared.survey,
-    issues: prepared.issues, settings: { ...settings, workCrs: prepared.workCrs.code, rowBearingDeg: bearing ?? null },
+    ok: true as const,
+    result,
+    verdict,
+    pairing: prepared.pairing,
+    plantedP: prepared.planted,
+    surveyP: prepared.survey,
+    issues: prepared.issues,
+    settings: { ...settings, workCrs: prepared.workCrs.code, rowBearingDeg: bearing ?? null },
   };
 }
 
@@ -68,7 +90,10 @@ type Computed = Extract<ComputeOutcome, { ok: true }>;
 export function auditReports(o: Computed): { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[] {
   const { result, plantedP, surveyP, pairing } = o;
   return [
-    { kind: "residuals", bytes: joinChunks(residualsCsv({ planted: plantedP, survey: surveyP, residuals: result.residuals })) },
+    {
+      kind: "residuals",
+      bytes: joinChunks(residualsCsv({ planted: plantedP, survey: surveyP, residuals: result.residuals })),
+    },
     { kind: "unpaired", bytes: joinChunks(unpairedCsv({ planted: plantedP, survey: surveyP, pairing })) },
     { kind: "summary", bytes: joinChunks(summaryCsv(result.summary)) },
   ];

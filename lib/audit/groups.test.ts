@@ -30,7 +30,9 @@ describe("groupStatistics", () => {
     const rows = groupStatistics(codes, ["L", "R"], errorsOf(dE, dN, within), 0.95);
     expect(rows.map((r) => r.key)).toEqual(["L", "R", null]);
     for (const row of rows) {
-      const idx = Array.from(codes.keys()).filter((i) => (row.key === null ? codes[i] < 0 : ["L", "R"][codes[i]] === row.key));
+      const idx = Array.from(codes.keys()).filter((i) =>
+        row.key === null ? codes[i] < 0 : ["L", "R"][codes[i]] === row.key,
+      );
       const e = idx.map((i) => dE[i]);
       const n = idx.map((i) => dN[i]);
       const radial = idx.map((i) => Math.hypot(dE[i], dN[i]));
@@ -53,7 +55,12 @@ describe("groupStatistics", () => {
 
   it("groupStatistics -- natural key order, empty groups left out", () => {
     const codes = Int32Array.of(0, 1, 2, 2);
-    const rows = groupStatistics(codes, ["10", "2", "1", "unused"], errorsOf([0.01, 0.02, 0.03, 0.04], [0, 0, 0, 0], null), 0.95);
+    const rows = groupStatistics(
+      codes,
+      ["10", "2", "1", "unused"],
+      errorsOf([0.01, 0.02, 0.03, 0.04], [0, 0, 0, 0], null),
+      0.95,
+    );
     expect(rows.map((r) => r.key)).toEqual(["1", "2", "10"]);
     expect(rows.every((r) => r.withinShare === null && r.lower95 === null)).toBe(true);
   });
@@ -67,7 +74,12 @@ describe("groupStatistics", () => {
 
   it("groupStatistics -- all outside tolerance in a group of 20", () => {
     // Newcombe 1998, Table I: 0/20 → 0–0.1684
-    const rows = groupStatistics(new Int32Array(20), ["arm-B"], errorsOf(new Array(20).fill(0.05), new Array(20).fill(0), new Array(20).fill(0)), 0.95);
+    const rows = groupStatistics(
+      new Int32Array(20),
+      ["arm-B"],
+      errorsOf(new Array(20).fill(0.05), new Array(20).fill(0), new Array(20).fill(0)),
+      0.95,
+    );
     expect(rows[0].lower95).toBe(0);
     expect(rows[0].upper95).toBeCloseTo(0.1684, 4);
   });
@@ -79,6 +91,8 @@ describe("groupStatistics", () => {
     groupStatistics(codes, ["x"], errors, 0.95);
     expect(errors).toEqual(copy);
     expect(Array.from(codes)).toEqual([0, 0, 0]);
-    expect(() => groupStatistics(Int32Array.of(0, 5, 0), ["x"], errors, 0.95)).toThrow("groupStatistics: code 5 out of range");
+    expect(() => groupStatistics(Int32Array.of(0, 5, 0), ["x"], errors, 0.95)).toThrow(
+      "groupStatistics: code 5 out of range",
+    );
   });
 });

@@ -65,7 +65,8 @@ export function groupStatistics(
 ): GroupRow[] {
   const n = codes.length;
   const { dE, dN, along, cross, radial, within } = errors;
-  if (dE.length !== n || dN.length !== n || radial.length !== n) throw new Error("groupStatistics: column lengths differ");
+  if (dE.length !== n || dN.length !== n || radial.length !== n)
+    throw new Error("groupStatistics: column lengths differ");
   const g = values.length + 1; // last slot = missing value
   const missing = values.length;
   const slot = new Int32Array(n);

@@ -78,7 +78,12 @@ describe("helmert", () => {
   it("fitSimilarity -- scale and rotation do not depend on the origin", () => {
     const a = fitSimilarity(SOURCE_E, SOURCE_N, TARGET_E, TARGET_N)!;
     const shift = (v: Float64Array, d: number) => v.map((x) => x - d);
-    const b = fitSimilarity(shift(SOURCE_E, 250000), shift(SOURCE_N, 4e6), shift(TARGET_E, 250000), shift(TARGET_N, 4e6))!;
+    const b = fitSimilarity(
+      shift(SOURCE_E, 250000),
+      shift(SOURCE_N, 4e6),
+      shift(TARGET_E, 250000),
+      shift(TARGET_N, 4e6),
+    )!;
     expect(b.scale).toBeCloseTo(a.scale, 12);
     expect(b.rotationArcsec).toBeCloseTo(a.rotationArcsec, 6);
     expect(b.rmse).toBeCloseTo(a.rmse, 9);
@@ -86,10 +91,12 @@ describe("helmert", () => {
 
   it("fitSimilarity -- undefined for fewer than two distinct points", () => {
     expect(fitSimilarity(Float64Array.of(1), Float64Array.of(2), Float64Array.of(1), Float64Array.of(2))).toBeNull();
-    expect(fitSimilarity(Float64Array.of(1, 1), Float64Array.of(2, 2), Float64Array.of(1, 3), Float64Array.of(2, 2))).toBeNull();
-    expect(() => fitSimilarity(Float64Array.of(1, 2), Float64Array.of(1), Float64Array.of(1, 2), Float64Array.of(1, 2))).toThrow(
-      "fitSimilarity: coordinate arrays differ in length",
-    );
+    expect(
+      fitSimilarity(Float64Array.of(1, 1), Float64Array.of(2, 2), Float64Array.of(1, 3), Float64Array.of(2, 2)),
+    ).toBeNull();
+    expect(() =>
+      fitSimilarity(Float64Array.of(1, 2), Float64Array.of(1), Float64Array.of(1, 2), Float64Array.of(1, 2)),
+    ).toThrow("fitSimilarity: coordinate arrays differ in length");
   });
 
   it("fitSimilarityToErrors -- same fit from errors and row indices", () => {
@@ -104,7 +111,9 @@ describe("helmert", () => {
     expect(b.tE).toBeCloseTo(a.tE, 6);
     expect(b.tN).toBeCloseTo(a.tN, 6);
     expect(b.residualMax).toBeCloseTo(a.residualMax, 9);
-    expect(() => fitSimilarityToErrors(SOURCE_E, SOURCE_N, Int32Array.of(0), dE, dN)).toThrow("fitSimilarity: coordinate arrays differ in length");
+    expect(() => fitSimilarityToErrors(SOURCE_E, SOURCE_N, Int32Array.of(0), dE, dN)).toThrow(
+      "fitSimilarity: coordinate arrays differ in length",
+    );
   });
 
   it("fitSimilarity -- inputs not mutated", () => {

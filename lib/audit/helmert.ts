@@ -94,7 +94,11 @@ export function fitSimilarityToErrors(
   dN: Float64Array,
 ): SimilarityFit | null {
   const n = dE.length;
-  if (dN.length !== n || (rows !== null && rows.length !== n) || (rows === null && (srcX.length !== n || srcY.length !== n))) {
+  if (
+    dN.length !== n ||
+    (rows !== null && rows.length !== n) ||
+    (rows === null && (srcX.length !== n || srcY.length !== n))
+  ) {
     throw new Error("fitSimilarity: coordinate arrays differ in length");
   }
   if (n < 2) return null;

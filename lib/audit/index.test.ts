@@ -126,7 +126,18 @@ describe("computeAudit", () => {
     expect(summary.pairs).toBe(0);
     expect(summary.unmatchedPlanted).toBe(4);
     expect(summary.unmatchedSurvey).toBe(4);
-    for (const key of ["meanDE", "sdDE", "rmseR", "cep50", "r95", "cep50Model", "nssda95", "nssdaCase", "meanCross", "rmseAlong"] as const) {
+    for (const key of [
+      "meanDE",
+      "sdDE",
+      "rmseR",
+      "cep50",
+      "r95",
+      "cep50Model",
+      "nssda95",
+      "nssdaCase",
+      "meanCross",
+      "rmseAlong",
+    ] as const) {
       expect(summary[key], key).toBeNull();
     }
     expect(summary.withinTolerance).toMatchObject({ share: null, lower95: null, upper95: null, within: 0, n: 0 });
@@ -142,7 +153,12 @@ describe("computeAudit", () => {
 
   it("computeAudit -- one pair: no SD, no interval, no fit", () => {
     const { planted, survey, dE, dN } = handField();
-    const { summary } = computeAudit({ planted, survey, pairing: makePairing([[2, 2]]), options: { rowBearingDeg: 0 } });
+    const { summary } = computeAudit({
+      planted,
+      survey,
+      pairing: makePairing([[2, 2]]),
+      options: { rowBearingDeg: 0 },
+    });
     const r = Math.hypot(dE[2], dN[2]);
     expect(summary.pairs).toBe(1);
     expect(summary.sdDE).toBeNull();
@@ -228,12 +244,25 @@ describe("computeAudit", () => {
     const options = { rowBearingDeg: 33, toleranceRadial: 0.03, toleranceAlong: 0.05, groupBy: ["arm" as const] };
     const base = computeAudit({ ...field, options }).summary;
     fc.assert(
-      fc.property(fc.double({ min: -2e5, max: 2e5, noNaN: true }), fc.double({ min: -2e5, max: 2e5, noNaN: true }), (dx, dy) => {
-        const move = (t: ProjectedTable): ProjectedTable => ({ ...t, x: t.x.map((v) => v + dx), y: t.y.map((v) => v + dy) });
-        const moved = computeAudit({ planted: move(field.planted), survey: move(field.survey), pairing: field.pairing, options }).summary;
-        // shifts of the un-centred Helmert formula depend on the origin by definition; all else must not
-        expectSummariesClose(base, moved, 1e-7, (p) => p === ".helmert.tE" || p === ".helmert.tN");
-      }),
+      fc.property(
+        fc.double({ min: -2e5, max: 2e5, noNaN: true }),
+        fc.double({ min: -2e5, max: 2e5, noNaN: true }),
+        (dx, dy) => {
+          const move = (t: ProjectedTable): ProjectedTable => ({
+            ...t,
+            x: t.x.map((v) => v + dx),
+            y: t.y.map((v) => v + dy),
+          });
+          const moved = computeAudit({
+            planted: move(field.planted),
+            survey: move(field.survey),
+            pairing: field.pairing,
+            options,
+          }).summary;
+          // shifts of the un-centred Helmert formula depend on the origin by definition; all else must not
+          expectSummariesClose(base, moved, 1e-7, (p) => p === ".helmert.tE" || p === ".helmert.tN");
+        },
+      ),
       { numRuns: 25 },
     );
   });
@@ -255,7 +284,12 @@ describe("computeAudit", () => {
     const rawY = field.planted.y.map((v, i) => v + 0.03 * Math.sin(i * 1.7));
     rawX[17] = Number.NaN;
     const planted = { ...field.planted, rawX, rawY };
-    const { summary, residuals } = computeAudit({ planted, survey: field.survey, pairing: field.pairing, options: { toleranceRadial: 0.02 } });
+    const { summary, residuals } = computeAudit({
+      planted,
+      survey: field.survey,
+      pairing: field.pairing,
+      options: { toleranceRadial: 0.02 },
+    });
     expect(summary.raw).not.toBeNull();
     expect(summary.raw!.pairs).toBe(399);
     expect(summary.raw!.missingRaw).toBe(1);
@@ -264,7 +298,13 @@ describe("computeAudit", () => {
     expect(residuals.rawDE![17]).toBeNaN();
     // the raw block equals an audit run on the raw positions themselves (minus the plant without raw position)
     const keep = Array.from({ length: 400 }, (_, i) => i).filter((i) => i !== 17);
-    const asCorrected = { ...field.planted, x: rawX.map((v) => (Number.isNaN(v) ? 0 : v)), y: rawY, rawX: null, rawY: null };
+    const asCorrected = {
+      ...field.planted,
+      x: rawX.map((v) => (Number.isNaN(v) ? 0 : v)),
+      y: rawY,
+      rawX: null,
+      rawY: null,
+    };
     const direct = computeAudit({
       planted: asCorrected,
       survey: field.survey,
@@ -311,14 +351,27 @@ describe("computeAudit", () => {
     expect(armL.meanDE).toBeCloseTo((0.01 + 0.03) / 2, 9);
     expect(armL.withinShare).toBe(0.5);
     // the same plants in UTC days would split 2 + 1
-    const utc = computeAudit({ planted: { ...planted, time }, survey, pairing: identityPairing(4), options: { groupBy: ["day"], timeZone: "UTC" } });
+    const utc = computeAudit({
+      planted: { ...planted, time },
+      survey,
+      pairing: identityPairing(4),
+      options: { groupBy: ["day"], timeZone: "UTC" },
+    });
     expect(utc.summary.groups.day!.map((g) => g.pairs)).toEqual([2, 1, 1]);
   });
 
   it("computeAudit -- groups by an attribute only the survey has", () => {
     const { planted, survey } = handField();
-    const surveyed = { ...survey, attrs: { method: { codes: Int32Array.of(0, 0, 1, 1), values: ["rtk-rover", "total-station"] } } };
-    const { summary } = computeAudit({ planted, survey: surveyed, pairing: identityPairing(4), options: { groupBy: ["method"] } });
+    const surveyed = {
+      ...survey,
+      attrs: { method: { codes: Int32Array.of(0, 0, 1, 1), values: ["rtk-rover", "total-station"] } },
+    };
+    const { summary } = computeAudit({
+      planted,
+      survey: surveyed,
+      pairing: identityPairing(4),
+      options: { groupBy: ["method"] },
+    });
     expect(summary.groups.method!.map((g) => g.key)).toEqual(["rtk-rover", "total-station"]);
   });
 
@@ -351,7 +404,13 @@ describe("computeAudit", () => {
     expect(summary.withoutOutliers!.pairs).toBe(keep.length);
     expect(summary.withoutOutliers!.rmseE).toBeCloseTo(ss.rootMeanSquare(e), 12);
     expect(summary.withoutOutliers!.rmseR).toBeCloseTo(Math.hypot(ss.rootMeanSquare(e), ss.rootMeanSquare(n)), 12);
-    expect(summary.withoutOutliers!.r95).toBeCloseTo(ss.quantile(keep.map((i) => residuals.radial[i]), 0.95), 12);
+    expect(summary.withoutOutliers!.r95).toBeCloseTo(
+      ss.quantile(
+        keep.map((i) => residuals.radial[i]),
+        0.95,
+      ),
+      12,
+    );
     expect(summary.withoutOutliers!.rmseR!).toBeLessThan(summary.rmseR!);
     expect(summary.outliers.count).toBe(residuals.outlier.reduce((s, v) => s + v, 0));
   });
@@ -383,19 +442,25 @@ describe("computeAudit", () => {
 
   it("computeAudit -- rejects inconsistent input with greppable messages", () => {
     const { planted, survey } = handField();
-    expect(() => computeAudit({ planted, survey: { ...survey, crs: "EPSG:32632" }, pairing: identityPairing(4) })).toThrow(
-      "audit: planted (EPSG:32631) and survey (EPSG:32632) tables are not in the same work CRS",
+    expect(() =>
+      computeAudit({ planted, survey: { ...survey, crs: "EPSG:32632" }, pairing: identityPairing(4) }),
+    ).toThrow("audit: planted (EPSG:32631) and survey (EPSG:32632) tables are not in the same work CRS");
+    expect(() => computeAudit({ planted, survey, pairing: makePairing([[0, 9]]) })).toThrow(
+      "audit: pair 0 refers to survey row 9",
     );
-    expect(() => computeAudit({ planted, survey, pairing: makePairing([[0, 9]]) })).toThrow("audit: pair 0 refers to survey row 9");
     const broken = { ...survey, x: survey.x.map((v, i) => (i === 1 ? Number.NaN : v)) };
-    expect(() => computeAudit({ planted, survey: broken, pairing: identityPairing(4) })).toThrow("audit: pair 1 (planted row 1, survey row 1) has a non-finite coordinate");
-    expect(() => computeAudit({ planted, survey, pairing: identityPairing(4), options: { groupBy: ["cell"] } })).toThrow(
-      'audit: cannot group by "cell": neither planted.csv nor survey.csv has that column',
+    expect(() => computeAudit({ planted, survey: broken, pairing: identityPairing(4) })).toThrow(
+      "audit: pair 1 (planted row 1, survey row 1) has a non-finite coordinate",
     );
-    expect(() => computeAudit({ planted, survey, pairing: identityPairing(4), options: { groupBy: ["day"], timeZone: "UTC" } })).toThrow(
-      "audit: cannot group by day: planted.csv has no planting time column",
-    );
-    expect(() => computeAudit({ planted, survey, pairing: identityPairing(4), options: { toleranceAlong: 0.02 } })).toThrow("audit: invalid options");
+    expect(() =>
+      computeAudit({ planted, survey, pairing: identityPairing(4), options: { groupBy: ["cell"] } }),
+    ).toThrow('audit: cannot group by "cell": neither planted.csv nor survey.csv has that column');
+    expect(() =>
+      computeAudit({ planted, survey, pairing: identityPairing(4), options: { groupBy: ["day"], timeZone: "UTC" } }),
+    ).toThrow("audit: cannot group by day: planted.csv has no planting time column");
+    expect(() =>
+      computeAudit({ planted, survey, pairing: identityPairing(4), options: { toleranceAlong: 0.02 } }),
+    ).toThrow("audit: invalid options");
     const short = { ...identityPairing(4), method: new Uint8Array(3) };
     expect(() => computeAudit({ planted, survey, pairing: short })).toThrow("audit: pairing arrays differ in length");
   });
@@ -403,8 +468,18 @@ describe("computeAudit", () => {
   it("computeAudit -- inputs not mutated; residual arrays are copies", () => {
     const field = simulateField({ n: 50, seed: 8, biasE: 0.01, biasN: 0, sigmaE: 0.01, sigmaN: 0.01 });
     const time = Float64Array.from({ length: 50 }, (_, i) => Date.UTC(2025, 4, 12, 20 + (i % 6), 0));
-    const planted = { ...field.planted, time, rawX: field.planted.x.map((v) => v + 0.02), rawY: field.planted.y.slice() };
-    const options = { toleranceRadial: 0.03, rowBearingDeg: 12, groupBy: ["arm" as const, "day" as const], timeZone: "Europe/Amsterdam" };
+    const planted = {
+      ...field.planted,
+      time,
+      rawX: field.planted.x.map((v) => v + 0.02),
+      rawY: field.planted.y.slice(),
+    };
+    const options = {
+      toleranceRadial: 0.03,
+      rowBearingDeg: 12,
+      groupBy: ["arm" as const, "day" as const],
+      timeZone: "Europe/Amsterdam",
+    };
     const before = snapshot({ planted, survey: field.survey, pairing: field.pairing, options });
     const { residuals } = computeAudit({ planted, survey: field.survey, pairing: field.pairing, options });
     expect({ planted, survey: field.survey, pairing: field.pairing, options }).toEqual(before);
@@ -417,7 +492,12 @@ describe("computeAudit", () => {
   it("computeAudit -- every summary key is documented in SUMMARY.md", () => {
     const field = simulateField({ n: 60, seed: 4, biasE: 0.01, biasN: 0, sigmaE: 0.01, sigmaN: 0.01 });
     const planted = { ...field.planted, rawX: field.planted.x.slice(), rawY: field.planted.y.slice() };
-    const { summary } = computeAudit({ planted, survey: field.survey, pairing: field.pairing, options: { toleranceRadial: 0.03, rowBearingDeg: 0, groupBy: ["arm"] } });
+    const { summary } = computeAudit({
+      planted,
+      survey: field.survey,
+      pairing: field.pairing,
+      options: { toleranceRadial: 0.03, rowBearingDeg: 0, groupBy: ["arm"] },
+    });
     const doc = readFileSync(path.join(import.meta.dirname, "SUMMARY.md"), "utf8");
     const keys = new Set<string>();
     const walk = (v: unknown) => {

@@ -67,7 +67,9 @@ export interface AuditInput {
 
 function checkTable(t: ProjectedTable, name: string): void {
   if (t.x.length !== t.length || t.y.length !== t.length) {
-    throw new Error(`audit: ${name} table length ${t.length} does not match its coordinate arrays (${t.x.length}, ${t.y.length})`);
+    throw new Error(
+      `audit: ${name} table length ${t.length} does not match its coordinate arrays (${t.x.length}, ${t.y.length})`,
+    );
   }
 }
 
@@ -113,7 +115,8 @@ function pairCodes(
     column = survey.attrs[attr];
     rows = pairing.surveyIndex;
   }
-  if (!column) throw new Error(`audit: cannot group by "${attr}": neither ${planted.source} nor ${survey.source} has that column`);
+  if (!column)
+    throw new Error(`audit: cannot group by "${attr}": neither ${planted.source} nor ${survey.source} has that column`);
   const codes = new Int32Array(rows.length);
   for (let i = 0; i < rows.length; i++) codes[i] = column.codes[rows[i]];
   return { codes, values: column.values };
@@ -144,7 +147,8 @@ function statsWithoutOutliers(
     sumN2 += nn * nn;
     scratch[m++] = radial[i];
   }
-  if (m === 0) return { pairs: 0, meanDE: null, meanDN: null, rmseE: null, rmseN: null, rmseR: null, cep50: null, r95: null };
+  if (m === 0)
+    return { pairs: 0, meanDE: null, meanDN: null, rmseE: null, rmseN: null, rmseR: null, cep50: null, r95: null };
   const rmseE = Math.sqrt(sumE2 / m);
   const rmseN = Math.sqrt(sumN2 / m);
   const [cep50, r95] = quantilesInPlace(scratch.subarray(0, m), [0.5, 0.95]);
@@ -303,8 +307,10 @@ export function computeAudit(input: AuditInput): AuditResult {
   }
 
   const notes: AuditNote[] = [];
-  if (n === 0) notes.push({ code: "no-pairs", message: "No plant could be paired with a survey point; all statistics are null." });
-  if (n === 1) notes.push({ code: "single-pair", message: "Only one pair: no standard deviation, confidence interval or fit." });
+  if (n === 0)
+    notes.push({ code: "no-pairs", message: "No plant could be paired with a survey point; all statistics are null." });
+  if (n === 1)
+    notes.push({ code: "single-pair", message: "Only one pair: no standard deviation, confidence interval or fit." });
   if (n > 0 && n < 20) {
     notes.push({
       code: "few-checkpoints",
@@ -321,10 +327,16 @@ export function computeAudit(input: AuditInput): AuditResult {
     });
   }
   if (outliers.count > 0) {
-    notes.push({ code: "outliers", message: `${outliers.count} pair${outliers.count === 1 ? " is" : "s are"} flagged as outliers; see withoutOutliers.` });
+    notes.push({
+      code: "outliers",
+      message: `${outliers.count} pair${outliers.count === 1 ? " is" : "s are"} flagged as outliers; see withoutOutliers.`,
+    });
   }
   if (raw && raw.missingRaw > 0) {
-    notes.push({ code: "raw-partial", message: `${raw.missingRaw} paired plants have no raw GNSS position and are left out of raw.` });
+    notes.push({
+      code: "raw-partial",
+      message: `${raw.missingRaw} paired plants have no raw GNSS position and are left out of raw.`,
+    });
   }
 
   const { pairs: _pairs, ...headlineRest } = headline;

@@ -108,12 +108,16 @@ describe("studentTQuantile", () => {
 
   it("studentTQuantile -- symmetric and inverts the CDF", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0.5, max: 1e4, noNaN: true }), fc.double({ min: 1e-6, max: 1 - 1e-6, noNaN: true }), (df, p) => {
-        const t = studentTQuantile(p, df);
-        // relative comparison: t reaches 1e11 for df = 0.5 and p = 1e-6 (1 − p itself is rounded)
-        expect(Math.abs(studentTQuantile(1 - p, df) + t)).toBeLessThanOrEqual(1e-8 * Math.max(1, Math.abs(t)));
-        expect(studentTCdf(t, df)).toBeCloseTo(p, 9);
-      }),
+      fc.property(
+        fc.double({ min: 0.5, max: 1e4, noNaN: true }),
+        fc.double({ min: 1e-6, max: 1 - 1e-6, noNaN: true }),
+        (df, p) => {
+          const t = studentTQuantile(p, df);
+          // relative comparison: t reaches 1e11 for df = 0.5 and p = 1e-6 (1 − p itself is rounded)
+          expect(Math.abs(studentTQuantile(1 - p, df) + t)).toBeLessThanOrEqual(1e-8 * Math.max(1, Math.abs(t)));
+          expect(studentTCdf(t, df)).toBeCloseTo(p, 9);
+        },
+      ),
     );
   });
 

@@ -28,7 +28,8 @@ export function studentTCdf(t: number, df: number): number {
   if (t === -Infinity) return 0;
   const t2 = t * t;
   // Use whichever of x = df/(df+t²) or 1 − x is small, so the tail keeps its precision.
-  const tail = t2 < df ? 0.5 * (1 - regIncBeta(t2 / (df + t2), 0.5, df / 2)) : 0.5 * regIncBeta(df / (df + t2), df / 2, 0.5);
+  const tail =
+    t2 < df ? 0.5 * (1 - regIncBeta(t2 / (df + t2), 0.5, df / 2)) : 0.5 * regIncBeta(df / (df + t2), df / 2, 0.5);
   return t >= 0 ? 1 - tail : tail;
 }
 

@@ -47,9 +47,19 @@ describe("localDayCodes", () => {
   });
 
   it("localDayCodes -- the per-minute cache gives the same days as formatting every instant", () => {
-    const zones = ["Europe/Amsterdam", "America/Los_Angeles", "Asia/Kathmandu", "Pacific/Chatham", "Australia/Lord_Howe", "UTC"];
+    const zones = [
+      "Europe/Amsterdam",
+      "America/Los_Angeles",
+      "Asia/Kathmandu",
+      "Pacific/Chatham",
+      "Australia/Lord_Howe",
+      "UTC",
+    ];
     // 2024-01-01 .. 2027-01-01, including both daylight-saving transitions of every year
-    const times = fc.array(fc.integer({ min: Date.UTC(2024, 0, 1), max: Date.UTC(2027, 0, 1) }), { minLength: 1, maxLength: 60 });
+    const times = fc.array(fc.integer({ min: Date.UTC(2024, 0, 1), max: Date.UTC(2027, 0, 1) }), {
+      minLength: 1,
+      maxLength: 60,
+    });
     fc.assert(
       fc.property(fc.constantFrom(...zones), times, (zone, ts) => {
         const t = Float64Array.from(ts);
@@ -63,9 +73,19 @@ describe("localDayCodes", () => {
 
   it("localDayCodes -- instants around local midnight on a daylight-saving day", () => {
     // Europe/Amsterdam switches to summer time on 2025-03-30 at 01:00 UTC; local midnight before is 23:00 UTC
-    const t = Float64Array.of(Date.UTC(2025, 2, 29, 22, 59, 59, 999), Date.UTC(2025, 2, 29, 23, 0), Date.UTC(2025, 2, 30, 21, 59), Date.UTC(2025, 2, 30, 22, 0));
+    const t = Float64Array.of(
+      Date.UTC(2025, 2, 29, 22, 59, 59, 999),
+      Date.UTC(2025, 2, 29, 23, 0),
+      Date.UTC(2025, 2, 30, 21, 59),
+      Date.UTC(2025, 2, 30, 22, 0),
+    );
     const r = localDayCodes(t, Int32Array.of(0, 1, 2, 3), "Europe/Amsterdam");
-    expect(Array.from(r.codes).map((c) => r.values[c])).toEqual(["2025-03-29", "2025-03-30", "2025-03-30", "2025-03-31"]);
+    expect(Array.from(r.codes).map((c) => r.values[c])).toEqual([
+      "2025-03-29",
+      "2025-03-30",
+      "2025-03-30",
+      "2025-03-31",
+    ]);
   });
 
   it("localDayCodes -- inputs not mutated", () => {

@@ -50,19 +50,35 @@ export const auditOptionsSchema = z
   .superRefine((o, ctx) => {
     const hasBearing = o.rowBearingDeg !== undefined;
     if (!hasBearing && (o.toleranceCross !== undefined || o.toleranceAlong !== undefined)) {
-      ctx.addIssue({ code: "custom", path: ["rowBearingDeg"], message: "toleranceCross/toleranceAlong need a row bearing" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["rowBearingDeg"],
+        message: "toleranceCross/toleranceAlong need a row bearing",
+      });
     }
     if (hasBearing && o.rowBearingSource === "none") {
-      ctx.addIssue({ code: "custom", path: ["rowBearingSource"], message: 'rowBearingSource is "none" but a bearing was given' });
+      ctx.addIssue({
+        code: "custom",
+        path: ["rowBearingSource"],
+        message: 'rowBearingSource is "none" but a bearing was given',
+      });
     }
     if (!hasBearing && (o.rowBearingSource === "given" || o.rowBearingSource === "derived")) {
-      ctx.addIssue({ code: "custom", path: ["rowBearingDeg"], message: `rowBearingSource is "${o.rowBearingSource}" but no bearing was given` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["rowBearingDeg"],
+        message: `rowBearingSource is "${o.rowBearingSource}" but no bearing was given`,
+      });
     }
     if (new Set(o.groupBy).size !== o.groupBy.length) {
       ctx.addIssue({ code: "custom", path: ["groupBy"], message: "groupBy lists an attribute twice" });
     }
     if (o.groupBy.includes("day") && o.timeZone === undefined) {
-      ctx.addIssue({ code: "custom", path: ["timeZone"], message: 'grouping by "day" needs the field\'s time zone (IANA name)' });
+      ctx.addIssue({
+        code: "custom",
+        path: ["timeZone"],
+        message: 'grouping by "day" needs the field\'s time zone (IANA name)',
+      });
     }
     if (o.timeZone !== undefined && !isKnownTimeZone(o.timeZone)) {
       ctx.addIssue({ code: "custom", path: ["timeZone"], message: `unknown time zone "${o.timeZone}"` });

@@ -82,7 +82,9 @@ describe("flagOutliers", () => {
     const r = flagOutliers(new Float64Array(0), new Float64Array(0));
     expect(r.count).toBe(0);
     expect(r.threshold).toBeNaN();
-    expect(() => flagOutliers(new Float64Array(1), new Float64Array(1), { k: 0, minThreshold: 0 })).toThrow("flagOutliers: need k > 0");
+    expect(() => flagOutliers(new Float64Array(1), new Float64Array(1), { k: 0, minThreshold: 0 })).toThrow(
+      "flagOutliers: need k > 0",
+    );
   });
 
   it("flagOutliers -- inputs not mutated", () => {

@@ -41,7 +41,6 @@ export interface OutlierResult {
   centreDN: number;
 }
 
-
 /**
  * Flags outliers among paired errors dE, dN (metres, not modified) with the rule documented in this module.
  * `scratchSpace` (length ≥ n), when given, is used as work space and overwritten.
@@ -59,7 +58,9 @@ export function flagOutliers(
   const n = dE.length;
   if (dN.length !== n) throw new Error("flagOutliers: dE and dN differ in length");
   if (!(rule.k > 0) || !(rule.minThreshold >= 0)) {
-    throw new Error(`flagOutliers: need k > 0 and minThreshold ≥ 0, got k=${rule.k}, minThreshold=${rule.minThreshold}`);
+    throw new Error(
+      `flagOutliers: need k > 0 and minThreshold ≥ 0, got k=${rule.k}, minThreshold=${rule.minThreshold}`,
+    );
   }
   const flags = new Uint8Array(n);
   if (n === 0) return { flags, count: 0, threshold: Number.NaN, centreDE: Number.NaN, centreDN: Number.NaN };

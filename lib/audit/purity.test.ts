@@ -8,7 +8,9 @@ import { impurities } from "@/tests/purity-rules";
 
 describe("lib/audit purity", () => {
   const dir = import.meta.dirname;
-  const files = readdirSync(dir).filter((f) => f.endsWith(".ts") && !f.endsWith(".test.ts") && !f.endsWith(".d.ts") && f !== "test-helpers.ts");
+  const files = readdirSync(dir).filter(
+    (f) => f.endsWith(".ts") && !f.endsWith(".test.ts") && !f.endsWith(".d.ts") && f !== "test-helpers.ts",
+  );
 
   it("purity -- production modules exist", () => {
     expect(files).toContain("index.ts");

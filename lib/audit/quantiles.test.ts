@@ -10,7 +10,10 @@ import * as ss from "simple-statistics";
 import { describe, expect, it } from "vitest";
 import { median, medianAbsoluteDeviation, quantileSorted, quantiles, quantilesInPlace } from "./quantiles";
 
-const sample = fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true, noDefaultInfinity: true }), { minLength: 1, maxLength: 300 });
+const sample = fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true, noDefaultInfinity: true }), {
+  minLength: 1,
+  maxLength: 300,
+});
 const tiedSample = fc.array(fc.integer({ min: -3, max: 3 }), { minLength: 1, maxLength: 300 });
 const probability = fc.double({ min: 0, max: 1, noNaN: true });
 

@@ -72,6 +72,9 @@ export function modelRadii(rmseE: number, rmseN: number): Radii {
  * @example empiricalRadii(Float64Array.of(0.01, 0.02, 0.03)) // { cep50: 0.02, r95: 0.029 }
  */
 export function empiricalRadii(radial: ArrayLike<number>): Radii {
-  const [cep50, r95] = quantilesInPlace(radial instanceof Float64Array ? radial.slice() : Float64Array.from(radial), [0.5, 0.95]);
+  const [cep50, r95] = quantilesInPlace(
+    radial instanceof Float64Array ? radial.slice() : Float64Array.from(radial),
+    [0.5, 0.95],
+  );
   return { cep50, r95 };
 }

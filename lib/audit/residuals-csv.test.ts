@@ -11,7 +11,8 @@ import {
   RESIDUALS_CSV_COLUMNS,
   UNPAIRED_CSV_COLUMNS,
   csvNumberFormatter,
-  neutraliseCell,  residualsCsv,
+  neutraliseCell,
+  residualsCsv,
   summaryCsv,
   summaryRows,
   unpairedCsv,
@@ -30,8 +31,13 @@ function field() {
     role: "planted",
     x: [612000, 612000.5, 612001],
     y: [5812000, 5812000.3, 5812000.6],
-    id: ["HB-1", "=HYPERLINK(\"http://x\")", "-12"],
-    attrs: { crop: ["leek", "@SUM(A1)", 'onion, "red"'], bed: ["1", "1", "2"], arm: ["L", "R", ""], fix: ["4", "5", "4"] },
+    id: ["HB-1", '=HYPERLINK("http://x")', "-12"],
+    attrs: {
+      crop: ["leek", "@SUM(A1)", 'onion, "red"'],
+      bed: ["1", "1", "2"],
+      arm: ["L", "R", ""],
+      fix: ["4", "5", "4"],
+    },
   });
   const survey = makeTable({
     role: "survey",
@@ -76,14 +82,19 @@ describe("residuals CSV", () => {
       [1, 1],
       [2, 2],
     ]);
-    const { residuals } = computeAudit({ planted, survey, pairing, options: { toleranceRadial: 0.02, rowBearingDeg: 0 } });
+    const { residuals } = computeAudit({
+      planted,
+      survey,
+      pairing,
+      options: { toleranceRadial: 0.02, rowBearingDeg: 0 },
+    });
     const rows = parse([...residualsCsv({ planted, survey, residuals })].join(""));
     expect(rows[0]).toEqual([...RESIDUALS_CSV_COLUMNS]);
     const col = (name: (typeof RESIDUALS_CSV_COLUMNS)[number]) => RESIDUALS_CSV_COLUMNS.indexOf(name);
     expect(rows).toHaveLength(4);
     expect(rows[1][col("plant_id")]).toBe("HB-1");
     expect(rows[1][col("de_m")]).toBe("0.012");
-    expect(rows[2][col("plant_id")]).toBe("'=HYPERLINK(\"http://x\")");
+    expect(rows[2][col("plant_id")]).toBe('\'=HYPERLINK("http://x")');
     expect(rows[2][col("crop")]).toBe("'@SUM(A1)");
     expect(rows[2][col("de_m")]).toBe("-0.012"); // a number keeps its minus sign, no quote
     expect(rows[2][col("fix")]).toBe("5");
@@ -130,7 +141,7 @@ describe("residuals CSV", () => {
     const rows = parse([...unpairedCsv({ planted, survey, pairing })].join(""));
     expect(rows[0]).toEqual([...UNPAIRED_CSV_COLUMNS]);
     expect(rows.slice(1).map((r) => [r[0], r[1], r[2], r[3]])).toEqual([
-      ["planted-not-found", "'=HYPERLINK(\"http://x\")", "planted.csv", "3"],
+      ["planted-not-found", '\'=HYPERLINK("http://x")', "planted.csv", "3"],
       ["planted-not-found", "'-12", "planted.csv", "4"],
       ["surveyed-not-planted", "'+weed", "survey.csv", "5"],
       ["ambiguous", "x", "survey.csv", "3"],

@@ -35,7 +35,19 @@ export const RESIDUALS_CSV_COLUMNS = [
 ] as const;
 
 /** Columns of the unpaired-points CSV, in order. */
-export const UNPAIRED_CSV_COLUMNS = ["kind", "id", "file", "line", "e", "n", "crop", "bed", "row", "arm", "fix"] as const;
+export const UNPAIRED_CSV_COLUMNS = [
+  "kind",
+  "id",
+  "file",
+  "line",
+  "e",
+  "n",
+  "crop",
+  "bed",
+  "row",
+  "arm",
+  "fix",
+] as const;
 
 const DANGEROUS_FIRST = new Set(["=", "+", "-", "@", "\t", "\r"]);
 const NEEDS_QUOTES = /[",\r\n]/;
@@ -81,7 +93,8 @@ export function csvNumberFormatter(decimals: number): (v: number) => string {
   if (decimals > 4) return slow;
   // fractions[f] = ".dddd" without trailing zeros ("" for 0)
   const fractions = new Array<string>(scale);
-  for (let f = 0; f < scale; f++) fractions[f] = f === 0 ? "" : `.${String(f).padStart(decimals, "0").replace(/0+$/, "")}`;
+  for (let f = 0; f < scale; f++)
+    fractions[f] = f === 0 ? "" : `.${String(f).padStart(decimals, "0").replace(/0+$/, "")}`;
   return (v: number): string => {
     if (!Number.isFinite(v)) return "";
     const q = Math.round(Math.abs(v) * scale);
@@ -110,7 +123,11 @@ function cellOf(col: OutputColumn, row: number): string {
 }
 
 /** Attribute of a pair: the planted record's value when the planted file has the column, else the survey point's. */
-function pairColumn(planted: PointTable, survey: PointTable, name: AttributeName): { column: OutputColumn; fromPlanted: boolean } {
+function pairColumn(
+  planted: PointTable,
+  survey: PointTable,
+  name: AttributeName,
+): { column: OutputColumn; fromPlanted: boolean } {
   const fromPlanted = planted.attrs[name] !== undefined;
   return { column: outputColumn(fromPlanted ? planted : survey, name), fromPlanted };
 }

@@ -37,7 +37,9 @@ describe("rowFrame", () => {
   it("rowFrame -- preserves length and matches the scalar form", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.tuple(fc.double({ min: -1, max: 1, noNaN: true }), fc.double({ min: -1, max: 1, noNaN: true })), { maxLength: 50 }),
+        fc.array(fc.tuple(fc.double({ min: -1, max: 1, noNaN: true }), fc.double({ min: -1, max: 1, noNaN: true })), {
+          maxLength: 50,
+        }),
         fc.double({ min: -720, max: 720, noNaN: true }),
         (pairs, bearing) => {
           const dE = Float64Array.from(pairs.map((p) => p[0]));

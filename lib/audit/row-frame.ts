@@ -15,7 +15,8 @@ export interface RowFrameErrors {
 }
 
 function unitVectors(bearingDeg: number): { s: number; c: number } {
-  if (!Number.isFinite(bearingDeg)) throw new Error(`rowFrame: row bearing must be a finite number of degrees, got ${bearingDeg}`);
+  if (!Number.isFinite(bearingDeg))
+    throw new Error(`rowFrame: row bearing must be a finite number of degrees, got ${bearingDeg}`);
   const rad = ((((bearingDeg % 360) + 360) % 360) * Math.PI) / 180;
   return { s: Math.sin(rad), c: Math.cos(rad) };
 }

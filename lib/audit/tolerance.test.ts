@@ -9,7 +9,12 @@ const none = { radial: null, cross: null, along: null };
 
 describe("tolerance", () => {
   it("withinToleranceFlags -- radial limit is inclusive", () => {
-    const flags = withinToleranceFlags({ radial: Float64Array.of(0.01, 0.03, 0.031), along: null, cross: null, limits: { ...none, radial: 0.03 } });
+    const flags = withinToleranceFlags({
+      radial: Float64Array.of(0.01, 0.03, 0.031),
+      along: null,
+      cross: null,
+      limits: { ...none, radial: 0.03 },
+    });
     expect(Array.from(flags)).toEqual([1, 1, 0]);
   });
 
@@ -20,14 +25,23 @@ describe("tolerance", () => {
       along: Float64Array.of(0.017, 0.001, 0.05),
     };
     expect(Array.from(withinToleranceFlags({ ...input, limits: { ...none, cross: 0.015 } }))).toEqual([1, 0, 1]);
-    expect(Array.from(withinToleranceFlags({ ...input, limits: { radial: 0.03, cross: 0.015, along: null } }))).toEqual([1, 0, 0]);
-    expect(Array.from(withinToleranceFlags({ ...input, limits: { radial: null, cross: 0.02, along: 0.01 } }))).toEqual([0, 1, 0]);
+    expect(Array.from(withinToleranceFlags({ ...input, limits: { radial: 0.03, cross: 0.015, along: null } }))).toEqual(
+      [1, 0, 0],
+    );
+    expect(Array.from(withinToleranceFlags({ ...input, limits: { radial: null, cross: 0.02, along: 0.01 } }))).toEqual([
+      0, 1, 0,
+    ]);
   });
 
   it("withinToleranceFlags -- cross limit without a row frame throws", () => {
-    expect(() => withinToleranceFlags({ radial: Float64Array.of(0.01), along: null, cross: null, limits: { ...none, cross: 0.02 } })).toThrow(
-      "withinToleranceFlags: cross/along limits need a row bearing",
-    );
+    expect(() =>
+      withinToleranceFlags({
+        radial: Float64Array.of(0.01),
+        along: null,
+        cross: null,
+        limits: { ...none, cross: 0.02 },
+      }),
+    ).toThrow("withinToleranceFlags: cross/along limits need a row bearing");
   });
 
   it("withinToleranceShare -- 20 of 20 within supports only 83.2 %", () => {

@@ -64,7 +64,11 @@ export function evaluateVerdict(
   const criteria: Criterion[] = [];
   const enough = input.pairs >= profile.minCheckpoints;
   criteria.push({
-    id: "checkpoints", passed: enough, observed: input.pairs, limit: profile.minCheckpoints, unit: "count",
+    id: "checkpoints",
+    passed: enough,
+    observed: input.pairs,
+    limit: profile.minCheckpoints,
+    unit: "count",
     text: enough
       ? `${input.pairs} checkpoints paired; the profile asks for at least ${profile.minCheckpoints}`
       : `only ${input.pairs} checkpoints paired; the profile asks for ${profile.minCheckpoints}`,
@@ -76,13 +80,23 @@ export function evaluateVerdict(
   ];
   for (const [id, limit, values, words] of limits) {
     if (limit === null) continue;
-    const observed = id === "radial" ? (values && values.length ? quantileSorted(Float64Array.from(values).sort(), 0.95) : null) : p95Abs(values);
+    const observed =
+      id === "radial"
+        ? values && values.length
+          ? quantileSorted(Float64Array.from(values).sort(), 0.95)
+          : null
+        : p95Abs(values);
     const passed = observed !== null && observed <= limit;
     criteria.push({
-      id, passed, observed, limit, unit: "m",
-      text: observed === null
-        ? `${words}: no figure (${id === "radial" ? "no pairs" : "no row bearing"}); limit ${mm(limit)}`
-        : `95 % of ${words} within ${mm(observed)}; limit ${mm(limit)}`,
+      id,
+      passed,
+      observed,
+      limit,
+      unit: "m",
+      text:
+        observed === null
+          ? `${words}: no figure (${id === "radial" ? "no pairs" : "no row bearing"}); limit ${mm(limit)}`
+          : `95 % of ${words} within ${mm(observed)}; limit ${mm(limit)}`,
     });
   }
   if (profile.radialM !== null || profile.crossM !== null || profile.alongM !== null) {
@@ -90,7 +104,11 @@ export function evaluateVerdict(
     const passed = !!w && w.lower95 >= profile.requiredShare;
     const conf = `${Math.round(profile.confidence * 100)} %`;
     criteria.push({
-      id: "share", passed, observed: w ? w.lower95 : null, limit: profile.requiredShare, unit: "share",
+      id: "share",
+      passed,
+      observed: w ? w.lower95 : null,
+      limit: profile.requiredShare,
+      unit: "share",
       text: w
         ? `${pct(w.share)} of plants within every limit; with ${conf} confidence at least ${pct(w.lower95)}; the profile asks for ${pct(profile.requiredShare)}`
         : `share within tolerance unknown; the profile asks for ${pct(profile.requiredShare)}`,

@@ -27,7 +27,9 @@ const USAGE = `usage: npm run audit -- --planted FILE --survey FILE [options]
 `;
 
 const positive = (name: string) =>
-  z.coerce.number({ error: `${name} must be a number` }).refine((v) => Number.isFinite(v) && v > 0, `${name} must be a positive number of metres`);
+  z.coerce
+    .number({ error: `${name} must be a number` })
+    .refine((v) => Number.isFinite(v) && v > 0, `${name} must be a positive number of metres`);
 
 const argsSchema = z.object({
   planted: z.string({ error: "--planted FILE is required" }).min(1),
@@ -46,10 +48,16 @@ const argsSchema = z.object({
     .string()
     .optional()
     .transform((s, ctx) => {
-      const names = (s ?? "").split(",").map((x) => x.trim()).filter(Boolean);
+      const names = (s ?? "")
+        .split(",")
+        .map((x) => x.trim())
+        .filter(Boolean);
       for (const n of names) {
         if (!(GROUP_NAMES as readonly string[]).includes(n)) {
-          ctx.addIssue({ code: "custom", message: `--group-by: unknown "${n}"; expected some of ${GROUP_NAMES.join(", ")}` });
+          ctx.addIssue({
+            code: "custom",
+            message: `--group-by: unknown "${n}"; expected some of ${GROUP_NAMES.join(", ")}`,
+          });
         }
       }
       return names as (typeof GROUP_NAMES)[number][];
@@ -99,7 +107,7 @@ async function main(argv: string[]): Promise<number> {
   }
   const a = parsed.data;
   if (a["group-by"].includes("day") && !a.timezone) {
-    process.stderr.write('error: --group-by day needs --timezone (the field\'s time zone, e.g. Europe/Berlin)\n');
+    process.stderr.write("error: --group-by day needs --timezone (the field's time zone, e.g. Europe/Berlin)\n");
     return 2;
   }
   const result = await runPipeline({
@@ -117,7 +125,10 @@ async function main(argv: string[]): Promise<number> {
     out: a.out,
   });
   for (const issue of result.issues) process.stderr.write(`${formatIssue(issue)}\n`);
-  if (a.timings) process.stderr.write(`timings (ms): ${JSON.stringify(result.timings, (_, v) => (typeof v === "number" ? Math.round(v) : v))}\n`);
+  if (a.timings)
+    process.stderr.write(
+      `timings (ms): ${JSON.stringify(result.timings, (_, v) => (typeof v === "number" ? Math.round(v) : v))}\n`,
+    );
   if (result.exitCode !== 0 || !result.report) return result.exitCode;
   process.stdout.write(`${JSON.stringify(result.report, null, 2)}\n`);
   return 0;

@@ -15,7 +15,8 @@ import { gaussian, mulberry32 } from "@/lib/random";
 export const DIR = ".bench";
 const UTM = "+proj=utm +zone=32 +datum=WGS84 +units=m +no_defs";
 const WGS = "+proj=longlat +datum=WGS84 +no_defs";
-const ORIGIN_E = 552_300, ORIGIN_N = 5_794_100; // near 52.3°N 9.77°E (fictional field)
+const ORIGIN_E = 552_300,
+  ORIGIN_N = 5_794_100; // near 52.3°N 9.77°E (fictional field)
 const BEARING = (28 * Math.PI) / 180;
 
 /** Deterministic uniform and normal random numbers. */
@@ -41,17 +42,25 @@ async function writeLines(path: string, gen: () => Generator<string>): Promise<v
 
 /** Writes planted-N.csv and survey-N.csv for a field of N plants. */
 export async function generate(n: number): Promise<void> {
-  const rowsPerBed = 5, rowGap = 0.5, bedWidth = 3, spacing = 0.25;
+  const rowsPerBed = 5,
+    rowGap = 0.5,
+    bedWidth = 3,
+    spacing = 0.25;
   const perRow = Math.max(10, Math.round(Math.sqrt(n / 8)));
   const toGeo = proj4(UTM, WGS);
-  const sinB = Math.sin(BEARING), cosB = Math.cos(BEARING);
+  const sinB = Math.sin(BEARING),
+    cosB = Math.cos(BEARING);
   const r = rng(n);
   // Truth per plant, in walking order: bed, row within bed, position along the row.
-  const te = new Float64Array(n), tn = new Float64Array(n);
+  const te = new Float64Array(n),
+    tn = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const rowIndex = Math.floor(i / perRow), k = i % perRow;
-    const bed = Math.floor(rowIndex / rowsPerBed), row = rowIndex % rowsPerBed;
-    const along = k * spacing, cross = bed * bedWidth + row * rowGap;
+    const rowIndex = Math.floor(i / perRow),
+      k = i % perRow;
+    const bed = Math.floor(rowIndex / rowsPerBed),
+      row = rowIndex % rowsPerBed;
+    const along = k * spacing,
+      cross = bed * bedWidth + row * rowGap;
     te[i] = ORIGIN_E + along * sinB + cross * cosB;
     tn[i] = ORIGIN_N + along * cosB - cross * sinB;
   }
@@ -61,7 +70,8 @@ export async function generate(n: number): Promise<void> {
     const p = [0, 0];
     for (let i = 0; i < n; i++) {
       const rowIndex = Math.floor(i / perRow);
-      const bed = Math.floor(rowIndex / rowsPerBed), row = (rowIndex % rowsPerBed) + 1;
+      const bed = Math.floor(rowIndex / rowsPerBed),
+        row = (rowIndex % rowsPerBed) + 1;
       const float = r.u() < 0.02;
       const s = float ? 0.04 : 0.003;
       p[0] = te[i] + 0.002 + s * r.n();
@@ -85,7 +95,8 @@ export async function generate(n: number): Promise<void> {
 
 /** Paths of the field of `n` plants, generated when missing (or when `regen`). */
 export async function benchFiles(n: number, regen = false): Promise<{ planted: string; survey: string }> {
-  const planted = `${DIR}/planted-${n}.csv`, survey = `${DIR}/survey-${n}.csv`;
+  const planted = `${DIR}/planted-${n}.csv`,
+    survey = `${DIR}/survey-${n}.csv`;
   if (regen || !existsSync(planted) || !existsSync(survey)) {
     mkdirSync(DIR, { recursive: true });
     const t = performance.now();

@@ -15,7 +15,12 @@ import { parseArgs } from "node:util";
 import { request, type APIRequestContext } from "playwright-core";
 import { benchFiles } from "./bench-field";
 
-const { values } = parseArgs({ options: { base: { type: "string", default: "http://127.0.0.1:3000" }, plants: { type: "string", default: "100000" } } });
+const { values } = parseArgs({
+  options: {
+    base: { type: "string", default: "http://127.0.0.1:3000" },
+    plants: { type: "string", default: "100000" },
+  },
+});
 const base = values.base!;
 const n = Number(values.plants);
 
@@ -39,14 +44,26 @@ async function main(): Promise<void> {
   const tech = await signedIn("tamsin@kestrelfen.example");
   const grower = await signedIn("ansel@kestrelfen.example");
   const { field } = await json<{ field: { id: string } }>(
-    tech.post("/api/fields", { data: { name: `Alder Bank bench ${n} ${Date.now()}`, farm: "Alder Bank", crs: "EPSG:32632", timeZone: "Europe/Berlin" } }),
+    tech.post("/api/fields", {
+      data: {
+        name: `Alder Bank bench ${n} ${Date.now()}`,
+        farm: "Alder Bank",
+        crs: "EPSG:32632",
+        timeZone: "Europe/Berlin",
+      },
+    }),
     "create field",
   );
   const upload = async (path: string, kind: string, crs?: string) => {
     const t = performance.now();
     const body = await json<{ dataset: { id: string } }>(
       tech.post(`/api/fields/${field.id}/datasets`, {
-        multipart: { file: { name: basename(path), mimeType: "text/csv", buffer: readFileSync(path) }, kind, acceptWarnings: "true", ...(crs ? { crs } : {}) },
+        multipart: {
+          file: { name: basename(path), mimeType: "text/csv", buffer: readFileSync(path) },
+          kind,
+          acceptWarnings: "true",
+          ...(crs ? { crs } : {}),
+        },
         timeout: 600_000,
       }),
       `upload ${path}`,
@@ -60,12 +77,22 @@ async function main(): Promise<void> {
 
   const t0 = performance.now();
   const { audit } = await json<{ audit: { id: string } }>(
-    tech.post("/api/audits", { data: { fieldId: field.id, plantedDatasetId, surveyDatasetId, profileId: profiles[0].id, match: "nearest", maxDistanceM: 0.1 } }),
+    tech.post("/api/audits", {
+      data: {
+        fieldId: field.id,
+        plantedDatasetId,
+        surveyDatasetId,
+        profileId: profiles[0].id,
+        match: "nearest",
+        maxDistanceM: 0.1,
+      },
+    }),
     "create audit",
   );
   const waits: number[] = [];
   let resets = 0;
-  let state = "computing", stage = "";
+  let state = "computing",
+    stage = "";
   const stages = new Set<string>();
   while (state === "computing") {
     const t = performance.now();
@@ -80,7 +107,10 @@ async function main(): Promise<void> {
       }
     }
     waits.push(performance.now() - t);
-    const a = await json<{ audit: { state: string; progressStage: string } }>(tech.get(`/api/audits/${audit.id}`, { timeout: 300_000 }), "poll");
+    const a = await json<{ audit: { state: string; progressStage: string } }>(
+      tech.get(`/api/audits/${audit.id}`, { timeout: 300_000 }),
+      "poll",
+    );
     state = a.audit.state;
     stage = a.audit.progressStage;
     stages.add(stage);
@@ -88,10 +118,21 @@ async function main(): Promise<void> {
   }
   const total = performance.now() - t0;
   waits.sort((a, b) => a - b);
-  console.log(JSON.stringify({
-    plants: n, state, stagesSeen: [...stages], auditMs: Math.round(total), growerRequests: waits.length, connectionResets: resets,
-    growerMs: { median: Math.round(pct(waits, 0.5)), p95: Math.round(pct(waits, 0.95)), max: Math.round(waits[waits.length - 1]) },
-  }));
+  console.log(
+    JSON.stringify({
+      plants: n,
+      state,
+      stagesSeen: [...stages],
+      auditMs: Math.round(total),
+      growerRequests: waits.length,
+      connectionResets: resets,
+      growerMs: {
+        median: Math.round(pct(waits, 0.5)),
+        p95: Math.round(pct(waits, 0.95)),
+        max: Math.round(waits[waits.length - 1]),
+      },
+    }),
+  );
   if (state !== "computed") process.exitCode = 1;
 }
 

@@ -87,7 +87,8 @@ async function main(): Promise<void> {
   );
   for (const l of rows) {
     const r = JSON.parse(l);
-    const t = r.timingsMs, c = r.cpuMs;
+    const t = r.timingsMs,
+      c = r.cpuMs;
     const cell = (k: string) => `${t[k]} (${c[k]})`;
     process.stdout.write(
       `| ${r.n.toLocaleString("en")} | ${cell("read")} | ${cell("validate")} | ${cell("project")} | ${cell("check-files")} | ${cell("pair")} | ${cell("row-bearing")} | ${cell("statistics")} | ${cell("total")} | ${r.peakRssSampledMB} MB (${r.maxRssMB} MB) | ${r.loadAverage1m} |\n`,

@@ -39,13 +39,20 @@ function endsOnCharBoundary(b: Buffer): boolean {
  * ASCII and about twice as fast as UTF-8 decoding; other chunks go through a streaming UTF-8 decoder.
  * A leading UTF-8 BOM is dropped.
  */
-export async function* fileText(path: string, range: { start?: number; end?: number; prefix?: Uint8Array } = {}): AsyncGenerator<string> {
+export async function* fileText(
+  path: string,
+  range: { start?: number; end?: number; prefix?: Uint8Array } = {},
+): AsyncGenerator<string> {
   const decoder = new StringDecoder("utf8");
   let pending = false; // decoder holds part of a character
   let first = true;
   async function* bytes(): AsyncGenerator<Buffer> {
     if (range.prefix) yield Buffer.from(range.prefix);
-    yield* createReadStream(path, { highWaterMark: 1 << 20, start: range.start, end: range.end === undefined ? undefined : range.end - 1 }) as AsyncIterable<Buffer>;
+    yield* createReadStream(path, {
+      highWaterMark: 1 << 20,
+      start: range.start,
+      end: range.end === undefined ? undefined : range.end - 1,
+    }) as AsyncIterable<Buffer>;
   }
   for await (const chunk of bytes()) {
     let b = chunk;

@@ -13,7 +13,7 @@ export { readFileJob, type ReadJob } from "./file-read";
 export async function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
   const entry = await workerBundle("lib/cli/read-worker.ts");
   return new Promise((resolve, reject) => {
-    const worker = new Worker(entry, { workerData: { jobs }, execArgv: [] }) // no tsx hooks: the bundle is plain JavaScript;
+    const worker = new Worker(entry, { workerData: { jobs }, execArgv: [] }); // no tsx hooks: the bundle is plain JavaScript;
     worker.once("message", (r: ReadResult[]) => {
       // Structured cloning keeps an IdColumn's arrays but not its class.
       for (const x of r) if (x.table) x.table.id = IdColumn.revive(x.table.id);
@@ -22,7 +22,8 @@ export async function readInWorker(jobs: ReadJob[]): Promise<ReadResult[]> {
     });
     worker.once("error", reject);
     worker.once("exit", (code) => {
-      if (code !== 0) reject(new Error(`reading ${jobs.map((j) => j.path).join(", ")} on a worker thread stopped with code ${code}`));
+      if (code !== 0)
+        reject(new Error(`reading ${jobs.map((j) => j.path).join(", ")} on a worker thread stopped with code ${code}`));
     });
   });
 }
@@ -62,7 +63,8 @@ export async function readBoth(
   survey: ReadJob,
   options: { parallel?: boolean; splitSlackBytes?: number } = {},
 ): Promise<[ReadResult, ReadResult]> {
-  const sp = sizeOf(planted.path), ss = sizeOf(survey.path);
+  const sp = sizeOf(planted.path),
+    ss = sizeOf(survey.path);
   const useWorker = options.parallel ?? sp + ss >= PARALLEL_MIN_BYTES;
   if (useWorker) {
     try {
@@ -74,12 +76,21 @@ export async function readBoth(
   return [await readFileJob(planted), await readFileJob(survey)];
 }
 
-async function readOnTwoThreads(planted: ReadJob, survey: ReadJob, sp: number, ss: number, slack: number): Promise<[ReadResult, ReadResult]> {
+async function readOnTwoThreads(
+  planted: ReadJob,
+  survey: ReadJob,
+  sp: number,
+  ss: number,
+  slack: number,
+): Promise<[ReadResult, ReadResult]> {
   const csv = (j: ReadJob) => (j.format ?? formatFromName(j.path)) === "csv";
   const bigIsPlanted = sp >= ss;
-  const big = bigIsPlanted ? planted : survey, small = bigIsPlanted ? survey : planted;
-  const bigSize = Math.max(sp, ss), total = sp + ss;
-  let cut = -1, prefix: Buffer | null = null;
+  const big = bigIsPlanted ? planted : survey,
+    small = bigIsPlanted ? survey : planted;
+  const bigSize = Math.max(sp, ss),
+    total = sp + ss;
+  let cut = -1,
+    prefix: Buffer | null = null;
   if (csv(big) && bigSize > total / 2 + slack) {
     const first = head(big.path, 0, 1 << 16);
     const nl = first.indexOf(0x0a);
@@ -104,6 +115,8 @@ async function readOnTwoThreads(planted: ReadJob, survey: ReadJob, sp: number, s
   ]);
   const [smallResult, tail] = workerResults;
   const bigResult =
-    head1.sawQuote || tail.sawQuote ? await readFileJob(big) : appendReadResults(head1, tail, (head1.linesRead ?? 1) - 1);
+    head1.sawQuote || tail.sawQuote
+      ? await readFileJob(big)
+      : appendReadResults(head1, tail, (head1.linesRead ?? 1) - 1);
   return bigIsPlanted ? [bigResult, smallResult] : [smallResult, bigResult];
 }

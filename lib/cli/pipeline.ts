@@ -5,7 +5,15 @@
  */
 import { createWriteStream } from "node:fs";
 import { once } from "node:events";
-import { hasErrors, prepareAudit, resolveCrs, type ColumnGuess, type InputIssue, type MatchMode, type ReadResult } from "@/geo";
+import {
+  hasErrors,
+  prepareAudit,
+  resolveCrs,
+  type ColumnGuess,
+  type InputIssue,
+  type MatchMode,
+  type ReadResult,
+} from "@/geo";
 import { computeAudit, residualsCsv, type AuditSummary, type GroupName } from "@/lib/audit";
 import { readBoth } from "./files";
 
@@ -50,7 +58,12 @@ export interface RunInfo {
 }
 
 /** CRS of a file as read: the one given, the file's own hint, or WGS 84 for latitude/longitude columns. */
-function crsFor(given: string | undefined, r: ReadResult, file: string, flag: string): { crs?: string; issue?: InputIssue } {
+function crsFor(
+  given: string | undefined,
+  r: ReadResult,
+  file: string,
+  flag: string,
+): { crs?: string; issue?: InputIssue } {
   if (given) return { crs: given };
   if (r.crsHint) return { crs: r.crsHint };
   if (r.columns.coordinates === "geographic") return { crs: "EPSG:4326" };

@@ -6,7 +6,10 @@ import { readFileJob, type ReadJob } from "./file-read";
 async function main(): Promise<void> {
   const results: ReadResult[] = [];
   for (const job of (workerData as { jobs: ReadJob[] }).jobs) results.push(await readFileJob(job));
-  parentPort!.postMessage(results, results.flatMap((r) => (r.table ? tableBuffers(r.table) : [])));
+  parentPort!.postMessage(
+    results,
+    results.flatMap((r) => (r.table ? tableBuffers(r.table) : [])),
+  );
 }
 
 void main();

@@ -64,7 +64,10 @@ export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
         const float = bed === 3 && (row === 2 || row === 3) && k >= 30 && k < 110;
         let dAlong = g() * 0.002;
         let dCross = ARM_CROSS_BIAS_M[arm - 1] + g() * 0.002;
-        if (float) { dAlong += 0.03 + g() * 0.006; dCross += 0.012 + g() * 0.004; }
+        if (float) {
+          dAlong += 0.03 + g() * 0.006;
+          dCross += 0.012 + g() * 0.004;
+        }
         const recE = trueE + along[0] * dAlong + right[0] * dCross;
         const recN = trueN + along[1] * dAlong + right[1] * dCross;
         const drift = 0.02 * Math.sin(driftPhase + k / 25);
@@ -76,8 +79,22 @@ export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
         // Arms work side by side, so plants of one pass share their time; beds are planted in turn.
         const t = new Date(start + ((bed - 1) * spec.plantsPerRow + k) * spec.secondsPerPlant * 1000);
         const hdop = (float ? 1.6 + rand() * 0.8 : 0.6 + rand() * 0.3).toFixed(1);
-        planted.push([id, spec.crop, bed, row, arm, float ? "rtk-float" : "rtk-fixed", hdop, t.toISOString(),
-          lat.toFixed(9), lon.toFixed(9), rawLat.toFixed(9), rawLon.toFixed(9)].join(","));
+        planted.push(
+          [
+            id,
+            spec.crop,
+            bed,
+            row,
+            arm,
+            float ? "rtk-float" : "rtk-fixed",
+            hdop,
+            t.toISOString(),
+            lat.toFixed(9),
+            lon.toFixed(9),
+            rawLat.toFixed(9),
+            rawLon.toFixed(9),
+          ].join(","),
+        );
         plantCount++;
 
         if (k % spec.surveyEvery === 5) {

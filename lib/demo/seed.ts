@@ -5,7 +5,17 @@ import { user } from "@/db/schema";
 import { createField } from "@/db/queries/fields";
 import { addMember, createAccountWithOrganisation } from "@/lib/onboarding";
 import { getAuth } from "@/lib/auth";
-import { DEMO_CRS, DEMO_FIELDS, DEMO_ORG, DEMO_PASSWORD, DEMO_PEOPLE, DEMO_TIME_ZONE, OTHER_FIELD, OTHER_ORG, OTHER_OWNER } from "./farm";
+import {
+  DEMO_CRS,
+  DEMO_FIELDS,
+  DEMO_ORG,
+  DEMO_PASSWORD,
+  DEMO_PEOPLE,
+  DEMO_TIME_ZONE,
+  OTHER_FIELD,
+  OTHER_ORG,
+  OTHER_OWNER,
+} from "./farm";
 
 async function userExists(email: string): Promise<boolean> {
   const db = await getDb();
@@ -24,7 +34,11 @@ export async function seedDemo(): Promise<"created" | "present"> {
   const auth = await getAuth();
 
   const { userId: ownerId, orgId } = await createAccountWithOrganisation({
-    name: owner.name, email: owner.email, password: DEMO_PASSWORD, organisation: DEMO_ORG.name, kind: DEMO_ORG.kind,
+    name: owner.name,
+    email: owner.email,
+    password: DEMO_PASSWORD,
+    organisation: DEMO_ORG.name,
+    kind: DEMO_ORG.kind,
   });
   for (const p of others) {
     const { user: u } = await auth.api.signUpEmail({ body: { name: p.name, email: p.email, password: DEMO_PASSWORD } });
@@ -32,25 +46,47 @@ export async function seedDemo(): Promise<"created" | "present"> {
   }
   for (const f of DEMO_FIELDS) {
     await createField(db, {
-      orgId, userId: ownerId,
+      orgId,
+      userId: ownerId,
       input: {
-        name: f.name, farm: f.farm, crs: DEMO_CRS, timeZone: DEMO_TIME_ZONE, rowBearingDeg: f.bearingDeg,
-        bedSpacingM: f.bedSpacingM, rowsPerBed: f.rowsPerBed, rowSpacingM: f.rowSpacingM, boundary: null,
+        name: f.name,
+        farm: f.farm,
+        crs: DEMO_CRS,
+        timeZone: DEMO_TIME_ZONE,
+        rowBearingDeg: f.bearingDeg,
+        bedSpacingM: f.bedSpacingM,
+        rowsPerBed: f.rowsPerBed,
+        rowSpacingM: f.rowSpacingM,
+        boundary: null,
       },
     });
   }
 
   const other = await createAccountWithOrganisation({
-    name: OTHER_OWNER.name, email: OTHER_OWNER.email, password: DEMO_PASSWORD, organisation: OTHER_ORG.name, kind: OTHER_ORG.kind,
+    name: OTHER_OWNER.name,
+    email: OTHER_OWNER.email,
+    password: DEMO_PASSWORD,
+    organisation: OTHER_ORG.name,
+    kind: OTHER_ORG.kind,
   });
   await createField(db, {
-    orgId: other.orgId, userId: other.userId,
-    input: { ...OTHER_FIELD, rowBearingDeg: null, bedSpacingM: null, rowsPerBed: null, rowSpacingM: null, boundary: null },
+    orgId: other.orgId,
+    userId: other.userId,
+    input: {
+      ...OTHER_FIELD,
+      rowBearingDeg: null,
+      bedSpacingM: null,
+      rowsPerBed: null,
+      rowSpacingM: null,
+      boundary: null,
+    },
   });
   return "created";
 }
 
 export function demoCredentialsText(): string {
-  const lines = [...DEMO_PEOPLE, OTHER_OWNER].map((p) => `  ${p.role.padEnd(11)} ${p.email.padEnd(28)} ${DEMO_PASSWORD}`);
+  const lines = [...DEMO_PEOPLE, OTHER_OWNER].map(
+    (p) => `  ${p.role.padEnd(11)} ${p.email.padEnd(28)} ${DEMO_PASSWORD}`,
+  );
   return [`Demo accounts (${DEMO_ORG.name}; the last one belongs to ${OTHER_ORG.name}):`, ...lines].join("\n");
 }

@@ -21,7 +21,16 @@ const MailEnv = z.object({
 });
 
 export type MailConfig =
-  | { mode: "smtp"; host: string; port: number; secure: boolean; user?: string; pass?: string; from: string; appUrl: string }
+  | {
+      mode: "smtp";
+      host: string;
+      port: number;
+      secure: boolean;
+      user?: string;
+      pass?: string;
+      from: string;
+      appUrl: string;
+    }
   | { mode: "capture"; from: string; appUrl: string }
   | { mode: "off"; from: string; appUrl: string };
 
@@ -31,7 +40,16 @@ export function mailConfig(env: NodeJS.ProcessEnv = process.env): MailConfig {
   const appUrl = e.BETTER_AUTH_URL.replace(/\/$/, "");
   if (e.SMTP_HOST) {
     const secure = e.SMTP_SECURE === "true" || e.SMTP_SECURE === "1" || e.SMTP_SECURE === "yes";
-    return { mode: "smtp", host: e.SMTP_HOST, port: e.SMTP_PORT ?? (secure ? 465 : 587), secure, user: e.SMTP_USER || undefined, pass: e.SMTP_PASS || undefined, from: e.MAIL_FROM, appUrl };
+    return {
+      mode: "smtp",
+      host: e.SMTP_HOST,
+      port: e.SMTP_PORT ?? (secure ? 465 : 587),
+      secure,
+      user: e.SMTP_USER || undefined,
+      pass: e.SMTP_PASS || undefined,
+      from: e.MAIL_FROM,
+      appUrl,
+    };
   }
   if (e.PLOTPROOF_DEMO === "1") return { mode: "capture", from: e.MAIL_FROM, appUrl };
   return { mode: "off", from: e.MAIL_FROM, appUrl };

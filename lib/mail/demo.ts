@@ -17,12 +17,19 @@ export function ensureDemoMailCapture(): Promise<FakeSmtp> {
       port,
       onMessage: async (m) => {
         await storeCapturedMail(await getDb(), {
-          orgId: m.headers["x-plotproof-org"] ?? null, kind: m.headers["x-plotproof-kind"] ?? null,
-          envelopeFrom: m.envelopeFrom, envelopeTo: m.envelopeTo, subject: m.subject, text: m.text, raw: m.raw,
+          orgId: m.headers["x-plotproof-org"] ?? null,
+          kind: m.headers["x-plotproof-kind"] ?? null,
+          envelopeFrom: m.envelopeFrom,
+          envelopeTo: m.envelopeTo,
+          subject: m.subject,
+          text: m.text,
+          raw: m.raw,
         });
       },
     });
-    g.__plotproofDemoSmtp.catch(() => { g.__plotproofDemoSmtp = undefined; });
+    g.__plotproofDemoSmtp.catch(() => {
+      g.__plotproofDemoSmtp = undefined;
+    });
   }
   return g.__plotproofDemoSmtp;
 }

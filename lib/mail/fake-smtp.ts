@@ -21,7 +21,10 @@ const MAX_BYTES = 2 * 1024 * 1024;
  * it, parsed, to `onMessage`. Used by demo mode and by tests; never exposed beyond this machine.
  * `port` 0 picks a free port.
  */
-export async function startFakeSmtp(opts: { port?: number; onMessage: (m: CapturedMessage) => Promise<void> | void }): Promise<FakeSmtp> {
+export async function startFakeSmtp(opts: {
+  port?: number;
+  onMessage: (m: CapturedMessage) => Promise<void> | void;
+}): Promise<FakeSmtp> {
   // Loaded from node_modules at run time, never bundled: only demo mode and tests use it (a dev dependency).
   const { SMTPServer } = await import(/* turbopackIgnore: true */ /* webpackIgnore: true */ "smtp-server");
   const server = new SMTPServer({

@@ -13,8 +13,10 @@ describe("parseMail", () => {
   it("parseMail -- text and HTML alternative with a non-ASCII subject and a long link", async () => {
     const link = "http://127.0.0.1:3100/invite/" + "x".repeat(90);
     const raw = await compose({
-      to: "Zoë Vane <zoe@kestrelfen.example>", subject: "Join Kestrel Fen — on Plotproof",
-      text: `Hello Zoë,\n\nOpen this link:\n\n${link}\n`, html: `<p>Hello Zoë</p><p><a href="${link}">${link}</a></p>`,
+      to: "Zoë Vane <zoe@kestrelfen.example>",
+      subject: "Join Kestrel Fen — on Plotproof",
+      text: `Hello Zoë,\n\nOpen this link:\n\n${link}\n`,
+      html: `<p>Hello Zoë</p><p><a href="${link}">${link}</a></p>`,
       headers: { "X-Plotproof-Kind": "invitation" },
     });
     const m = parseMail(raw);

@@ -128,14 +128,24 @@ export function decodeWords(s: string): string {
 }
 
 function splitAddresses(s: string): string[] {
-  return s.split(",").map((a) => {
-    const m = /<([^>]+)>/.exec(a);
-    return (m ? m[1] : a).trim().toLowerCase();
-  }).filter(Boolean);
+  return s
+    .split(",")
+    .map((a) => {
+      const m = /<([^>]+)>/.exec(a);
+      return (m ? m[1] : a).trim().toLowerCase();
+    })
+    .filter(Boolean);
 }
 
 function htmlToText(html: string): string {
-  return html.replace(/<br\s*\/?>/gi, "\n").replace(/<\/p>/gi, "\n\n").replace(/<[^>]+>/g, "").replace(/&amp;/g, "&").replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"');
+  return html
+    .replace(/<br\s*\/?>/gi, "\n")
+    .replace(/<\/p>/gi, "\n\n")
+    .replace(/<[^>]+>/g, "")
+    .replace(/&amp;/g, "&")
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&quot;/g, '"');
 }
 
 function escapeRe(s: string): string {

@@ -17,7 +17,11 @@ export interface Delivery {
  * Send one message to each address (one message per recipient, so nobody sees the others' addresses).
  * Never throws: a failure is logged, recorded in the organisation's activity when there is one, and returned.
  */
-export async function deliver(mail: MailContent, to: string[], meta: { orgId: string | null; subject?: { type: string; id: string } }): Promise<Delivery> {
+export async function deliver(
+  mail: MailContent,
+  to: string[],
+  meta: { orgId: string | null; subject?: { type: string; id: string } },
+): Promise<Delivery> {
   const recipients = [...new Set(to.map((t) => t.trim().toLowerCase()).filter(Boolean))];
   if (recipients.length === 0) return { status: "skipped", error: "no recipients" };
   const config = mailConfig();
@@ -29,7 +33,11 @@ export async function deliver(mail: MailContent, to: string[], meta: { orgId: st
     else {
       for (const address of recipients) {
         await transport.sendMail({
-          from: config.from, to: address, subject: mail.subject, text: mail.text, html: mail.html,
+          from: config.from,
+          to: address,
+          subject: mail.subject,
+          text: mail.text,
+          html: mail.html,
           headers: { "X-Plotproof-Kind": mail.kind, ...(meta.orgId ? { "X-Plotproof-Org": meta.orgId } : {}) },
         });
       }
@@ -43,9 +51,17 @@ export async function deliver(mail: MailContent, to: string[], meta: { orgId: st
   if (meta.orgId) {
     try {
       await logActivity(await getDb(), {
-        orgId: meta.orgId, actorId: null, action: `mail.${result.status}`,
-        subjectType: meta.subject?.type ?? "mail", subjectId: meta.subject?.id,
-        detail: { kind: mail.kind, subject: mail.subject, recipients: recipients.length, ...(result.error ? { error: result.error } : {}) },
+        orgId: meta.orgId,
+        actorId: null,
+        action: `mail.${result.status}`,
+        subjectType: meta.subject?.type ?? "mail",
+        subjectId: meta.subject?.id,
+        detail: {
+          kind: mail.kind,
+          subject: mail.subject,
+          recipients: recipients.length,
+          ...(result.error ? { error: result.error } : {}),
+        },
       });
     } catch (err) {
       console.error("[plotproof] could not record the e-mail in the activity log", err);

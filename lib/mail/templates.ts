@@ -16,9 +16,13 @@ const day = (d: Date) => d.toLocaleString("en-GB", { dateStyle: "long", timeStyl
 /** Paragraphs of text; a paragraph that is a bare URL becomes a button-like link in HTML. */
 function compose(kind: MailKind, subject: string, paragraphs: string[]): MailContent {
   const text = paragraphs.join("\n\n") + "\n\n— Plotproof\n";
-  const body = paragraphs.map((p) => (/^https?:\/\/\S+$/.test(p)
-    ? `<p><a href="${esc(p)}" style="display:inline-block;background:#2f6b45;color:#fff;padding:8px 14px;border-radius:3px;text-decoration:none">${esc(p)}</a></p>`
-    : `<p>${esc(p).replace(/\n/g, "<br>")}</p>`)).join("\n");
+  const body = paragraphs
+    .map((p) =>
+      /^https?:\/\/\S+$/.test(p)
+        ? `<p><a href="${esc(p)}" style="display:inline-block;background:#2f6b45;color:#fff;padding:8px 14px;border-radius:3px;text-decoration:none">${esc(p)}</a></p>`
+        : `<p>${esc(p).replace(/\n/g, "<br>")}</p>`,
+    )
+    .join("\n");
   const html = `<!doctype html><html><body style="font-family:Inter,system-ui,sans-serif;color:#1d2a24;background:#f6f4ee;padding:16px">
 <div style="max-width:560px;margin:auto;background:#fff;border:1px solid #d9d3c4;border-radius:3px;padding:20px">
 ${body}
@@ -26,7 +30,13 @@ ${body}
   return { kind, subject, text, html };
 }
 
-export function invitationMail(p: { orgName: string; inviterName: string; role: Role; link: string; expiresAt: Date }): MailContent {
+export function invitationMail(p: {
+  orgName: string;
+  inviterName: string;
+  role: Role;
+  link: string;
+  expiresAt: Date;
+}): MailContent {
   return compose("invitation", `Join ${p.orgName} on Plotproof`, [
     `${p.inviterName} has invited you to join ${p.orgName} on Plotproof as ${ROLE_LABEL[p.role]}. ${ROLE_DUTY[p.role]}`,
     "Open this link to accept and set your password (or sign in, if you already have a Plotproof account):",
@@ -52,30 +62,54 @@ export interface AuditMailFacts {
   link: string;
 }
 
-export function auditSubmittedMail(a: AuditMailFacts & { submitterName: string; note: string | null; passed: boolean | null }): MailContent {
-  return compose("audit-submitted", `Waiting for your sign-off: ${a.title}`, [
-    `${a.submitterName} has submitted the audit “${a.title}” of ${a.fieldName} (revision ${a.revision}) for sign-off.`,
-    a.passed === null ? "" : a.passed ? "Every criterion of its tolerance profile passed." : "Some criteria of its tolerance profile failed; signing it off would accept it with deviation.",
-    a.note ? `Their note: “${a.note}”` : "",
-    "Review it here:",
-    a.link,
-  ].filter(Boolean));
+export function auditSubmittedMail(
+  a: AuditMailFacts & { submitterName: string; note: string | null; passed: boolean | null },
+): MailContent {
+  return compose(
+    "audit-submitted",
+    `Waiting for your sign-off: ${a.title}`,
+    [
+      `${a.submitterName} has submitted the audit “${a.title}” of ${a.fieldName} (revision ${a.revision}) for sign-off.`,
+      a.passed === null
+        ? ""
+        : a.passed
+          ? "Every criterion of its tolerance profile passed."
+          : "Some criteria of its tolerance profile failed; signing it off would accept it with deviation.",
+      a.note ? `Their note: “${a.note}”` : "",
+      "Review it here:",
+      a.link,
+    ].filter(Boolean),
+  );
 }
 
-export function auditSignedOffMail(a: AuditMailFacts & { signerName: string; deviation: boolean; comment: string | null; sha256: string; reportLink: string }): MailContent {
-  return compose("audit-signed-off", `Signed off: ${a.title}`, [
-    `${a.signerName} has signed off the audit “${a.title}” of ${a.fieldName} (revision ${a.revision})${a.deviation ? " with deviation" : ""}.`,
-    a.comment ? `Comment: “${a.comment}”` : "",
-    `Its inputs and results are now fixed; their SHA-256 is ${a.sha256}.`,
-    "The audit:",
-    a.link,
-    "The printable sign-off report:",
-    a.reportLink,
-    "The sign-off certifies how accurate the plant records are, not that a machine is safe to run.",
-  ].filter(Boolean));
+export function auditSignedOffMail(
+  a: AuditMailFacts & {
+    signerName: string;
+    deviation: boolean;
+    comment: string | null;
+    sha256: string;
+    reportLink: string;
+  },
+): MailContent {
+  return compose(
+    "audit-signed-off",
+    `Signed off: ${a.title}`,
+    [
+      `${a.signerName} has signed off the audit “${a.title}” of ${a.fieldName} (revision ${a.revision})${a.deviation ? " with deviation" : ""}.`,
+      a.comment ? `Comment: “${a.comment}”` : "",
+      `Its inputs and results are now fixed; their SHA-256 is ${a.sha256}.`,
+      "The audit:",
+      a.link,
+      "The printable sign-off report:",
+      a.reportLink,
+      "The sign-off certifies how accurate the plant records are, not that a machine is safe to run.",
+    ].filter(Boolean),
+  );
 }
 
-export function auditReturnedMail(a: AuditMailFacts & { returnerName: string; reasons: string[]; comment: string }): MailContent {
+export function auditReturnedMail(
+  a: AuditMailFacts & { returnerName: string; reasons: string[]; comment: string },
+): MailContent {
   return compose("audit-returned", `Returned for correction: ${a.title}`, [
     `${a.returnerName} has returned the audit “${a.title}” of ${a.fieldName} (revision ${a.revision}) for correction.`,
     `Reasons:\n${a.reasons.map((r) => `• ${r}`).join("\n")}`,

@@ -25,7 +25,11 @@ export async function captureMail(): Promise<MailCapture> {
   const server = await startFakeSmtp({
     onMessage: (m) => {
       messages.push(m);
-      for (const w of [...waiters]) if (w.match(m)) { waiters.splice(waiters.indexOf(w), 1); w.resolve(m); }
+      for (const w of [...waiters])
+        if (w.match(m)) {
+          waiters.splice(waiters.indexOf(w), 1);
+          w.resolve(m);
+        }
     },
   });
   const saved = { host: process.env.SMTP_HOST, port: process.env.SMTP_PORT, secure: process.env.SMTP_SECURE };
@@ -38,17 +42,33 @@ export async function captureMail(): Promise<MailCapture> {
       const found = messages.find(match);
       if (found) return Promise.resolve(found);
       return new Promise((resolve, reject) => {
-        const w = { match, resolve: (m: CapturedMessage) => { clearTimeout(timer); resolve(m); } };
+        const w = {
+          match,
+          resolve: (m: CapturedMessage) => {
+            clearTimeout(timer);
+            resolve(m);
+          },
+        };
         const timer = setTimeout(() => {
           waiters.splice(waiters.indexOf(w), 1);
-          reject(new Error(`no matching e-mail within ${timeoutMs} ms; received: ${messages.map((m) => `${m.to.join(",")}: ${m.subject}`).join(" | ") || "none"}`));
+          reject(
+            new Error(
+              `no matching e-mail within ${timeoutMs} ms; received: ${messages.map((m) => `${m.to.join(",")}: ${m.subject}`).join(" | ") || "none"}`,
+            ),
+          );
         }, timeoutMs);
         waiters.push(w);
       });
     },
-    clear() { messages.length = 0; },
+    clear() {
+      messages.length = 0;
+    },
     async stop() {
-      for (const [k, v] of [["SMTP_HOST", saved.host], ["SMTP_PORT", saved.port], ["SMTP_SECURE", saved.secure]] as const) {
+      for (const [k, v] of [
+        ["SMTP_HOST", saved.host],
+        ["SMTP_PORT", saved.port],
+        ["SMTP_SECURE", saved.secure],
+      ] as const) {
         if (v === undefined) delete process.env[k];
         else process.env[k] = v;
       }

@@ -1,9 +1,18 @@
 import { describe, expect, it } from "vitest";
 import { decodeMapPayload, encodeMapPayload } from "./binary";
-import { buildMapArrays, chooseOrigin, encodeCodes, naturalDictionary, pairFlags, type PairColumns, type UnpairedColumns } from "./build";
+import {
+  buildMapArrays,
+  chooseOrigin,
+  encodeCodes,
+  naturalDictionary,
+  pairFlags,
+  type PairColumns,
+  type UnpairedColumns,
+} from "./build";
 import { DICT_NAMES, NO_CODE, PAIR_FLAG, type DictName, type MapMeta } from "./types";
 
-const E0 = 662_431, N0 = 5_821_352;
+const E0 = 662_431,
+  N0 = 5_821_352;
 
 /** Three pairs and three unpaired points of a small field, absolute coordinates in metres (EPSG:25831). */
 function sample() {
@@ -11,9 +20,12 @@ function sample() {
   const text = (v: string[]) => v;
   const pairs: PairColumns = {
     count: 3,
-    x: Float32Array.from(abs.e, (e) => e - E0), y: Float32Array.from(abs.n, (n) => n - N0),
-    dE: Float32Array.of(0.0012, -0.0301, 0.004), dN: Float32Array.of(-0.0004, 0.011, 0),
-    along: Float32Array.of(0.001, -0.03, Number.NaN), cross: Float32Array.of(0.0002, 0.012, Number.NaN),
+    x: Float32Array.from(abs.e, (e) => e - E0),
+    y: Float32Array.from(abs.n, (n) => n - N0),
+    dE: Float32Array.of(0.0012, -0.0301, 0.004),
+    dN: Float32Array.of(-0.0004, 0.011, 0),
+    along: Float32Array.of(0.001, -0.03, Number.NaN),
+    cross: Float32Array.of(0.0002, 0.012, Number.NaN),
     flags: Uint8Array.of(
       pairFlags({ within: true, outlier: false, pairedBy: "id", beyondMaxDistance: false }),
       pairFlags({ within: false, outlier: true, pairedBy: "position", beyondMaxDistance: false }),
@@ -21,12 +33,18 @@ function sample() {
     ),
     plantId: ["LA-1-1-0006", "", "LA-10-2-0018"],
     text: {
-      crop: text(["lettuce", "lettuce", ""]), bed: text(["1", "10", "2"]), row: text(["1", "2", "2"]),
-      arm: text(["1", "2", "2"]), fix: text(["rtk-fixed", "rtk-float", "rtk-fixed"]), day: text(["2026-04-14", "2026-04-15", "2026-04-14"]),
+      crop: text(["lettuce", "lettuce", ""]),
+      bed: text(["1", "10", "2"]),
+      row: text(["1", "2", "2"]),
+      arm: text(["1", "2", "2"]),
+      fix: text(["rtk-fixed", "rtk-float", "rtk-fixed"]),
+      day: text(["2026-04-14", "2026-04-15", "2026-04-14"]),
     },
   };
   const unpaired: UnpairedColumns = {
-    count: 3, x: Float32Array.of(-3, 4, 5.5), y: Float32Array.of(1, 2, -7.25),
+    count: 3,
+    x: Float32Array.of(-3, 4, 5.5),
+    y: Float32Array.of(1, 2, -7.25),
     kind: ["planted-not-found", "surveyed-not-planted", "ambiguous"],
     text: { crop: ["lettuce", "", ""], bed: ["3", "", ""], row: ["5", "", ""] },
   };
@@ -35,10 +53,24 @@ function sample() {
 
 function meta(pairs: number, unpaired: number, dict: Record<DictName, string[]>): MapMeta {
   return {
-    audit: { id: "a", title: "Long Acre", state: "computed", fieldId: "f", fieldName: "Long Acre", computedAt: "2026-04-20T12:00:00.000Z" },
-    crs: "EPSG:25831", origin: [E0, N0], gridConvergenceDeg: 1.9, rowBearingDeg: 22.5,
-    field: { bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 }, boundary: { source: "records", ring: [0, 0, 1, 0, 1, 1] },
-    profile: null, pairs, unpaired, dict,
+    audit: {
+      id: "a",
+      title: "Long Acre",
+      state: "computed",
+      fieldId: "f",
+      fieldName: "Long Acre",
+      computedAt: "2026-04-20T12:00:00.000Z",
+    },
+    crs: "EPSG:25831",
+    origin: [E0, N0],
+    gridConvergenceDeg: 1.9,
+    rowBearingDeg: 22.5,
+    field: { bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 },
+    boundary: { source: "records", ring: [0, 0, 1, 0, 1, 1] },
+    profile: null,
+    pairs,
+    unpaired,
+    dict,
   };
 }
 
@@ -59,7 +91,9 @@ describe("map payload", () => {
     expect(back.arrays.pairAlong[1]).toBeCloseTo(-0.03, 7);
     expect(Number.isNaN(back.arrays.pairCross[2])).toBe(true);
     expect(Array.from(back.arrays.pairFlags)).toEqual([
-      PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.WITHIN, PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.OUTLIER | PAIR_FLAG.BY_POSITION, PAIR_FLAG.BEYOND_MAX,
+      PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.WITHIN,
+      PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.OUTLIER | PAIR_FLAG.BY_POSITION,
+      PAIR_FLAG.BEYOND_MAX,
     ]);
     expect(back.arrays.pairIds).toEqual(["LA-1-1-0006", "", "LA-10-2-0018"]);
     expect(back.meta.dict.bed[back.arrays.pairCodes.bed[1]]).toBe("10");
@@ -78,7 +112,13 @@ describe("map payload", () => {
     const back = decodeMapPayload(buffer);
     expect(back.arrays.pairXY.buffer).toBe(buffer);
     expect(back.arrays.pairCodes.day.buffer).toBe(buffer);
-    for (const a of [back.arrays.pairXY, back.arrays.pairD, back.arrays.pairAlong, back.arrays.pairCodes.arm, back.arrays.unpairedXY]) {
+    for (const a of [
+      back.arrays.pairXY,
+      back.arrays.pairD,
+      back.arrays.pairAlong,
+      back.arrays.pairCodes.arm,
+      back.arrays.unpairedXY,
+    ]) {
       expect(a.byteOffset % 8).toBe(0);
     }
     // The layout's fixed start: magic, then the header length as u32 little-endian.
@@ -97,10 +137,24 @@ describe("map payload", () => {
   });
 
   it("encodeMapPayload -- an empty audit encodes and decodes", () => {
-    const empty = (): UnpairedColumns => ({ count: 0, x: new Float32Array(0), y: new Float32Array(0), kind: [], text: { crop: [], bed: [], row: [] } });
+    const empty = (): UnpairedColumns => ({
+      count: 0,
+      x: new Float32Array(0),
+      y: new Float32Array(0),
+      kind: [],
+      text: { crop: [], bed: [], row: [] },
+    });
     const noPairs: PairColumns = {
-      count: 0, x: new Float32Array(0), y: new Float32Array(0), dE: new Float32Array(0), dN: new Float32Array(0), along: new Float32Array(0),
-      cross: new Float32Array(0), flags: new Uint8Array(0), plantId: [], text: Object.fromEntries(DICT_NAMES.map((c) => [c, []])) as unknown as Record<DictName, string[]>,
+      count: 0,
+      x: new Float32Array(0),
+      y: new Float32Array(0),
+      dE: new Float32Array(0),
+      dN: new Float32Array(0),
+      along: new Float32Array(0),
+      cross: new Float32Array(0),
+      flags: new Uint8Array(0),
+      plantId: [],
+      text: Object.fromEntries(DICT_NAMES.map((c) => [c, []])) as unknown as Record<DictName, string[]>,
     };
     const { arrays, dict } = buildMapArrays(noPairs, empty());
     const back = decodeMapPayload(encodeMapPayload(meta(0, 0, dict), arrays));
@@ -112,8 +166,12 @@ describe("map payload", () => {
     const { pairs, unpaired } = sample();
     const { arrays, dict } = buildMapArrays(pairs, unpaired);
     const bytes = encodeMapPayload(meta(3, 3, dict), arrays);
-    expect(() => decodeMapPayload(new TextEncoder().encode("PPT1....{}"))).toThrow("map payload: not a Plotproof map payload");
-    expect(() => decodeMapPayload(bytes.slice(0, bytes.byteLength - 16))).toThrow(/map payload: array .* (outside the payload|wrong length)/);
+    expect(() => decodeMapPayload(new TextEncoder().encode("PPT1....{}"))).toThrow(
+      "map payload: not a Plotproof map payload",
+    );
+    expect(() => decodeMapPayload(bytes.slice(0, bytes.byteLength - 16))).toThrow(
+      /map payload: array .* (outside the payload|wrong length)/,
+    );
     expect(() => decodeMapPayload(bytes.slice(0, 12))).toThrow("map payload: truncated header");
   });
 
@@ -147,7 +205,9 @@ describe("map payload builder", () => {
 
   it("pairFlags -- one bit per stored boolean", () => {
     expect(pairFlags({ within: false, outlier: true, pairedBy: "id", beyondMaxDistance: false })).toBe(5);
-    expect(pairFlags({ within: true, outlier: false, pairedBy: "position", beyondMaxDistance: true })).toBe(1 | 2 | 8 | 16);
+    expect(pairFlags({ within: true, outlier: false, pairedBy: "position", beyondMaxDistance: true })).toBe(
+      1 | 2 | 8 | 16,
+    );
     expect(pairFlags({ within: null, outlier: false, pairedBy: "id", beyondMaxDistance: false })).toBe(0);
   });
 

@@ -70,12 +70,20 @@ function isLittleEndian(): boolean {
  */
 export function encodeMapPayload(meta: MapMeta, a: MapArrays): Uint8Array {
   if (!isLittleEndian()) throw new Error("map payload: big-endian platforms are not supported");
-  const n = meta.pairs, m = meta.unpaired;
+  const n = meta.pairs,
+    m = meta.unpaired;
   const parts: { name: string; type: ArrayType; size: number; count: number; bytes: Uint8Array }[] = [];
   const view = (t: Float32Array | Uint8Array | Uint16Array) => new Uint8Array(t.buffer, t.byteOffset, t.byteLength);
-  const add = (name: string, type: ArrayType, size: number, count: number, data: Float32Array | Uint8Array | Uint16Array) => {
+  const add = (
+    name: string,
+    type: ArrayType,
+    size: number,
+    count: number,
+    data: Float32Array | Uint8Array | Uint16Array,
+  ) => {
     const expected = type === "utf8" ? data.byteLength : count * size * BYTES[type];
-    if (data.byteLength !== expected) throw new Error(`map payload: ${name} has ${data.byteLength} bytes, expected ${expected}`);
+    if (data.byteLength !== expected)
+      throw new Error(`map payload: ${name} has ${data.byteLength} bytes, expected ${expected}`);
     parts.push({ name, type, size, count, bytes: view(data) });
   };
   add("pair.xy", "f32", 2, n, a.pairXY);
@@ -117,7 +125,8 @@ export function decodeMapPayload(input: ArrayBuffer | Uint8Array): MapData {
   if (!isLittleEndian()) throw new Error("map payload: big-endian platforms are not supported");
   let bytes = input instanceof Uint8Array ? input : new Uint8Array(input);
   if (bytes.byteOffset % 8 !== 0) bytes = bytes.slice();
-  if (bytes.byteLength < 8 || new TextDecoder().decode(bytes.subarray(0, 4)) !== MAGIC) throw new Error("map payload: not a Plotproof map payload");
+  if (bytes.byteLength < 8 || new TextDecoder().decode(bytes.subarray(0, 4)) !== MAGIC)
+    throw new Error("map payload: not a Plotproof map payload");
   const headerLength = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(4, true);
   if (8 + headerLength > bytes.byteLength) throw new Error("map payload: truncated header");
   let header: Header;
@@ -126,19 +135,25 @@ export function decodeMapPayload(input: ArrayBuffer | Uint8Array): MapData {
   } catch {
     throw new Error("map payload: unreadable header");
   }
-  if (header.format !== MAP_FORMAT || header.version !== MAP_VERSION) throw new Error(`map payload: unsupported version ${String(header.version)}`);
+  if (header.format !== MAP_FORMAT || header.version !== MAP_VERSION)
+    throw new Error(`map payload: unsupported version ${String(header.version)}`);
   const start = pad8(8 + headerLength);
   const entries = new Map(header.arrays.map((e) => [e.name, e]));
   const entry = (name: string, type: ArrayType, size: number, count: number) => {
     const e = entries.get(name);
     if (!e) throw new Error(`map payload: array ${name} is missing`);
-    if (e.type !== type || e.size !== size || e.count !== count) throw new Error(`map payload: array ${name} has the wrong shape`);
-    if (e.offset % 8 !== 0 || start + e.offset + e.byteLength > bytes.byteLength) throw new Error(`map payload: array ${name} lies outside the payload (truncated?)`);
-    if (type !== "utf8" && e.byteLength !== count * size * BYTES[type]) throw new Error(`map payload: array ${name} has the wrong length`);
+    if (e.type !== type || e.size !== size || e.count !== count)
+      throw new Error(`map payload: array ${name} has the wrong shape`);
+    if (e.offset % 8 !== 0 || start + e.offset + e.byteLength > bytes.byteLength)
+      throw new Error(`map payload: array ${name} lies outside the payload (truncated?)`);
+    if (type !== "utf8" && e.byteLength !== count * size * BYTES[type])
+      throw new Error(`map payload: array ${name} has the wrong length`);
     return bytes.byteOffset + start + e.offset;
   };
-  const n = header.pairs, m = header.unpaired;
-  const f32 = (name: string, size: number, count: number) => new Float32Array(bytes.buffer, entry(name, "f32", size, count), size * count);
+  const n = header.pairs,
+    m = header.unpaired;
+  const f32 = (name: string, size: number, count: number) =>
+    new Float32Array(bytes.buffer, entry(name, "f32", size, count), size * count);
   const u8 = (name: string, count: number) => new Uint8Array(bytes.buffer, entry(name, "u8", 1, count), count);
   const u16 = (name: string, count: number) => new Uint16Array(bytes.buffer, entry(name, "u16", 1, count), count);
   const idEntry = entries.get("pair.id");
@@ -146,15 +161,27 @@ export function decodeMapPayload(input: ArrayBuffer | Uint8Array): MapData {
   const idText = new TextDecoder().decode(new Uint8Array(bytes.buffer, idAt, idEntry!.byteLength));
   const pairIds = n === 0 ? [] : idText.split("\n");
   if (pairIds.length !== n) throw new Error(`map payload: ${pairIds.length} plant ids for ${n} pairs`);
-  const pairCodes = Object.fromEntries(DICT_NAMES.map((c) => [c, u16(`pair.code.${c}`, n)])) as Record<DictName, Uint16Array>;
-  const unpairedCodes = Object.fromEntries(UNPAIRED_DICTS.map((c) => [c, u16(`unpaired.code.${c}`, m)])) as MapArrays["unpairedCodes"];
+  const pairCodes = Object.fromEntries(DICT_NAMES.map((c) => [c, u16(`pair.code.${c}`, n)])) as Record<
+    DictName,
+    Uint16Array
+  >;
+  const unpairedCodes = Object.fromEntries(
+    UNPAIRED_DICTS.map((c) => [c, u16(`unpaired.code.${c}`, m)]),
+  ) as MapArrays["unpairedCodes"];
   const { format: _f, version: _v, arrays: _a, ...meta } = header;
   return {
     meta,
     arrays: {
-      pairXY: f32("pair.xy", 2, n), pairD: f32("pair.d", 2, n), pairAlong: f32("pair.along", 1, n), pairCross: f32("pair.cross", 1, n),
-      pairFlags: u8("pair.flags", n), pairCodes, pairIds,
-      unpairedXY: f32("unpaired.xy", 2, m), unpairedKind: u8("unpaired.kind", m), unpairedCodes,
+      pairXY: f32("pair.xy", 2, n),
+      pairD: f32("pair.d", 2, n),
+      pairAlong: f32("pair.along", 1, n),
+      pairCross: f32("pair.cross", 1, n),
+      pairFlags: u8("pair.flags", n),
+      pairCodes,
+      pairIds,
+      unpairedXY: f32("unpaired.xy", 2, m),
+      unpairedKind: u8("unpaired.kind", m),
+      unpairedCodes,
     },
   };
 }

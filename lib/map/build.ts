@@ -44,7 +44,8 @@ export function naturalDictionary(columns: readonly (readonly string[])[]): stri
 
 /** Codes of `values` in `dict` (NO_CODE for "" or a value not in it). Throws when the dictionary is too long for Uint16. */
 export function encodeCodes(values: readonly string[], dict: readonly string[]): Uint16Array {
-  if (dict.length >= NO_CODE) throw new Error(`map payload: ${dict.length} distinct values in one column; at most ${NO_CODE - 1} fit`);
+  if (dict.length >= NO_CODE)
+    throw new Error(`map payload: ${dict.length} distinct values in one column; at most ${NO_CODE - 1} fit`);
   const index = new Map(dict.map((v, i) => [v, i]));
   const out = new Uint16Array(values.length);
   for (let i = 0; i < values.length; i++) out[i] = index.get(values[i]) ?? NO_CODE;
@@ -77,7 +78,12 @@ export function chooseOrigin(box: { minE: number; maxE: number; minN: number; ma
  * Flag byte of one pair from its stored booleans.
  * @example pairFlags({ within: false, outlier: true, pairedBy: "id", beyondMaxDistance: false }) // 1 | 4 = 5
  */
-export function pairFlags(p: { within: boolean | null; outlier: boolean; pairedBy: string; beyondMaxDistance: boolean }): number {
+export function pairFlags(p: {
+  within: boolean | null;
+  outlier: boolean;
+  pairedBy: string;
+  beyondMaxDistance: boolean;
+}): number {
   let f = 0;
   if (p.within !== null) f |= PAIR_FLAG.WITHIN_KNOWN;
   if (p.within === true) f |= PAIR_FLAG.WITHIN;
@@ -91,15 +97,28 @@ export function pairFlags(p: { within: boolean | null; outlier: boolean; pairedB
  * Payload arrays and dictionaries from pair and unpaired columns. Pairs and unpaired points share the crop, bed and
  * row dictionaries, so one filter code selects both.
  */
-export function buildMapArrays(pairs: PairColumns, unpaired: UnpairedColumns): { arrays: MapArrays; dict: Record<DictName, string[]> } {
-  for (const [name, len] of [["x", pairs.x.length], ["dE", pairs.dE.length], ["flags", pairs.flags.length], ["plantId", pairs.plantId.length]] as const) {
-    if (len !== pairs.count) throw new Error(`map payload: pair column ${name} has ${len} values for ${pairs.count} pairs`);
+export function buildMapArrays(
+  pairs: PairColumns,
+  unpaired: UnpairedColumns,
+): { arrays: MapArrays; dict: Record<DictName, string[]> } {
+  for (const [name, len] of [
+    ["x", pairs.x.length],
+    ["dE", pairs.dE.length],
+    ["flags", pairs.flags.length],
+    ["plantId", pairs.plantId.length],
+  ] as const) {
+    if (len !== pairs.count)
+      throw new Error(`map payload: pair column ${name} has ${len} values for ${pairs.count} pairs`);
   }
-  if (unpaired.x.length !== unpaired.count || unpaired.kind.length !== unpaired.count) throw new Error("map payload: unpaired columns differ in length");
+  if (unpaired.x.length !== unpaired.count || unpaired.kind.length !== unpaired.count)
+    throw new Error("map payload: unpaired columns differ in length");
   const shared = new Set<DictName>(["crop", "bed", "row"]);
-  const dict = Object.fromEntries(DICT_NAMES.map((c) => [
-    c, naturalDictionary(shared.has(c) ? [pairs.text[c], unpaired.text[c as "crop" | "bed" | "row"]] : [pairs.text[c]]),
-  ])) as Record<DictName, string[]>;
+  const dict = Object.fromEntries(
+    DICT_NAMES.map((c) => [
+      c,
+      naturalDictionary(shared.has(c) ? [pairs.text[c], unpaired.text[c as "crop" | "bed" | "row"]] : [pairs.text[c]]),
+    ]),
+  ) as Record<DictName, string[]>;
   const kindCode = new Map<string, number>(UNPAIRED_KINDS.map((k, i) => [k, i]));
   const unpairedKind = new Uint8Array(unpaired.count);
   for (let i = 0; i < unpaired.count; i++) {
@@ -113,7 +132,10 @@ export function buildMapArrays(pairs: PairColumns, unpaired: UnpairedColumns): {
     pairAlong: pairs.along,
     pairCross: pairs.cross,
     pairFlags: pairs.flags,
-    pairCodes: Object.fromEntries(DICT_NAMES.map((c) => [c, encodeCodes(pairs.text[c], dict[c])])) as Record<DictName, Uint16Array>,
+    pairCodes: Object.fromEntries(DICT_NAMES.map((c) => [c, encodeCodes(pairs.text[c], dict[c])])) as Record<
+      DictName,
+      Uint16Array
+    >,
     pairIds: pairs.plantId,
     unpairedXY: interleave(unpaired.x, unpaired.y),
     unpairedKind,

@@ -60,10 +60,14 @@ export function aggregateCells(input: {
   const first = beds?.centres[0]?.centre ?? 0;
   const S = beds?.spacingM ?? L;
   const count = indices ? indices.length : values.length;
-  const acc = new Map<number, { across: number; along: number; n: number; sum: number; finite: number; known: number; out: number }>();
+  const acc = new Map<
+    number,
+    { across: number; along: number; n: number; sum: number; finite: number; known: number; out: number }
+  >();
   for (let k = 0; k < count; k++) {
     const i = indices ? indices[k] : k;
-    const x = xy[2 * i], y = xy[2 * i + 1];
+    const x = xy[2 * i],
+      y = xy[2 * i + 1];
     if (!Number.isFinite(x) || !Number.isFinite(y)) continue;
     const a = x * axes.u[0] + y * axes.u[1];
     const c = x * axes.r[0] + y * axes.r[1];
@@ -87,14 +91,30 @@ export function aggregateCells(input: {
   }
   // Beds without records are left out of the list, so a bed's bin comes from its centre, not its place in the list.
   const labels = new Map(beds?.centres.map((b) => [Math.round((b.centre - first) / S), b.label]) ?? []);
-  return [...acc.entries()].sort((p, q) => p[0] - q[0]).map(([, c]) => {
-    const from = c.along * L, to = (c.along + 1) * L;
-    const lo = beds ? first + c.across * S - beds.halfWidth : c.across * S;
-    const hi = beds ? first + c.across * S + beds.halfWidth : (c.across + 1) * S;
-    return {
-      across: c.across, along: c.along, bed: labels.get(c.across) ?? "", from, to,
-      polygon: [fromRowFrame(from, lo, axes), fromRowFrame(to, lo, axes), fromRowFrame(to, hi, axes), fromRowFrame(from, hi, axes)],
-      n: c.n, mean: c.finite ? c.sum / c.finite : NaN, known: c.known, out: c.out, shareOut: c.known ? c.out / c.known : null,
-    };
-  });
+  return [...acc.entries()]
+    .sort((p, q) => p[0] - q[0])
+    .map(([, c]) => {
+      const from = c.along * L,
+        to = (c.along + 1) * L;
+      const lo = beds ? first + c.across * S - beds.halfWidth : c.across * S;
+      const hi = beds ? first + c.across * S + beds.halfWidth : (c.across + 1) * S;
+      return {
+        across: c.across,
+        along: c.along,
+        bed: labels.get(c.across) ?? "",
+        from,
+        to,
+        polygon: [
+          fromRowFrame(from, lo, axes),
+          fromRowFrame(to, lo, axes),
+          fromRowFrame(to, hi, axes),
+          fromRowFrame(from, hi, axes),
+        ],
+        n: c.n,
+        mean: c.finite ? c.sum / c.finite : NaN,
+        known: c.known,
+        out: c.out,
+        shareOut: c.known ? c.out / c.known : null,
+      };
+    });
 }

@@ -1,5 +1,15 @@
 import { describe, expect, it } from "vitest";
-import { errorDomain, fillColours, legendTicks, mmLabel, niceCeil, OUT_OF_TOLERANCE_RGB, VIRIDIS_LUT, VIRIDIS_STOPS, viridis } from "./colour-scale";
+import {
+  errorDomain,
+  fillColours,
+  legendTicks,
+  mmLabel,
+  niceCeil,
+  OUT_OF_TOLERANCE_RGB,
+  VIRIDIS_LUT,
+  VIRIDIS_STOPS,
+  viridis,
+} from "./colour-scale";
 
 // viridis: van der Walt, Smith & Firing, matplotlib `_cm_listed.py` `_viridis_data` (CC0), entries as floats 0–1.
 const MPL = {
@@ -13,7 +23,13 @@ const to8 = (c: readonly number[]) => c.map((v) => Math.round(v * 255));
 // Independent check of the in-between values: d3-scale-chromatic's 256-entry viridis ramp (8-bit, derived from the
 // same matplotlib table; ISC licence), entries 40, 100, 200, 244 and 250. Entry 244 is where linear interpolation
 // between the 17 stops strays furthest from the full table over all 256 entries: 5 levels of 255 (blue channel).
-const D3 = { 40: [69, 55, 129], 100: [42, 118, 142], 200: [112, 207, 87], 244: [226, 228, 24], 250: [241, 229, 29] } as const;
+const D3 = {
+  40: [69, 55, 129],
+  100: [42, 118, 142],
+  200: [112, 207, 87],
+  244: [226, 228, 24],
+  250: [241, 229, 29],
+} as const;
 
 /** CIE 1976 L* of an 8-bit sRGB colour (IEC 61966-2-1 transfer function, D65 luminance weights). */
 function lightness([r, g, b]: ArrayLike<number> & Iterable<number>): number {
@@ -22,7 +38,7 @@ function lightness([r, g, b]: ArrayLike<number> & Iterable<number>): number {
     return s <= 0.04045 ? s / 12.92 : ((s + 0.055) / 1.055) ** 2.4;
   };
   const y = 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b);
-  return y > (6 / 29) ** 3 ? 116 * Math.cbrt(y) - 16 : (903.3 * y);
+  return y > (6 / 29) ** 3 ? 116 * Math.cbrt(y) - 16 : 903.3 * y;
 }
 
 describe("viridis", () => {
@@ -107,7 +123,14 @@ describe("scale domain and legend", () => {
     const ticks = legendTicks(0.02, mmLabel);
     expect(ticks.map((t) => t.label)).toEqual(["0 mm", "5 mm", "10 mm", "15 mm", "20 mm"]);
     expect(ticks.map((t) => t.at)).toEqual([0, 0.25, 0.5, 0.75, 1]);
-    expect(legendTicks(1, (v) => `${Math.round(v * 100)} %`).map((t) => t.label)).toEqual(["0 %", "20 %", "40 %", "60 %", "80 %", "100 %"]);
+    expect(legendTicks(1, (v) => `${Math.round(v * 100)} %`).map((t) => t.label)).toEqual([
+      "0 %",
+      "20 %",
+      "40 %",
+      "60 %",
+      "80 %",
+      "100 %",
+    ]);
     expect(legendTicks(0.005, mmLabel).length).toBeLessThanOrEqual(6);
   });
 

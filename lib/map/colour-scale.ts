@@ -11,8 +11,22 @@ export type Rgb = readonly [number, number, number];
 
 /** viridis at t = k/16, k = 0…16 (8-bit sRGB). */
 export const VIRIDIS_STOPS: readonly Rgb[] = [
-  [68, 1, 84], [72, 24, 106], [71, 45, 123], [66, 64, 134], [59, 82, 139], [51, 99, 141], [44, 114, 142], [38, 130, 142],
-  [33, 145, 140], [31, 160, 136], [40, 174, 128], [63, 188, 115], [94, 201, 98], [132, 212, 75], [173, 220, 48], [216, 226, 25],
+  [68, 1, 84],
+  [72, 24, 106],
+  [71, 45, 123],
+  [66, 64, 134],
+  [59, 82, 139],
+  [51, 99, 141],
+  [44, 114, 142],
+  [38, 130, 142],
+  [33, 145, 140],
+  [31, 160, 136],
+  [40, 174, 128],
+  [63, 188, 115],
+  [94, 201, 98],
+  [132, 212, 75],
+  [173, 220, 48],
+  [216, 226, 25],
   [253, 231, 37],
 ];
 
@@ -26,8 +40,13 @@ export function viridis(t: number): Rgb {
   const pos = x * (VIRIDIS_STOPS.length - 1);
   const i = Math.min(VIRIDIS_STOPS.length - 2, Math.floor(pos));
   const f = pos - i;
-  const a = VIRIDIS_STOPS[i], b = VIRIDIS_STOPS[i + 1];
-  return [Math.round(a[0] + (b[0] - a[0]) * f), Math.round(a[1] + (b[1] - a[1]) * f), Math.round(a[2] + (b[2] - a[2]) * f)];
+  const a = VIRIDIS_STOPS[i],
+    b = VIRIDIS_STOPS[i + 1];
+  return [
+    Math.round(a[0] + (b[0] - a[0]) * f),
+    Math.round(a[1] + (b[1] - a[1]) * f),
+    Math.round(a[2] + (b[2] - a[2]) * f),
+  ];
 }
 
 /** 256-entry lookup table of {@link viridis}, RGB interleaved, for colouring many points quickly. */
@@ -46,7 +65,11 @@ export const OUT_OF_TOLERANCE_RGB: Rgb = [179, 54, 43];
  *
  * @example fillColours(Float32Array.of(0, 0.02), [0, 0.02]) // Uint8Array [68, 1, 84, 255, 253, 231, 37, 255]
  */
-export function fillColours(values: ArrayLike<number>, domain: readonly [number, number], indices?: ArrayLike<number>): Uint8Array {
+export function fillColours(
+  values: ArrayLike<number>,
+  domain: readonly [number, number],
+  indices?: ArrayLike<number>,
+): Uint8Array {
   const n = indices ? indices.length : values.length;
   const out = new Uint8Array(n * 4);
   const [lo, hi] = domain;
@@ -54,7 +77,8 @@ export function fillColours(values: ArrayLike<number>, domain: readonly [number,
   for (let k = 0; k < n; k++) {
     const v = values[indices ? indices[k] : k];
     let q = Math.round((v - lo) * scale);
-    if (!(q >= 0)) q = 0; // also NaN
+    if (!(q >= 0))
+      q = 0; // also NaN
     else if (q > 255) q = 255;
     out[k * 4] = VIRIDIS_LUT[q * 3];
     out[k * 4 + 1] = VIRIDIS_LUT[q * 3 + 1];

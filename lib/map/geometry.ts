@@ -57,11 +57,17 @@ export function convexHull(xy: ArrayLike<number>): Pt[] {
 }
 
 /** Axis-aligned bounds of interleaved x/y arrays (NaN skipped); null when there is no finite point. */
-export function boundsOf(...arrays: ArrayLike<number>[]): { minX: number; minY: number; maxX: number; maxY: number } | null {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+export function boundsOf(
+  ...arrays: ArrayLike<number>[]
+): { minX: number; minY: number; maxX: number; maxY: number } | null {
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const a of arrays) {
     for (let i = 0; i + 1 < a.length; i += 2) {
-      const x = a[i], y = a[i + 1];
+      const x = a[i],
+        y = a[i + 1];
       if (!Number.isFinite(x) || !Number.isFinite(y)) continue;
       if (x < minX) minX = x;
       if (x > maxX) maxX = x;
@@ -137,16 +143,21 @@ export function bedLayout(input: {
 }): BedLayout {
   const { bearingDeg, bedSpacingM: S, rowsPerBed: R, rowSpacingM: w } = input;
   const none = (note: string): BedLayout => ({ beds: [], note, anchoredBy: null, bedSpacingM: null, halfWidth: null });
-  if (bearingDeg === null || !Number.isFinite(bearingDeg)) return none("Beds are not drawn: the audit has no row bearing.");
-  if (!S || !R || !w || S <= 0 || R < 1 || w <= 0) return none("Beds are not drawn: set the bed spacing, rows per bed and row spacing on the field.");
+  if (bearingDeg === null || !Number.isFinite(bearingDeg))
+    return none("Beds are not drawn: the audit has no row bearing.");
+  if (!S || !R || !w || S <= 0 || R < 1 || w <= 0)
+    return none("Beds are not drawn: set the bed spacing, rows per bed and row spacing on the field.");
   const axes = rowAxes(bearingDeg);
   const xy = input.points.xy;
   const n = Math.floor(xy.length / 2);
   if (n === 0) return none("Beds are not drawn: no records to place them by.");
-  const along = new Float64Array(n), cross = new Float64Array(n);
-  let cMin = Infinity, cMax = -Infinity;
+  const along = new Float64Array(n),
+    cross = new Float64Array(n);
+  let cMin = Infinity,
+    cMax = -Infinity;
   for (let i = 0; i < n; i++) {
-    const x = xy[2 * i], y = xy[2 * i + 1];
+    const x = xy[2 * i],
+      y = xy[2 * i + 1];
     along[i] = x * axes.u[0] + y * axes.u[1];
     cross[i] = x * axes.r[0] + y * axes.r[1];
     if (Number.isFinite(cross[i])) {
@@ -164,8 +175,10 @@ export function bedLayout(input: {
   const { bed, row } = input.points;
   if (bed && row) {
     for (let i = 0; i < n; i += step) {
-      const b = positiveInt(bed(i)), k = positiveInt(row(i));
-      if (b >= 1 && k >= 1 && k <= R && Number.isFinite(cross[i])) residuals.push(cross[i] - ((b - 1) * S + (k - 1) * w));
+      const b = positiveInt(bed(i)),
+        k = positiveInt(row(i));
+      if (b >= 1 && k >= 1 && k <= R && Number.isFinite(cross[i]))
+        residuals.push(cross[i] - ((b - 1) * S + (k - 1) * w));
     }
   }
   const beds: BedShape[] = [];
@@ -175,7 +188,8 @@ export function bedLayout(input: {
     anchoredBy = "labels";
     const c0 = median(residuals);
     const centreOf = (b: number) => c0 + (b - 1) * S - firstRowOffset;
-    let bMin = Infinity, bMax = -Infinity;
+    let bMin = Infinity,
+      bMax = -Infinity;
     for (let i = 0; i < n; i++) {
       const b = bed ? positiveInt(bed(i)) : NaN;
       if (b >= 1) {
@@ -187,7 +201,8 @@ export function bedLayout(input: {
     for (let b = bMin; b <= bMax; b++) centres.push({ label: String(b), centre: centreOf(b) });
   } else {
     anchoredBy = "positions";
-    let sx = 0, sy = 0;
+    let sx = 0,
+      sy = 0;
     for (let i = 0; i < n; i += step) {
       if (!Number.isFinite(cross[i])) continue;
       const a = (2 * Math.PI * cross[i]) / S;
@@ -195,13 +210,15 @@ export function bedLayout(input: {
       sy += Math.sin(a);
     }
     const phase = ((Math.atan2(sy, sx) / (2 * Math.PI)) * S + S) % S;
-    const kMin = Math.floor((cMin - phase) / S + 0.5), kMax = Math.floor((cMax - phase) / S + 0.5);
+    const kMin = Math.floor((cMin - phase) / S + 0.5),
+      kMax = Math.floor((cMax - phase) / S + 0.5);
     centres = [];
     for (let k = kMin; k <= kMax; k++) centres.push({ label: "", centre: phase + k * S });
   }
   // Each record belongs to the bed whose band (centre ± S/2) holds it; the bed spans its records' along extent.
   const first = centres[0]?.centre ?? 0;
-  const from = new Float64Array(centres.length).fill(Infinity), to = new Float64Array(centres.length).fill(-Infinity);
+  const from = new Float64Array(centres.length).fill(Infinity),
+    to = new Float64Array(centres.length).fill(-Infinity);
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(cross[i]) || !Number.isFinite(along[i])) continue;
     const j = Math.floor((cross[i] - first) / S + 0.5);
@@ -214,15 +231,29 @@ export function bedLayout(input: {
     const corner = (a: number, dc: number) => fromRowFrame(a, c.centre + dc, axes);
     const rows = Array.from({ length: R }, (_, k) => {
       const cc = c.centre + firstRowOffset + k * w;
-      return { label: String(k + 1), path: [fromRowFrame(from[j], cc, axes), fromRowFrame(to[j], cc, axes)] as [Pt, Pt] };
+      return {
+        label: String(k + 1),
+        path: [fromRowFrame(from[j], cc, axes), fromRowFrame(to[j], cc, axes)] as [Pt, Pt],
+      };
     });
     beds.push({
-      label: c.label, centre: c.centre, from: from[j], to: to[j], rows, labelAt: fromRowFrame(from[j] - 2 * halfWidth, c.centre, axes),
-      outline: [corner(from[j], -halfWidth), corner(to[j], -halfWidth), corner(to[j], halfWidth), corner(from[j], halfWidth)],
+      label: c.label,
+      centre: c.centre,
+      from: from[j],
+      to: to[j],
+      rows,
+      labelAt: fromRowFrame(from[j] - 2 * halfWidth, c.centre, axes),
+      outline: [
+        corner(from[j], -halfWidth),
+        corner(to[j], -halfWidth),
+        corner(to[j], halfWidth),
+        corner(from[j], halfWidth),
+      ],
     });
   });
-  const note = anchoredBy === "labels"
-    ? `Beds and rows from the field's settings (${R} rows ${w} m apart, beds ${S} m apart), placed by the records' bed and row numbers.`
-    : `Beds and rows from the field's settings (${R} rows ${w} m apart, beds ${S} m apart), placed by the records' positions (no numeric bed and row labels).`;
+  const note =
+    anchoredBy === "labels"
+      ? `Beds and rows from the field's settings (${R} rows ${w} m apart, beds ${S} m apart), placed by the records' bed and row numbers.`
+      : `Beds and rows from the field's settings (${R} rows ${w} m apart, beds ${S} m apart), placed by the records' positions (no numeric bed and row labels).`;
   return { beds, note, anchoredBy, bedSpacingM: S, halfWidth };
 }

@@ -14,7 +14,8 @@ import { quantileSorted } from "@/lib/audit/quantiles";
 import type { MapProfile } from "./types";
 
 /** Ends every grower guidance text. */
-export const RECORD_ACCURACY_REMINDER = "This map shows how accurate the plant records are, not whether a machine is safe to run.";
+export const RECORD_ACCURACY_REMINDER =
+  "This map shows how accurate the plant records are, not whether a machine is safe to run.";
 
 export interface BedStats {
   /** Bed label; "" for checkpoints without one. */
@@ -67,8 +68,13 @@ export function bedStats(input: {
   const order = [...groups.keys()].sort((a, b) => (a === "" ? 1 : b === "" ? -1 : collator.compare(a, b)));
   return order.map((bed) => {
     const idx = groups.get(bed)!;
-    let known = 0, within = 0, sumR = 0, nR = 0;
-    const r: number[] = [], c: number[] = [], a: number[] = [];
+    let known = 0,
+      within = 0,
+      sumR = 0,
+      nR = 0;
+    const r: number[] = [],
+      c: number[] = [],
+      a: number[] = [];
     for (const i of idx) {
       const w = input.within[i];
       if (w === 0 || w === 1) {
@@ -85,9 +91,18 @@ export function bedStats(input: {
     }
     const ci = clopperPearson(within, known, input.confidence);
     return {
-      bed, n: idx.length, known, within, out: known - within,
-      share: known ? within / known : null, lower: ci?.lower ?? null, upper: ci?.upper ?? null,
-      p95Radial: p95(r), p95Cross: p95(c), p95Along: p95(a), meanRadial: nR ? sumR / nR : null,
+      bed,
+      n: idx.length,
+      known,
+      within,
+      out: known - within,
+      share: known ? within / known : null,
+      lower: ci?.lower ?? null,
+      upper: ci?.upper ?? null,
+      p95Radial: p95(r),
+      p95Cross: p95(c),
+      p95Along: p95(a),
+      meanRadial: nR ? sumR / nR : null,
     };
   });
 }
@@ -99,7 +114,8 @@ export function bedStats(input: {
  * @example checkpointsNeeded(0.95, 0.95) // 72
  */
 export function checkpointsNeeded(share: number, confidence: number): number {
-  if (!(share > 0 && share < 1) || !(confidence > 0 && confidence < 1)) throw new Error(`checkpointsNeeded: share and confidence must lie in (0, 1), got ${share}, ${confidence}`);
+  if (!(share > 0 && share < 1) || !(confidence > 0 && confidence < 1))
+    throw new Error(`checkpointsNeeded: share and confidence must lie in (0, 1), got ${share}, ${confidence}`);
   let n = Math.max(1, Math.ceil(Math.log((1 - confidence) / 2) / Math.log(share)));
   // Guard against rounding at the boundary: confirm with the interval itself.
   while (n > 1 && clopperPearson(n - 1, n - 1, confidence)!.lower >= share) n--;
@@ -137,7 +153,9 @@ function worstLimit(s: BedStats, p: MapProfile): { words: string; p95: number; l
     { words: "radial errors", p95: s.p95Radial, limit: p.radialM },
     { words: "cross-row errors", p95: s.p95Cross, limit: p.crossM },
     { words: "along-row errors", p95: s.p95Along, limit: p.alongM },
-  ].filter((t): t is { words: string; p95: number; limit: number } => t.limit !== null && t.p95 !== null && t.p95 > t.limit);
+  ].filter(
+    (t): t is { words: string; p95: number; limit: number } => t.limit !== null && t.p95 !== null && t.p95 > t.limit,
+  );
   tests.sort((a, b) => b.p95 / b.limit - a.p95 / a.limit);
   return tests[0] ?? null;
 }
@@ -149,26 +167,41 @@ function worstLimit(s: BedStats, p: MapProfile): { words: string; p95: number; l
 export function bedGuidance(s: BedStats, profile: MapProfile | null): BedGuidance {
   const name = bedName(s.bed);
   if (!profile || (profile.radialM === null && profile.crossM === null && profile.alongM === null)) {
-    return { bed: s.bed, state: "no-limits", line: `${name}: the audit's tolerance profile sets no limits, so there is nothing to judge against.` };
+    return {
+      bed: s.bed,
+      state: "no-limits",
+      line: `${name}: the audit's tolerance profile sets no limits, so there is nothing to judge against.`,
+    };
   }
   const op = operationWords(profile);
-  if (s.known === 0) return { bed: s.bed, state: "no-checkpoints", line: `${name}: no checkpoints here — the records of this bed are not checked.` };
+  if (s.known === 0)
+    return {
+      bed: s.bed,
+      state: "no-checkpoints",
+      line: `${name}: no checkpoints here — the records of this bed are not checked.`,
+    };
   const conf = pct0(profile.confidence);
   const worst = worstLimit(s, profile);
   if (s.share! < profile.requiredShare || worst) {
     const parts = [`${s.out} of ${s.known} checkpoints out of tolerance`];
     if (worst) parts.push(`95 % of ${worst.words} within ${mm(worst.p95)}, limit ${mm(worst.limit)}`);
-    return { bed: s.bed, state: "not-relied-on", line: `${name}: do not rely on the records for ${op} — ${parts.join("; ")}.` };
+    return {
+      bed: s.bed,
+      state: "not-relied-on",
+      line: `${name}: do not rely on the records for ${op} — ${parts.join("; ")}.`,
+    };
   }
   if (s.lower! >= profile.requiredShare) {
     return {
-      bed: s.bed, state: "relied-on",
+      bed: s.bed,
+      state: "relied-on",
       line: `${name}: the records can be relied on for ${op} — ${s.within} of ${s.known} checkpoints within tolerance, at least ${pct(s.lower!)} with ${conf} confidence.`,
     };
   }
-  const line = s.out === 0
-    ? `${name}: all ${s.known} checkpoints within tolerance, but too few to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey at least ${checkpointsNeeded(profile.requiredShare, profile.confidence)} here before relying on it for ${op}.`
-    : `${name}: ${s.out} of ${s.known} checkpoints out of tolerance, too many for so few checkpoints to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey more here before relying on it for ${op}.`;
+  const line =
+    s.out === 0
+      ? `${name}: all ${s.known} checkpoints within tolerance, but too few to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey at least ${checkpointsNeeded(profile.requiredShare, profile.confidence)} here before relying on it for ${op}.`
+      : `${name}: ${s.out} of ${s.known} checkpoints out of tolerance, too many for so few checkpoints to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey more here before relying on it for ${op}.`;
   return { bed: s.bed, state: "not-shown", line };
 }
 
@@ -190,9 +223,12 @@ export function overallGuidance(guidance: readonly BedGuidance[], profile: MapPr
     return `${why}, so there is no guidance per bed. ${RECORD_ACCURACY_REMINDER}`;
   }
   const beds = (state: BedState) => labelled.filter((g) => g.state === state).map((g) => g.bed);
-  const phrase = (list: string[]) => (list.length === 0 ? "no bed" : `${list.length === 1 ? "bed" : "beds"} ${listWords(list)}`);
+  const phrase = (list: string[]) =>
+    list.length === 0 ? "no bed" : `${list.length === 1 ? "bed" : "beds"} ${listWords(list)}`;
   const parts = [`the records can be relied on in ${phrase(beds("relied-on"))}`];
-  const not = beds("not-relied-on"), unshown = beds("not-shown"), unchecked = beds("no-checkpoints");
+  const not = beds("not-relied-on"),
+    unshown = beds("not-shown"),
+    unchecked = beds("no-checkpoints");
   if (not.length) parts.push(`not in ${phrase(not)}`);
   if (unshown.length) parts.push(`not yet shown in ${phrase(unshown)}`);
   if (unchecked.length) parts.push(`no checkpoints in ${phrase(unchecked)}`);

@@ -6,34 +6,79 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { openDb, type DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field, organization } from "@/db/schema";
 import {
-  getFieldMapSummary, getLatestMappedAudit, getMapContext, getMapExtent, getMapPair, getMapUnpaired, loadBedColumns, loadMapColumns,
+  getFieldMapSummary,
+  getLatestMappedAudit,
+  getMapContext,
+  getMapExtent,
+  getMapPair,
+  getMapUnpaired,
+  loadBedColumns,
+  loadMapColumns,
 } from "@/db/queries/map";
 import { buildMapArrays, pairFlags } from "./build";
 import { decodeMapPayload, encodeMapPayload } from "./binary";
 import { bedGuidance, bedStats } from "./guidance";
 
-const ORG = "org-kestrel", OTHER = "org-saltings";
+const ORG = "org-kestrel",
+  OTHER = "org-saltings";
 const FIELD = "00000000-0000-4000-8000-00000000f001";
 const AUDIT = "00000000-0000-4000-8000-00000000a001";
 const OLDER = "00000000-0000-4000-8000-00000000a002";
-const PROFILE = { id: "p", name: "In-row weeding around plants", operation: "Tools that close between plants in the row", radialM: 0.01, crossM: 0.008, alongM: 0.01, requiredShare: 0.95, confidence: 0.95, minCheckpoints: 50 };
+const PROFILE = {
+  id: "p",
+  name: "In-row weeding around plants",
+  operation: "Tools that close between plants in the row",
+  radialM: 0.01,
+  crossM: 0.008,
+  alongM: 0.01,
+  requiredShare: 0.95,
+  confidence: 0.95,
+  minCheckpoints: 50,
+};
 
 interface Pair {
-  seq: number; plantId: string | null; bed: string | null; row: string; arm: string; fix: string; day: string;
-  plantedE: number; plantedN: number; dE: number; dN: number; along: number | null; cross: number | null;
-  within: boolean | null; outlier: boolean; pairedBy: "id" | "position"; beyondMaxDistance: boolean;
+  seq: number;
+  plantId: string | null;
+  bed: string | null;
+  row: string;
+  arm: string;
+  fix: string;
+  day: string;
+  plantedE: number;
+  plantedN: number;
+  dE: number;
+  dN: number;
+  along: number | null;
+  cross: number | null;
+  within: boolean | null;
+  outlier: boolean;
+  pairedBy: "id" | "position";
+  beyondMaxDistance: boolean;
 }
 
 // Invented checkpoints of a small Kestrel Fen bed layout: bed 1 clean, bed 3 with two plants 30 mm off along the row.
 const PAIRS: Pair[] = Array.from({ length: 12 }, (_, seq) => {
   const bed = seq < 6 ? "1" : "3";
   const off = seq === 8 || seq === 9;
-  const dA = off ? 0.031 : 0.001 * ((seq % 3) - 1), dC = 0.0005 * (seq % 2 ? 1 : -1);
+  const dA = off ? 0.031 : 0.001 * ((seq % 3) - 1),
+    dC = 0.0005 * (seq % 2 ? 1 : -1);
   return {
-    seq, plantId: seq === 4 ? null : `LA-${bed}-${(seq % 5) + 1}-${String(seq * 12).padStart(4, "0")}`, bed: seq === 11 ? null : bed,
-    row: String((seq % 5) + 1), arm: String((seq % 5) + 1), fix: off ? "rtk-float" : "rtk-fixed", day: seq < 4 ? "2026-04-14" : "2026-04-15",
-    plantedE: 662_410.5712 + seq * 0.3, plantedN: 5_821_331.3858 + seq * 0.7, dE: dA * 0.3827 + dC * 0.9239, dN: dA * 0.9239 - dC * 0.3827,
-    along: seq === 10 ? null : dA, cross: seq === 10 ? null : dC, within: seq === 10 ? null : !off, outlier: off, pairedBy: seq === 5 ? "position" : "id",
+    seq,
+    plantId: seq === 4 ? null : `LA-${bed}-${(seq % 5) + 1}-${String(seq * 12).padStart(4, "0")}`,
+    bed: seq === 11 ? null : bed,
+    row: String((seq % 5) + 1),
+    arm: String((seq % 5) + 1),
+    fix: off ? "rtk-float" : "rtk-fixed",
+    day: seq < 4 ? "2026-04-14" : "2026-04-15",
+    plantedE: 662_410.5712 + seq * 0.3,
+    plantedN: 5_821_331.3858 + seq * 0.7,
+    dE: dA * 0.3827 + dC * 0.9239,
+    dN: dA * 0.9239 - dC * 0.3827,
+    along: seq === 10 ? null : dA,
+    cross: seq === 10 ? null : dC,
+    within: seq === 10 ? null : !off,
+    outlier: off,
+    pairedBy: seq === 5 ? "position" : "id",
     beyondMaxDistance: seq === 7,
   };
 });
@@ -42,22 +87,117 @@ let db: DB;
 
 beforeAll(async () => {
   db = await openDb("memory://");
-  await db.insert(organization).values([{ id: ORG, name: "Kestrel Fen Growers", slug: "kestrel" }, { id: OTHER, name: "Saltings Field Services", slug: "saltings" }]);
-  await db.insert(field).values({ id: FIELD, orgId: ORG, name: "Long Acre", farm: "Kestrel Fen", crs: "EPSG:25831", timeZone: "Europe/Amsterdam", rowBearingDeg: 22.5, bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 });
-  const settings = { match: "auto", maxDistanceM: 0.1, rowBearingDeg: 22.5, timeZone: "Europe/Amsterdam", workCrs: "EPSG:25831" };
-  await db.insert(audit).values([
-    { id: AUDIT, orgId: ORG, fieldId: FIELD, title: "Long Acre spring check", state: "computed", profileSnapshot: PROFILE, settings, computedAt: new Date("2026-04-21T10:00:00Z") },
-    { id: OLDER, orgId: ORG, fieldId: FIELD, title: "Older check", state: "signed_off", profileSnapshot: PROFILE, settings, computedAt: new Date("2026-04-01T10:00:00Z") },
+  await db.insert(organization).values([
+    { id: ORG, name: "Kestrel Fen Growers", slug: "kestrel" },
+    { id: OTHER, name: "Saltings Field Services", slug: "saltings" },
   ]);
-  await db.insert(auditResidual).values(PAIRS.map((p) => ({
-    auditId: AUDIT, seq: p.seq, plantId: p.plantId, surveyId: null, crop: "lettuce", bed: p.bed, row: p.row, arm: p.arm, fix: p.fix, day: p.day,
-    plantedE: p.plantedE, plantedN: p.plantedN, surveyE: p.plantedE + p.dE, surveyN: p.plantedN + p.dN, dE: p.dE, dN: p.dN,
-    along: p.along, cross: p.cross, radial: Math.hypot(p.dE, p.dN), within: p.within, outlier: p.outlier, pairedBy: p.pairedBy, beyondMaxDistance: p.beyondMaxDistance,
-  })));
+  await db
+    .insert(field)
+    .values({
+      id: FIELD,
+      orgId: ORG,
+      name: "Long Acre",
+      farm: "Kestrel Fen",
+      crs: "EPSG:25831",
+      timeZone: "Europe/Amsterdam",
+      rowBearingDeg: 22.5,
+      bedSpacingM: 3,
+      rowsPerBed: 5,
+      rowSpacingM: 0.5,
+    });
+  const settings = {
+    match: "auto",
+    maxDistanceM: 0.1,
+    rowBearingDeg: 22.5,
+    timeZone: "Europe/Amsterdam",
+    workCrs: "EPSG:25831",
+  };
+  await db.insert(audit).values([
+    {
+      id: AUDIT,
+      orgId: ORG,
+      fieldId: FIELD,
+      title: "Long Acre spring check",
+      state: "computed",
+      profileSnapshot: PROFILE,
+      settings,
+      computedAt: new Date("2026-04-21T10:00:00Z"),
+    },
+    {
+      id: OLDER,
+      orgId: ORG,
+      fieldId: FIELD,
+      title: "Older check",
+      state: "signed_off",
+      profileSnapshot: PROFILE,
+      settings,
+      computedAt: new Date("2026-04-01T10:00:00Z"),
+    },
+  ]);
+  await db.insert(auditResidual).values(
+    PAIRS.map((p) => ({
+      auditId: AUDIT,
+      seq: p.seq,
+      plantId: p.plantId,
+      surveyId: null,
+      crop: "lettuce",
+      bed: p.bed,
+      row: p.row,
+      arm: p.arm,
+      fix: p.fix,
+      day: p.day,
+      plantedE: p.plantedE,
+      plantedN: p.plantedN,
+      surveyE: p.plantedE + p.dE,
+      surveyN: p.plantedN + p.dN,
+      dE: p.dE,
+      dN: p.dN,
+      along: p.along,
+      cross: p.cross,
+      radial: Math.hypot(p.dE, p.dN),
+      within: p.within,
+      outlier: p.outlier,
+      pairedBy: p.pairedBy,
+      beyondMaxDistance: p.beyondMaxDistance,
+    })),
+  );
   await db.insert(auditUnpaired).values([
-    { auditId: AUDIT, seq: 0, kind: "planted-not-found", pointId: "LA-1-1-0001", line: 2, e: 662_409.9, n: 5_821_330.2, crop: "lettuce", bed: "1", row: "1" },
-    { auditId: AUDIT, seq: 1, kind: "surveyed-not-planted", pointId: null, line: 377, e: 662_415.25, n: 5_821_340.5, crop: null, bed: null, row: null },
-    { auditId: AUDIT, seq: 2, kind: "ambiguous", pointId: null, line: 378, e: 662_416, n: 5_821_342, crop: null, bed: null, row: null },
+    {
+      auditId: AUDIT,
+      seq: 0,
+      kind: "planted-not-found",
+      pointId: "LA-1-1-0001",
+      line: 2,
+      e: 662_409.9,
+      n: 5_821_330.2,
+      crop: "lettuce",
+      bed: "1",
+      row: "1",
+    },
+    {
+      auditId: AUDIT,
+      seq: 1,
+      kind: "surveyed-not-planted",
+      pointId: null,
+      line: 377,
+      e: 662_415.25,
+      n: 5_821_340.5,
+      crop: null,
+      bed: null,
+      row: null,
+    },
+    {
+      auditId: AUDIT,
+      seq: 2,
+      kind: "ambiguous",
+      pointId: null,
+      line: 378,
+      e: 662_416,
+      n: 5_821_342,
+      crop: null,
+      bed: null,
+      row: null,
+    },
   ]);
 }, 120_000); // an in-memory PGlite with migrations takes a few seconds on a busy machine
 
@@ -86,11 +226,24 @@ describe("map queries", () => {
     const { arrays, dict } = buildMapArrays(pairs, unpaired);
     const ctx = await getMapContext(db, { auditId: AUDIT, orgId: ORG });
     expect(ctx).toMatchObject({ fieldName: "Long Acre", bedSpacingM: 3, rowsPerBed: 5 });
-    const back = decodeMapPayload(encodeMapPayload({
-      audit: { id: AUDIT, title: "t", state: "computed", fieldId: FIELD, fieldName: "Long Acre", computedAt: null }, crs: "EPSG:25831", origin,
-      gridConvergenceDeg: null, rowBearingDeg: 22.5, field: { bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 }, boundary: { source: "none", ring: [] },
-      profile: null, pairs: 12, unpaired: 3, dict,
-    }, arrays));
+    const back = decodeMapPayload(
+      encodeMapPayload(
+        {
+          audit: { id: AUDIT, title: "t", state: "computed", fieldId: FIELD, fieldName: "Long Acre", computedAt: null },
+          crs: "EPSG:25831",
+          origin,
+          gridConvergenceDeg: null,
+          rowBearingDeg: 22.5,
+          field: { bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 },
+          boundary: { source: "none", ring: [] },
+          profile: null,
+          pairs: 12,
+          unpaired: 3,
+          dict,
+        },
+        arrays,
+      ),
+    );
     expect(back.meta.dict.bed).toEqual(["1", "3"]);
   });
 
@@ -118,7 +271,10 @@ describe("map queries", () => {
     expect(p).toMatchObject({ seq: 8, bed: "3", fix: "rtk-float", within: false, outlier: true, pairedBy: "id" });
     expect(p!.surveyE - p!.plantedE).toBeCloseTo(p!.dE, 9);
     expect(await getMapPair(db, { auditId: AUDIT, orgId: ORG, seq: 99 })).toBeNull();
-    expect(await getMapUnpaired(db, { auditId: AUDIT, orgId: ORG, seq: 1 })).toMatchObject({ kind: "surveyed-not-planted", line: 377 });
+    expect(await getMapUnpaired(db, { auditId: AUDIT, orgId: ORG, seq: 1 })).toMatchObject({
+      kind: "surveyed-not-planted",
+      line: 377,
+    });
   });
 
   it("getLatestMappedAudit -- the most recently computed audit with results", async () => {
@@ -133,9 +289,12 @@ describe("map queries", () => {
     expect(cols.bed).toEqual(PAIRS.map((p) => p.bed ?? ""));
     expect(Array.from(cols.within)).toEqual(PAIRS.map((p) => (p.within === null ? -1 : p.within ? 1 : 0)));
     const expected = bedStats({
-      bed: PAIRS.map((p) => p.bed ?? ""), radial: PAIRS.map((p) => Math.fround(Math.hypot(p.dE, p.dN))),
-      cross: PAIRS.map((p) => (p.cross === null ? NaN : Math.fround(p.cross))), along: PAIRS.map((p) => (p.along === null ? NaN : Math.fround(p.along))),
-      within: PAIRS.map((p) => (p.within === null ? -1 : p.within ? 1 : 0)), confidence: 0.95,
+      bed: PAIRS.map((p) => p.bed ?? ""),
+      radial: PAIRS.map((p) => Math.fround(Math.hypot(p.dE, p.dN))),
+      cross: PAIRS.map((p) => (p.cross === null ? NaN : Math.fround(p.cross))),
+      along: PAIRS.map((p) => (p.along === null ? NaN : Math.fround(p.along))),
+      within: PAIRS.map((p) => (p.within === null ? -1 : p.within ? 1 : 0)),
+      confidence: 0.95,
     });
     expect(view!.beds.map((b) => b.bed)).toEqual(["1", "3", ""]);
     view!.beds.forEach((b, i) => {

@@ -27,7 +27,12 @@ export function projectBoundary(polygon: GeoJSON.Polygon | null, workCrs: string
   if (!ring || ring.length < 3) return null;
   const closed = ring.length > 3 && ring[0][0] === ring[ring.length - 1][0] && ring[0][1] === ring[ring.length - 1][1];
   const pts = closed ? ring.slice(0, -1) : ring;
-  const [e, n] = convertArrays(Float64Array.from(pts, (p) => p[0]), Float64Array.from(pts, (p) => p[1]), "EPSG:4326", workCrs);
+  const [e, n] = convertArrays(
+    Float64Array.from(pts, (p) => p[0]),
+    Float64Array.from(pts, (p) => p[1]),
+    "EPSG:4326",
+    workCrs,
+  );
   const out: number[] = [];
   for (let i = 0; i < e.length; i++) {
     if (!Number.isFinite(e[i]) || !Number.isFinite(n[i])) return null;
@@ -40,9 +45,15 @@ export function projectBoundary(polygon: GeoJSON.Polygon | null, workCrs: string
 export function unionBox(extent: Box | null, ring: number[] | null): Box | null {
   let box = extent ? { ...extent } : null;
   for (let i = 0; ring && i + 1 < ring.length; i += 2) {
-    const e = ring[i], n = ring[i + 1];
+    const e = ring[i],
+      n = ring[i + 1];
     box = box
-      ? { minE: Math.min(box.minE, e), maxE: Math.max(box.maxE, e), minN: Math.min(box.minN, n), maxN: Math.max(box.maxN, n) }
+      ? {
+          minE: Math.min(box.minE, e),
+          maxE: Math.max(box.maxE, e),
+          minN: Math.min(box.minN, n),
+          maxN: Math.max(box.maxN, n),
+        }
       : { minE: e, maxE: e, minN: n, maxN: n };
   }
   return box;
@@ -59,7 +70,8 @@ export function originFor(extent: Box | null, boundaryEN: number[] | null): [num
  */
 export function convergenceAt(e: number, n: number, crs: string): number | null {
   try {
-    const a = toLonLat(e, n, crs), b = toLonLat(e, n + 100, crs);
+    const a = toLonLat(e, n, crs),
+      b = toLonLat(e, n + 100, crs);
     if (![...a, ...b].every(Number.isFinite)) return null;
     return gridConvergenceDeg(a, b);
   } catch {
@@ -70,7 +82,12 @@ export function convergenceAt(e: number, n: number, crs: string): number | null 
 /** Everything of the header that is not the array table. */
 export function mapMeta(input: {
   audit: AuditDto;
-  field: { bedSpacingM: number | null; rowsPerBed: number | null; rowSpacingM: number | null; fieldRowBearingDeg: number | null };
+  field: {
+    bedSpacingM: number | null;
+    rowsPerBed: number | null;
+    rowSpacingM: number | null;
+    fieldRowBearingDeg: number | null;
+  };
   origin: [number, number];
   boundaryEN: number[] | null;
   arrays: MapArrays;
@@ -84,7 +101,8 @@ export function mapMeta(input: {
   } else {
     // Hull of every record drawn: paired plants and planted records without a checkpoint.
     const planted: number[] = [];
-    for (let i = 0; i < arrays.unpairedKind.length; i++) if (arrays.unpairedKind[i] === 0) planted.push(arrays.unpairedXY[2 * i], arrays.unpairedXY[2 * i + 1]);
+    for (let i = 0; i < arrays.unpairedKind.length; i++)
+      if (arrays.unpairedKind[i] === 0) planted.push(arrays.unpairedXY[2 * i], arrays.unpairedXY[2 * i + 1]);
     const all = new Float32Array(arrays.pairXY.length + planted.length);
     all.set(arrays.pairXY, 0);
     all.set(planted, arrays.pairXY.length);
@@ -94,19 +112,35 @@ export function mapMeta(input: {
   const p = audit.profile;
   return {
     audit: {
-      id: audit.id, title: audit.title, state: audit.state, fieldId: audit.field.id, fieldName: audit.field.name, computedAt: audit.computedAt,
+      id: audit.id,
+      title: audit.title,
+      state: audit.state,
+      fieldId: audit.field.id,
+      fieldName: audit.field.name,
+      computedAt: audit.computedAt,
     },
     crs,
     origin,
     gridConvergenceDeg: convergenceAt(origin[0], origin[1], crs),
-    rowBearingDeg: audit.settings?.rowBearingDeg ?? audit.summary?.rowBearingDeg ?? input.field.fieldRowBearingDeg ?? null,
-    field: { bedSpacingM: input.field.bedSpacingM, rowsPerBed: input.field.rowsPerBed, rowSpacingM: input.field.rowSpacingM },
+    rowBearingDeg:
+      audit.settings?.rowBearingDeg ?? audit.summary?.rowBearingDeg ?? input.field.fieldRowBearingDeg ?? null,
+    field: {
+      bedSpacingM: input.field.bedSpacingM,
+      rowsPerBed: input.field.rowsPerBed,
+      rowSpacingM: input.field.rowSpacingM,
+    },
     boundary,
     profile: p
       ? {
-        name: p.name, operation: p.operation ?? null, radialM: p.radialM, crossM: p.crossM, alongM: p.alongM,
-        requiredShare: p.requiredShare, confidence: p.confidence, minCheckpoints: p.minCheckpoints,
-      }
+          name: p.name,
+          operation: p.operation ?? null,
+          radialM: p.radialM,
+          crossM: p.crossM,
+          alongM: p.alongM,
+          requiredShare: p.requiredShare,
+          confidence: p.confidence,
+          minCheckpoints: p.minCheckpoints,
+        }
       : null,
     pairs: arrays.pairFlags.length,
     unpaired: arrays.unpairedKind.length,

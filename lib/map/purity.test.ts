@@ -12,7 +12,18 @@ describe("lib/map purity", () => {
   const files = readdirSync(dir).filter((f) => f.endsWith(".ts") && !f.endsWith(".test.ts") && !f.startsWith("bench-"));
 
   it("purity -- the map's helpers are all scanned", () => {
-    expect(files).toEqual(expect.arrayContaining(["binary.ts", "build.ts", "cells.ts", "colour-scale.ts", "geometry.ts", "guidance.ts", "select.ts", "view.ts"]));
+    expect(files).toEqual(
+      expect.arrayContaining([
+        "binary.ts",
+        "build.ts",
+        "cells.ts",
+        "colour-scale.ts",
+        "geometry.ts",
+        "guidance.ts",
+        "select.ts",
+        "view.ts",
+      ]),
+    );
   });
 
   it("purity -- no I/O, clock, environment, randomness or framework in the map's helpers", () => {

@@ -1,24 +1,45 @@
 import { describe, expect, it } from "vitest";
 import { buildMapArrays, type PairColumns, type UnpairedColumns } from "./build";
-import { isOut, metricValues, pairBuffers, selectPairs, selectUnpaired, unpairedBuffers, vectorBuffers } from "./select";
+import {
+  isOut,
+  metricValues,
+  pairBuffers,
+  selectPairs,
+  selectUnpaired,
+  unpairedBuffers,
+  vectorBuffers,
+} from "./select";
 import { viridis } from "./colour-scale";
 import { PAIR_FLAG } from "./types";
 
-const IN = PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.WITHIN, OUT = PAIR_FLAG.WITHIN_KNOWN;
+const IN = PAIR_FLAG.WITHIN_KNOWN | PAIR_FLAG.WITHIN,
+  OUT = PAIR_FLAG.WITHIN_KNOWN;
 
 function arrays() {
   const pairs: PairColumns = {
-    count: 4, x: Float32Array.of(0, 1, 2, 3), y: Float32Array.of(0, 0, 0, 0),
-    dE: Float32Array.of(0.003, 0, 0.02, 0), dN: Float32Array.of(0.004, 0.001, 0, 0),
-    along: Float32Array.of(0.005, -0.001, 0.02, Number.NaN), cross: Float32Array.of(0, 0.0005, -0.004, Number.NaN),
-    flags: Uint8Array.of(IN, IN, OUT, 0), plantId: ["a", "b", "c", "d"],
+    count: 4,
+    x: Float32Array.of(0, 1, 2, 3),
+    y: Float32Array.of(0, 0, 0, 0),
+    dE: Float32Array.of(0.003, 0, 0.02, 0),
+    dN: Float32Array.of(0.004, 0.001, 0, 0),
+    along: Float32Array.of(0.005, -0.001, 0.02, Number.NaN),
+    cross: Float32Array.of(0, 0.0005, -0.004, Number.NaN),
+    flags: Uint8Array.of(IN, IN, OUT, 0),
+    plantId: ["a", "b", "c", "d"],
     text: {
-      crop: ["lettuce", "lettuce", "lettuce", "lettuce"], bed: ["1", "1", "3", "3"], row: ["1", "2", "2", "3"],
-      arm: ["1", "2", "2", "3"], fix: ["rtk-fixed", "rtk-fixed", "rtk-float", "rtk-fixed"], day: ["d1", "d1", "d2", "d2"],
+      crop: ["lettuce", "lettuce", "lettuce", "lettuce"],
+      bed: ["1", "1", "3", "3"],
+      row: ["1", "2", "2", "3"],
+      arm: ["1", "2", "2", "3"],
+      fix: ["rtk-fixed", "rtk-fixed", "rtk-float", "rtk-fixed"],
+      day: ["d1", "d1", "d2", "d2"],
     },
   };
   const unpaired: UnpairedColumns = {
-    count: 3, x: Float32Array.of(10, 11, 12), y: Float32Array.of(1, 1, 1), kind: ["planted-not-found", "planted-not-found", "surveyed-not-planted"],
+    count: 3,
+    x: Float32Array.of(10, 11, 12),
+    y: Float32Array.of(1, 1, 1),
+    kind: ["planted-not-found", "planted-not-found", "surveyed-not-planted"],
     text: { crop: ["lettuce", "lettuce", ""], bed: ["1", "3", ""], row: ["1", "1", ""] },
   };
   return buildMapArrays(pairs, unpaired);
@@ -35,7 +56,11 @@ describe("select", () => {
     const { arrays: a, dict } = arrays();
     expect(Array.from(selectPairs(a, { codes: {}, onlyOut: false }))).toEqual([0, 1, 2, 3]);
     expect(Array.from(selectPairs(a, { codes: { bed: dict.bed.indexOf("3") }, onlyOut: false }))).toEqual([2, 3]);
-    expect(Array.from(selectPairs(a, { codes: { bed: dict.bed.indexOf("3"), fix: dict.fix.indexOf("rtk-fixed") }, onlyOut: false }))).toEqual([3]);
+    expect(
+      Array.from(
+        selectPairs(a, { codes: { bed: dict.bed.indexOf("3"), fix: dict.fix.indexOf("rtk-fixed") }, onlyOut: false }),
+      ),
+    ).toEqual([3]);
     expect(Array.from(selectPairs(a, { codes: { arm: null }, onlyOut: true }))).toEqual([2]);
     expect(Array.from(selectPairs(a, { codes: { day: dict.day.indexOf("d1") }, onlyOut: true }))).toEqual([]);
   });

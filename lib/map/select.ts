@@ -97,17 +97,29 @@ function gatherXY(xy: Float32Array, index: Uint32Array): Float32Array {
  * The selected pairs split into within-or-unknown and out-of-tolerance (drawn on top, outlined), each with positions
  * and viridis colours of `values` over `domain`.
  */
-export function pairBuffers(a: MapArrays, selected: Uint32Array, values: Float32Array, domain: readonly [number, number]): { rest: PointBuffer; out: PointBuffer } {
+export function pairBuffers(
+  a: MapArrays,
+  selected: Uint32Array,
+  values: Float32Array,
+  domain: readonly [number, number],
+): { rest: PointBuffer; out: PointBuffer } {
   let nOut = 0;
   for (let k = 0; k < selected.length; k++) if (isOut(a.pairFlags[selected[k]])) nOut++;
-  const outIdx = new Uint32Array(nOut), restIdx = new Uint32Array(selected.length - nOut);
-  let o = 0, r = 0;
+  const outIdx = new Uint32Array(nOut),
+    restIdx = new Uint32Array(selected.length - nOut);
+  let o = 0,
+    r = 0;
   for (let k = 0; k < selected.length; k++) {
     const i = selected[k];
     if (isOut(a.pairFlags[i])) outIdx[o++] = i;
     else restIdx[r++] = i;
   }
-  const make = (index: Uint32Array): PointBuffer => ({ length: index.length, index, positions: gatherXY(a.pairXY, index), colours: fillColours(values, domain, index) });
+  const make = (index: Uint32Array): PointBuffer => ({
+    length: index.length,
+    index,
+    positions: gatherXY(a.pairXY, index),
+    colours: fillColours(values, domain, index),
+  });
   return { rest: make(restIdx), out: make(outIdx) };
 }
 
@@ -115,7 +127,11 @@ export function pairBuffers(a: MapArrays, selected: Uint32Array, values: Float32
  * Error vectors from each selected planted position towards its surveyed position, lengthened `exaggeration` times:
  * target = planted + exaggeration · (dE, dN).
  */
-export function vectorBuffers(a: MapArrays, selected: Uint32Array, exaggeration: number): { length: number; index: Uint32Array; source: Float32Array; target: Float32Array } {
+export function vectorBuffers(
+  a: MapArrays,
+  selected: Uint32Array,
+  exaggeration: number,
+): { length: number; index: Uint32Array; source: Float32Array; target: Float32Array } {
   const source = gatherXY(a.pairXY, selected);
   const target = new Float32Array(source.length);
   for (let k = 0; k < selected.length; k++) {
@@ -133,14 +149,20 @@ export function unpairedBuffers(a: MapArrays, selected: Uint32Array): Record<Unp
   const idx = UNPAIRED_KINDS.map((_, j) => new Uint32Array(counts[j]));
   const fill = new Uint32Array(UNPAIRED_KINDS.length);
   for (let k = 0; k < selected.length; k++) {
-    const i = selected[k], j = a.unpairedKind[i];
+    const i = selected[k],
+      j = a.unpairedKind[i];
     idx[j][fill[j]++] = i;
   }
-  return Object.fromEntries(UNPAIRED_KINDS.map((kind, j) => [kind, { length: idx[j].length, index: idx[j], positions: gatherXY(a.unpairedXY, idx[j]) }])) as Record<UnpairedKind, PointBuffer>;
+  return Object.fromEntries(
+    UNPAIRED_KINDS.map((kind, j) => [
+      kind,
+      { length: idx[j].length, index: idx[j], positions: gatherXY(a.unpairedXY, idx[j]) },
+    ]),
+  ) as Record<UnpairedKind, PointBuffer>;
 }
 
 /** Text of a code column at i, "" when empty. */
 export function codeText(dict: readonly string[], codes: Uint16Array, i: number): string {
   const c = codes[i];
-  return c === NO_CODE ? "" : dict[c] ?? "";
+  return c === NO_CODE ? "" : (dict[c] ?? "");
 }

@@ -36,8 +36,13 @@ describe("view", () => {
 describe("grid north", () => {
   it("gridConvergenceDeg -- matches the transverse Mercator convergence γ ≈ atan(tan(λ − λ₀) · sin φ)", () => {
     // Spherical TM convergence (Snyder 1987, USGS Professional Paper 1395, §8, from memory); UTM 31N: λ₀ = 3° E.
-    for (const [lon, lat] of [[5.3936, 52.5178], [1.2, 51.0], [4.9, 60.3]] as const) {
-      const gamma = (Math.atan(Math.tan(((lon - 3) * Math.PI) / 180) * Math.sin((lat * Math.PI) / 180)) * 180) / Math.PI;
+    for (const [lon, lat] of [
+      [5.3936, 52.5178],
+      [1.2, 51.0],
+      [4.9, 60.3],
+    ] as const) {
+      const gamma =
+        (Math.atan(Math.tan(((lon - 3) * Math.PI) / 180) * Math.sin((lat * Math.PI) / 180)) * 180) / Math.PI;
       const [e, n] = proj4("EPSG:4326", "+proj=utm +zone=31 +ellps=GRS80 +units=m +no_defs", [lon, lat]);
       const [lon2, lat2] = proj4("+proj=utm +zone=31 +ellps=GRS80 +units=m +no_defs", "EPSG:4326", [e, n + 100]);
       expect(gridConvergenceDeg([lon, lat], [lon2, lat2])).toBeCloseTo(gamma, 2);
@@ -54,7 +59,13 @@ describe("grid north", () => {
 
 describe("boundary and origin", () => {
   it("projectBoundary -- WGS 84 ring into the work CRS, closing point dropped, checked against proj4", () => {
-    const ring = [[5.3935, 52.5177], [5.3945, 52.5177], [5.3945, 52.5183], [5.3935, 52.5183], [5.3935, 52.5177]];
+    const ring = [
+      [5.3935, 52.5177],
+      [5.3945, 52.5177],
+      [5.3945, 52.5183],
+      [5.3935, 52.5183],
+      [5.3935, 52.5177],
+    ];
     const en = projectBoundary({ type: "Polygon", coordinates: [ring] }, "EPSG:25831")!;
     expect(en).toHaveLength(8);
     const [e1, n1] = proj4("EPSG:4326", "+proj=utm +zone=31 +ellps=GRS80 +units=m +no_defs", ring[1]); // proj4 as independent oracle
@@ -64,8 +75,15 @@ describe("boundary and origin", () => {
   });
 
   it("originFor -- centre of records and boundary together, whole metres", () => {
-    expect(unionBox({ minE: 10, maxE: 20, minN: 0, maxN: 4 }, [0, 2, 30, 3])).toEqual({ minE: 0, maxE: 30, minN: 0, maxN: 4 });
-    expect(originFor({ minE: 662_400.4, maxE: 662_460.2, minN: 5_821_300.2, maxN: 5_821_351 }, null)).toEqual([662_430, 5_821_326]);
+    expect(unionBox({ minE: 10, maxE: 20, minN: 0, maxN: 4 }, [0, 2, 30, 3])).toEqual({
+      minE: 0,
+      maxE: 30,
+      minN: 0,
+      maxN: 4,
+    });
+    expect(originFor({ minE: 662_400.4, maxE: 662_460.2, minN: 5_821_300.2, maxN: 5_821_351 }, null)).toEqual([
+      662_430, 5_821_326,
+    ]);
     expect(originFor(null, null)).toEqual([0, 0]);
   });
 });

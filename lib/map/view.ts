@@ -16,9 +16,16 @@ export interface Bounds {
  *
  * @example fitBounds({ minX: -50, minY: -10, maxX: 50, maxY: 10 }, 1000, 400, 0) // { target: [0, 0], zoom: log2(10) ≈ 3.32 }
  */
-export function fitBounds(bounds: Bounds, width: number, height: number, padding = 24): { target: [number, number]; zoom: number } {
-  const dx = Math.max(bounds.maxX - bounds.minX, 1e-3), dy = Math.max(bounds.maxY - bounds.minY, 1e-3);
-  const w = Math.max(width - 2 * padding, 1), h = Math.max(height - 2 * padding, 1);
+export function fitBounds(
+  bounds: Bounds,
+  width: number,
+  height: number,
+  padding = 24,
+): { target: [number, number]; zoom: number } {
+  const dx = Math.max(bounds.maxX - bounds.minX, 1e-3),
+    dy = Math.max(bounds.maxY - bounds.minY, 1e-3);
+  const w = Math.max(width - 2 * padding, 1),
+    h = Math.max(height - 2 * padding, 1);
   return {
     target: [(bounds.minX + bounds.maxX) / 2, (bounds.minY + bounds.maxY) / 2],
     zoom: Math.log2(Math.min(w / dx, h / dy)),
@@ -61,9 +68,17 @@ export function lengthLabel(metres: number): string {
  *
  * @example gridConvergenceDeg([5.3936, 52.5178], [5.39393, 52.51870]) // ≈ 1.9 (UTM 31N east of 3° E: grid north is east of true north)
  */
-export function gridConvergenceDeg(origin: readonly [number, number], northOfOrigin: readonly [number, number]): number {
+export function gridConvergenceDeg(
+  origin: readonly [number, number],
+  northOfOrigin: readonly [number, number],
+): number {
   const r = Math.PI / 180;
-  const f1 = origin[1] * r, f2 = northOfOrigin[1] * r, dl = (northOfOrigin[0] - origin[0]) * r;
-  const theta = Math.atan2(Math.sin(dl) * Math.cos(f2), Math.cos(f1) * Math.sin(f2) - Math.sin(f1) * Math.cos(f2) * Math.cos(dl));
+  const f1 = origin[1] * r,
+    f2 = northOfOrigin[1] * r,
+    dl = (northOfOrigin[0] - origin[0]) * r;
+  const theta = Math.atan2(
+    Math.sin(dl) * Math.cos(f2),
+    Math.cos(f1) * Math.sin(f2) - Math.sin(f1) * Math.cos(f2) * Math.cos(dl),
+  );
   return theta / r;
 }

@@ -17,12 +17,15 @@ describe("canonicalJson", () => {
 
   it("canonicalJson -- numbers in the shortest round-trip form, −0 as 0, non-finite as null", () => {
     // RFC 8785 §3.2.2.3 uses ECMAScript's Number serialisation.
-    expect(canonicalJson([1.0, 2.5, -0, 1e21, 1e-7, 0.1 + 0.2, NaN, Infinity])).toBe("[1,2.5,0,1e+21,1e-7,0.30000000000000004,null,null]");
+    expect(canonicalJson([1.0, 2.5, -0, 1e21, 1e-7, 0.1 + 0.2, NaN, Infinity])).toBe(
+      "[1,2.5,0,1e+21,1e-7,0.30000000000000004,null,null]",
+    );
   });
 
   it("canonicalJson -- strings escaped as JSON.stringify, dates as ISO text, typed arrays as arrays", () => {
-    expect(canonicalJson({ s: 'a"b\\c\n\u0001', d: new Date("2026-04-14T21:40:00Z"), t: new Float64Array([1.5, -2]) }))
-      .toBe('{"d":"2026-04-14T21:40:00.000Z","s":"a\\"b\\\\c\\n\\u0001","t":[1.5,-2]}');
+    expect(
+      canonicalJson({ s: 'a"b\\c\n\u0001', d: new Date("2026-04-14T21:40:00Z"), t: new Float64Array([1.5, -2]) }),
+    ).toBe('{"d":"2026-04-14T21:40:00.000Z","s":"a\\"b\\\\c\\n\\u0001","t":[1.5,-2]}');
   });
 
   it("canonicalJson -- agrees with JSON.stringify on a summary-like object after sorting", () => {
@@ -37,12 +40,14 @@ describe("canonicalJson", () => {
   it("canonicalJson -- a value that went through PostgreSQL jsonb text comes back with the same canonical form", () => {
     // jsonb keeps numbers as numeric text; parsing that text gives the same double.
     const v = { x: 0.1 + 0.2, y: 662410.5712, z: 1e-7 };
-    expect(canonicalJson(JSON.parse('{"z": 0.0000001, "y": 662410.5712, "x": 0.30000000000000004}'))).toBe(canonicalJson(v));
+    expect(canonicalJson(JSON.parse('{"z": 0.0000001, "y": 662410.5712, "x": 0.30000000000000004}'))).toBe(
+      canonicalJson(v),
+    );
   });
 });
 
 describe("sha256Hex", () => {
-  it("sha256Hex -- FIPS 180-2 example: \"abc\"", () => {
+  it('sha256Hex -- FIPS 180-2 example: "abc"', () => {
     // FIPS 180-2 Appendix B.1
     expect(sha256Hex("abc")).toBe("ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
   });

@@ -40,7 +40,9 @@ function write(v: unknown, path: string): string {
   const withJson = v as { toJSON?: () => unknown };
   if (typeof withJson.toJSON === "function") return write(withJson.toJSON(), path);
   const obj = v as Record<string, unknown>;
-  const keys = Object.keys(obj).filter((k) => obj[k] !== undefined && typeof obj[k] !== "function").sort(compareCodeUnits);
+  const keys = Object.keys(obj)
+    .filter((k) => obj[k] !== undefined && typeof obj[k] !== "function")
+    .sort(compareCodeUnits);
   return `{${keys.map((k) => `${JSON.stringify(k)}:${write(obj[k], `${path}.${k}`)}`).join(",")}}`;
 }
 

@@ -37,7 +37,14 @@ export interface ChecklistInput {
 /** What is stored with the sign-off: every confirmation with the figures the signer saw. */
 export interface ChecklistRecord {
   checkpoints: { confirmed: true; pairs: number; required: number };
-  instrument: { confirmed: true; precisionMm: number; source: "survey file" | "signer"; tightestLimitMm: number; ratio: number; requiredRatio: number };
+  instrument: {
+    confirmed: true;
+    precisionMm: number;
+    source: "survey file" | "signer";
+    tightestLimitMm: number;
+    ratio: number;
+    requiredRatio: number;
+  };
   controlMark: { confirmed: true; note: string | null };
   profileFits: { confirmed: true; profile: string; operation: string };
 }
@@ -50,7 +57,11 @@ export interface ChecklistIssue {
 const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;
 
 /** The tightest of the profile's limits, metres. */
-export function tightestLimit(p: { radialM: number | null; crossM: number | null; alongM: number | null }): number | null {
+export function tightestLimit(p: {
+  radialM: number | null;
+  crossM: number | null;
+  alongM: number | null;
+}): number | null {
   const limits = [p.radialM, p.crossM, p.alongM].filter((x): x is number => x !== null && Number.isFinite(x) && x > 0);
   return limits.length ? Math.min(...limits) : null;
 }
@@ -62,30 +73,70 @@ export function tightestLimit(p: { radialM: number | null; crossM: number | null
  *
  * @example evaluateChecklist(ctx, { checkpoints: true, instrument: true, controlMark: true, profileFits: true })
  */
-export function evaluateChecklist(ctx: ChecklistContext, input: ChecklistInput): { ok: true; record: ChecklistRecord } | { ok: false; issues: ChecklistIssue[] } {
+export function evaluateChecklist(
+  ctx: ChecklistContext,
+  input: ChecklistInput,
+): { ok: true; record: ChecklistRecord } | { ok: false; issues: ChecklistIssue[] } {
   const issues: ChecklistIssue[] = [];
-  if (!input.checkpoints) issues.push({ path: ["checklist", "checkpoints"], message: "Confirm that there are enough checkpoints for this profile." });
+  if (!input.checkpoints)
+    issues.push({
+      path: ["checklist", "checkpoints"],
+      message: "Confirm that there are enough checkpoints for this profile.",
+    });
   else if (ctx.pairs < ctx.minCheckpoints) {
-    issues.push({ path: ["checklist", "checkpoints"], message: `Only ${ctx.pairs} checkpoints were paired; the profile asks for at least ${ctx.minCheckpoints}. Return the audit for more checkpoints instead.` });
+    issues.push({
+      path: ["checklist", "checkpoints"],
+      message: `Only ${ctx.pairs} checkpoints were paired; the profile asks for at least ${ctx.minCheckpoints}. Return the audit for more checkpoints instead.`,
+    });
   }
 
   const precisionM = ctx.filePrecisionM ?? (input.instrumentPrecisionMm ? input.instrumentPrecisionMm / 1000 : null);
   const source: "survey file" | "signer" = ctx.filePrecisionM !== null ? "survey file" : "signer";
   let instrument: ChecklistRecord["instrument"] | null = null;
-  if (!input.instrument) issues.push({ path: ["checklist", "instrument"], message: "Confirm that the survey instrument is precise enough for the tolerance." });
-  else if (ctx.tightestLimitM === null) issues.push({ path: ["checklist", "instrument"], message: "The profile sets no limit to compare the instrument with." });
+  if (!input.instrument)
+    issues.push({
+      path: ["checklist", "instrument"],
+      message: "Confirm that the survey instrument is precise enough for the tolerance.",
+    });
+  else if (ctx.tightestLimitM === null)
+    issues.push({
+      path: ["checklist", "instrument"],
+      message: "The profile sets no limit to compare the instrument with.",
+    });
   else if (precisionM === null || !(precisionM > 0)) {
-    issues.push({ path: ["checklist", "instrumentPrecisionMm"], message: "The survey file states no precision: enter the instrument's stated horizontal precision in millimetres." });
+    issues.push({
+      path: ["checklist", "instrumentPrecisionMm"],
+      message:
+        "The survey file states no precision: enter the instrument's stated horizontal precision in millimetres.",
+    });
   } else {
     const ratio = ctx.tightestLimitM / precisionM;
     if (ratio < INSTRUMENT_RATIO) {
-      issues.push({ path: ["checklist", "instrumentPrecisionMm"], message: `A survey precision of ${mm(precisionM)} is only ${ratio.toFixed(1)} times finer than the tightest limit (${mm(ctx.tightestLimitM)}); at least ${INSTRUMENT_RATIO} times is needed, i.e. ${mm(ctx.tightestLimitM / INSTRUMENT_RATIO)} or better.` });
+      issues.push({
+        path: ["checklist", "instrumentPrecisionMm"],
+        message: `A survey precision of ${mm(precisionM)} is only ${ratio.toFixed(1)} times finer than the tightest limit (${mm(ctx.tightestLimitM)}); at least ${INSTRUMENT_RATIO} times is needed, i.e. ${mm(ctx.tightestLimitM / INSTRUMENT_RATIO)} or better.`,
+      });
     } else {
-      instrument = { confirmed: true, precisionMm: round(precisionM * 1000, 3), source, tightestLimitMm: round(ctx.tightestLimitM * 1000, 3), ratio: round(ratio, 2), requiredRatio: INSTRUMENT_RATIO };
+      instrument = {
+        confirmed: true,
+        precisionMm: round(precisionM * 1000, 3),
+        source,
+        tightestLimitMm: round(ctx.tightestLimitM * 1000, 3),
+        ratio: round(ratio, 2),
+        requiredRatio: INSTRUMENT_RATIO,
+      };
     }
   }
-  if (!input.controlMark) issues.push({ path: ["checklist", "controlMark"], message: "Confirm that the control mark was checked before the survey." });
-  if (!input.profileFits) issues.push({ path: ["checklist", "profileFits"], message: `Confirm that "${ctx.profileName}" is the right profile for the next operation.` });
+  if (!input.controlMark)
+    issues.push({
+      path: ["checklist", "controlMark"],
+      message: "Confirm that the control mark was checked before the survey.",
+    });
+  if (!input.profileFits)
+    issues.push({
+      path: ["checklist", "profileFits"],
+      message: `Confirm that "${ctx.profileName}" is the right profile for the next operation.`,
+    });
 
   if (issues.length || !instrument) return { ok: false, issues };
   const note = input.controlMarkNote?.trim() || null;
@@ -103,7 +154,9 @@ export function evaluateChecklist(ctx: ChecklistContext, input: ChecklistInput):
 /** The median of the finite values, or null. */
 export function medianFinite(values: ArrayLike<number> | null): number | null {
   if (!values) return null;
-  const v = Array.from(values).filter((x) => Number.isFinite(x)).sort((a, b) => a - b);
+  const v = Array.from(values)
+    .filter((x) => Number.isFinite(x))
+    .sort((a, b) => a - b);
   if (v.length === 0) return null;
   const mid = v.length >> 1;
   return v.length % 2 ? v[mid] : (v[mid - 1] + v[mid]) / 2;

@@ -35,7 +35,8 @@ function walk(a: unknown, b: unknown, path: string, out: JsonDifference[], limit
     for (let i = 0; i < Math.min(a.length, b.length); i++) walk(a[i], b[i], `${path}[${i}]`, out, limit);
     return;
   }
-  const ao = a as Record<string, unknown>, bo = b as Record<string, unknown>;
+  const ao = a as Record<string, unknown>,
+    bo = b as Record<string, unknown>;
   const keys = [...new Set([...Object.keys(ao), ...Object.keys(bo)])].sort();
   for (const k of keys) walk(ao[k], bo[k], path ? `${path}.${k}` : k, out, limit);
 }

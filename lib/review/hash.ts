@@ -13,7 +13,11 @@ export function sha256Hex(data: string | Uint8Array): string {
 export function sha256Stream(): { update(text: string): void; hex(): string } {
   const h: Hash = createHash("sha256");
   return {
-    update(text: string) { h.update(text, "utf8"); },
-    hex() { return h.digest("hex"); },
+    update(text: string) {
+      h.update(text, "utf8");
+    },
+    hex() {
+      return h.digest("hex");
+    },
   };
 }

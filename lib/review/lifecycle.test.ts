@@ -27,7 +27,8 @@ describe("lifecycle", () => {
   });
 
   it("canTransition -- a grower never changes anything", () => {
-    for (const from of AUDIT_STATES) for (const to of AUDIT_STATES) expect(canTransition("grower", from, to)).toBe(false);
+    for (const from of AUDIT_STATES)
+      for (const to of AUDIT_STATES) expect(canTransition("grower", from, to)).toBe(false);
   });
 
   it("allowedActions -- what each role sees on a submitted audit", () => {
@@ -40,7 +41,10 @@ describe("lifecycle", () => {
   it("refusal -- the role is judged before the state (403), then the state (409)", () => {
     expect(refusal("technician", "signed_off", "sign_off")?.status).toBe(403);
     expect(refusal("grower", "computed", "submit")?.status).toBe(403);
-    expect(refusal("qa_lead", "computed", "sign_off")).toEqual({ status: 409, message: "Sign off is only possible when the audit is waiting for sign-off; it is computed, not yet submitted." });
+    expect(refusal("qa_lead", "computed", "sign_off")).toEqual({
+      status: 409,
+      message: "Sign off is only possible when the audit is waiting for sign-off; it is computed, not yet submitted.",
+    });
     expect(refusal("owner", "signed_off", "return")?.message).toMatch(/signed off.*can no longer be changed/);
     expect(refusal("technician", "returned", "revise", { hasRevision: true })?.status).toBe(409);
     expect(refusal("technician", "returned", "revise")).toBeNull();

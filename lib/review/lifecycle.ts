@@ -73,16 +73,28 @@ export function allowedActions(role: Role, state: LifecycleState): ReviewAction[
  * state (409) — a role that may never take the action learns nothing about the audit's state.
  * `hasRevision`: a returned audit that already has a corrected revision cannot be revised twice.
  */
-export function refusal(role: Role, state: LifecycleState, action: ReviewAction, opts: { hasRevision?: boolean } = {}): { status: 403 | 409; message: string } | null {
+export function refusal(
+  role: Role,
+  state: LifecycleState,
+  action: ReviewAction,
+  opts: { hasRevision?: boolean } = {},
+): { status: 403 | 409; message: string } | null {
   const t = transitionOf(action);
   if (!t.roles.includes(role)) {
     return { status: 403, message: `${ACTION_NAME[action]} needs the ${t.roles.map(roleWord).join(" or ")} role.` };
   }
   if (state === "signed_off") {
-    return { status: 409, message: "This audit is signed off. A signed-off audit, its files and its results can no longer be changed; run a new audit if the field needs checking again." };
+    return {
+      status: 409,
+      message:
+        "This audit is signed off. A signed-off audit, its files and its results can no longer be changed; run a new audit if the field needs checking again.",
+    };
   }
   if (state !== t.from) {
-    return { status: 409, message: `${ACTION_NAME[action]} is only possible when the audit is ${STATE_NAME[t.from].toLowerCase()}; it is ${STATE_NAME[state].toLowerCase()}.` };
+    return {
+      status: 409,
+      message: `${ACTION_NAME[action]} is only possible when the audit is ${STATE_NAME[t.from].toLowerCase()}; it is ${STATE_NAME[state].toLowerCase()}.`,
+    };
   }
   if (action === "revise" && opts.hasRevision) {
     return { status: 409, message: "This returned audit already has a corrected revision; continue with that one." };

@@ -2,9 +2,28 @@ import { describe, expect, it } from "vitest";
 import { buildRecord, hashRecord, residualDigest, type ResidualRecordRow } from "./record";
 
 const row = (seq: number, dE: number): ResidualRecordRow => ({
-  seq, plantId: `LA-${seq}`, surveyId: `LA-${seq}`, crop: "lettuce", bed: "1", row: "1", arm: "1", fix: "rtk-fixed", day: "2026-04-14",
-  plantedE: 662410 + seq, plantedN: 5821330, surveyE: 662410 + seq + dE, surveyN: 5821330, dE, dN: 0, along: dE, cross: 0, radial: Math.abs(dE),
-  within: true, outlier: false, pairedBy: "id", beyondMaxDistance: false,
+  seq,
+  plantId: `LA-${seq}`,
+  surveyId: `LA-${seq}`,
+  crop: "lettuce",
+  bed: "1",
+  row: "1",
+  arm: "1",
+  fix: "rtk-fixed",
+  day: "2026-04-14",
+  plantedE: 662410 + seq,
+  plantedN: 5821330,
+  surveyE: 662410 + seq + dE,
+  surveyN: 5821330,
+  dE,
+  dN: 0,
+  along: dE,
+  cross: 0,
+  radial: Math.abs(dE),
+  within: true,
+  outlier: false,
+  pairedBy: "id",
+  beyondMaxDistance: false,
 });
 
 describe("record", () => {
@@ -25,15 +44,58 @@ describe("record", () => {
   it("hashRecord -- the hash is over the canonical text, and any signed field changes it", () => {
     const parts = {
       audit: { id: "a", revision: 1, revisionOf: null, title: "t", fieldId: "f" },
-      inputs: { planted: { datasetId: "p", kind: "planted", fileName: "p.csv", sha256: "00", sizeBytes: 1, rowCount: 1, crs: "EPSG:4326", format: "csv", mapping: {} },
-        survey: { datasetId: "s", kind: "survey", fileName: "s.csv", sha256: "11", sizeBytes: 1, rowCount: 1, crs: "EPSG:25831", format: "csv", mapping: {} }, settings: {}, profile: {} },
-      results: { summary: { pairs: 3 }, verdict: { passed: true, criteria: [] }, residuals: residualDigest([]), unpaired: residualDigest([]), reports: {} },
-      signoff: { signerId: "u", signerName: "Idris Coombe", signerRole: "qa_lead", typedName: "Idris Coombe", checklist: {}, comment: null, deviation: false, signedAt: "2026-05-01T10:00:00.000Z" },
+      inputs: {
+        planted: {
+          datasetId: "p",
+          kind: "planted",
+          fileName: "p.csv",
+          sha256: "00",
+          sizeBytes: 1,
+          rowCount: 1,
+          crs: "EPSG:4326",
+          format: "csv",
+          mapping: {},
+        },
+        survey: {
+          datasetId: "s",
+          kind: "survey",
+          fileName: "s.csv",
+          sha256: "11",
+          sizeBytes: 1,
+          rowCount: 1,
+          crs: "EPSG:25831",
+          format: "csv",
+          mapping: {},
+        },
+        settings: {},
+        profile: {},
+      },
+      results: {
+        summary: { pairs: 3 },
+        verdict: { passed: true, criteria: [] },
+        residuals: residualDigest([]),
+        unpaired: residualDigest([]),
+        reports: {},
+      },
+      signoff: {
+        signerId: "u",
+        signerName: "Idris Coombe",
+        signerRole: "qa_lead",
+        typedName: "Idris Coombe",
+        checklist: {},
+        comment: null,
+        deviation: false,
+        signedAt: "2026-05-01T10:00:00.000Z",
+      },
     };
     const h = hashRecord(buildRecord(parts));
     expect(h.canonical.startsWith('{"audit":{"fieldId":"f","id":"a"')).toBe(true);
     expect(h.sha256).toMatch(/^[0-9a-f]{64}$/);
-    expect(hashRecord(buildRecord({ ...parts, signoff: { ...parts.signoff, typedName: "Someone Else" } })).sha256).not.toBe(h.sha256);
-    expect(hashRecord(buildRecord({ ...parts, results: { ...parts.results, summary: { pairs: 4 } } })).sha256).not.toBe(h.sha256);
+    expect(
+      hashRecord(buildRecord({ ...parts, signoff: { ...parts.signoff, typedName: "Someone Else" } })).sha256,
+    ).not.toBe(h.sha256);
+    expect(hashRecord(buildRecord({ ...parts, results: { ...parts.results, summary: { pairs: 4 } } })).sha256).not.toBe(
+      h.sha256,
+    );
   });
 });

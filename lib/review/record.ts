@@ -21,11 +21,41 @@ export type ResidualRecordRow = Omit<ResidualRowDto, "pairedBy"> & { pairedBy: s
 export type UnpairedRecordRow = Omit<UnpairedRowDto, "kind"> & { kind: string };
 
 const RESIDUAL_COLUMNS = [
-  "seq", "plantId", "surveyId", "crop", "bed", "row", "arm", "fix", "day", "plantedE", "plantedN", "surveyE", "surveyN",
-  "dE", "dN", "along", "cross", "radial", "within", "outlier", "pairedBy", "beyondMaxDistance",
+  "seq",
+  "plantId",
+  "surveyId",
+  "crop",
+  "bed",
+  "row",
+  "arm",
+  "fix",
+  "day",
+  "plantedE",
+  "plantedN",
+  "surveyE",
+  "surveyN",
+  "dE",
+  "dN",
+  "along",
+  "cross",
+  "radial",
+  "within",
+  "outlier",
+  "pairedBy",
+  "beyondMaxDistance",
 ] as const satisfies readonly (keyof ResidualRecordRow)[];
 
-const UNPAIRED_COLUMNS = ["seq", "kind", "pointId", "line", "e", "n", "crop", "bed", "row"] as const satisfies readonly (keyof UnpairedRecordRow)[];
+const UNPAIRED_COLUMNS = [
+  "seq",
+  "kind",
+  "pointId",
+  "line",
+  "e",
+  "n",
+  "crop",
+  "bed",
+  "row",
+] as const satisfies readonly (keyof UnpairedRecordRow)[];
 
 export interface RowsDigest {
   count: number;
@@ -103,8 +133,11 @@ export function hashRecord(record: SignedRecord): { canonical: string; sha256: s
   return { canonical, sha256: sha256Hex(canonical) };
 }
 
-export function reportHashes(reports: Partial<Record<"residuals" | "unpaired" | "summary", Uint8Array | null>>): Record<string, string | null> {
+export function reportHashes(
+  reports: Partial<Record<"residuals" | "unpaired" | "summary", Uint8Array | null>>,
+): Record<string, string | null> {
   const out: Record<string, string | null> = {};
-  for (const kind of ["residuals", "unpaired", "summary"] as const) out[kind] = reports[kind] ? sha256Hex(reports[kind]!) : null;
+  for (const kind of ["residuals", "unpaired", "summary"] as const)
+    out[kind] = reports[kind] ? sha256Hex(reports[kind]!) : null;
   return out;
 }

@@ -62,7 +62,14 @@ export interface ReviewDto {
 }
 
 export interface VerificationCheckDto {
-  id: "record" | "raw-files" | "stored-points" | "stored-results" | "recomputed-results" | "stored-hash" | "recomputed-hash";
+  id:
+    | "record"
+    | "raw-files"
+    | "stored-points"
+    | "stored-results"
+    | "recomputed-results"
+    | "stored-hash"
+    | "recomputed-hash";
   ok: boolean;
   label: string;
   /** What was found, in plain words. */

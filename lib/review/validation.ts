@@ -11,7 +11,12 @@ export const SignoffInput = z.object({
   checklist: z.object({
     checkpoints: z.boolean(),
     instrument: z.boolean(),
-    instrumentPrecisionMm: z.number().positive("Must be more than 0 mm.").max(1000, "At most 1000 mm.").nullable().optional(),
+    instrumentPrecisionMm: z
+      .number()
+      .positive("Must be more than 0 mm.")
+      .max(1000, "At most 1000 mm.")
+      .nullable()
+      .optional(),
     controlMark: z.boolean(),
     controlMarkNote: z.string().trim().max(300, "Keep it under 300 characters.").nullable().optional(),
     profileFits: z.boolean(),
@@ -26,7 +31,11 @@ export const DEVIATION_COMMENT_MIN = 10;
 
 export const ReturnInput = z.object({
   reasons: z.array(z.enum(RETURN_REASON_CODES)).min(1, "Pick at least one reason.").max(RETURN_REASON_CODES.length),
-  comment: z.string().trim().min(10, "Say what needs correcting (at least 10 characters).").max(2000, "Keep the comment under 2,000 characters."),
+  comment: z
+    .string()
+    .trim()
+    .min(10, "Say what needs correcting (at least 10 characters).")
+    .max(2000, "Keep the comment under 2,000 characters."),
 });
 export type ReturnInput = z.infer<typeof ReturnInput>;
 
@@ -36,7 +45,11 @@ export const ReviseInput = z.object({
   surveyDatasetId: z.uuid().optional(),
   profileId: z.uuid().optional(),
   match: z.enum(["auto", "id", "nearest"]).optional(),
-  maxDistanceM: z.number().positive().max(5, "Pairing by position farther than 5 m would pair unrelated plants.").optional(),
+  maxDistanceM: z
+    .number()
+    .positive()
+    .max(5, "Pairing by position farther than 5 m would pair unrelated plants.")
+    .optional(),
   rowBearingDeg: z.number().min(0).max(360).nullable().optional(),
   title: z.string().trim().min(1).max(120).optional(),
 });

@@ -20,12 +20,15 @@ export async function deriveFieldSuggestions(field: FieldDto, orgId: string): Pr
   try {
     const fieldCrs = resolveCrs(field.crs);
     if (fieldCrs.kind === "projected") work = fieldCrs;
-  } catch { /* keep the UTM zone */ }
+  } catch {
+    /* keep the UTM zone */
+  }
   const bearing = deriveRowBearing(projectTable(loaded.table, from, work));
   // Boundary: convex hull of the records in lon/lat (every k-th point for very large files).
   const step = Math.max(1, Math.ceil(loaded.table.length / MAX_HULL_POINTS));
   const pts = [];
-  const geographic = from.kind === "geographic" ? null : convertArrays(loaded.table.x, loaded.table.y, from, "EPSG:4326");
+  const geographic =
+    from.kind === "geographic" ? null : convertArrays(loaded.table.x, loaded.table.y, from, "EPSG:4326");
   for (let i = 0; i < loaded.table.length; i += step) {
     const x = geographic ? geographic[0][i] : loaded.table.x[i];
     const y = geographic ? geographic[1][i] : loaded.table.y[i];

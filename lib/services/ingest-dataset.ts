@@ -1,8 +1,17 @@
 import "server-only";
 import crypto from "node:crypto";
 import {
-  COLUMN_ROLES, centreLonLat, formatFromName, readPoints, resolveCrs, utmFor, validateTable, hasErrors,
-  type ColumnMapping, type CrsEntry, type InputIssue,
+  COLUMN_ROLES,
+  centreLonLat,
+  formatFromName,
+  readPoints,
+  resolveCrs,
+  utmFor,
+  validateTable,
+  hasErrors,
+  type ColumnMapping,
+  type CrsEntry,
+  type InputIssue,
 } from "@/geo";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
@@ -47,14 +56,28 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   const field = await getFieldById(db, { id: r.fieldId, orgId: r.viewer.orgId });
   if (!field) throw notFound("Field");
   if (r.bytes.byteLength === 0) {
-    throw new AppError("invalid_file", `${r.fileName} is empty.`, [{ severity: "error", code: "file-empty", file: r.fileName, message: "the file is empty: expected a header line and one row per point" }]);
+    throw new AppError("invalid_file", `${r.fileName} is empty.`, [
+      {
+        severity: "error",
+        code: "file-empty",
+        file: r.fileName,
+        message: "the file is empty: expected a header line and one row per point",
+      },
+    ]);
   }
 
   const format = formatFromName(r.fileName);
   progress("reading", 0);
-  const read = await readPoints(slices(r.bytes, (f) => progress("reading", f)), {
-    source: r.fileName, role: r.kind, mapping: r.mapping, timeZone: field.timeZone, format,
-  });
+  const read = await readPoints(
+    slices(r.bytes, (f) => progress("reading", f)),
+    {
+      source: r.fileName,
+      role: r.kind,
+      mapping: r.mapping,
+      timeZone: field.timeZone,
+      format,
+    },
+  );
   const issues: InputIssue[] = [...read.issues];
   if (!read.table || hasErrors(issues)) throw fileError(r.fileName, issues);
 
@@ -70,30 +93,59 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   if (hasErrors(issues)) throw fileError(r.fileName, issues);
   const warnings = issues.filter((i) => i.severity === "warning");
   if (warnings.length > 0 && !r.acceptWarnings) {
-    throw new AppError("warnings_unaccepted", `${r.fileName} has ${warnings.length} warning(s) to read before it can be saved.`, warnings);
+    throw new AppError(
+      "warnings_unaccepted",
+      `${r.fileName} has ${warnings.length} warning(s) to read before it can be saved.`,
+      warnings,
+    );
   }
   progress("checking", 1);
 
   progress("saving", 0);
   // Roles the uploader said are not in the file stay null, so reading the file again (review) or a preset made
   // from it does not guess them back.
-  const notInFile = Object.fromEntries(COLUMN_ROLES.filter((role) => r.mapping?.[role] === null).map((role) => [role, null]));
-  const mapping: ColumnMapping = { ...notInFile, ...read.columns.columns, ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}) };
+  const notInFile = Object.fromEntries(
+    COLUMN_ROLES.filter((role) => r.mapping?.[role] === null).map((role) => [role, null]),
+  );
+  const mapping: ColumnMapping = {
+    ...notInFile,
+    ...read.columns.columns,
+    ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}),
+  };
   const sha256 = crypto.createHash("sha256").update(r.bytes).digest("hex");
   const saved = await createDataset(db, {
-    orgId: r.viewer.orgId, fieldId: field.id, userId: r.viewer.userId, kind: r.kind, fileName: r.fileName, format,
+    orgId: r.viewer.orgId,
+    fieldId: field.id,
+    userId: r.viewer.userId,
+    kind: r.kind,
+    fileName: r.fileName,
+    format,
     contentType: r.contentType || (format === "geojson" ? "application/geo+json" : "text/csv"),
-    bytes: r.bytes, sha256, crs: crs.code === "custom" ? crsSpec : crs.code, mapping, acceptedWarnings: warnings, table: read.table,
+    bytes: r.bytes,
+    sha256,
+    crs: crs.code === "custom" ? crsSpec : crs.code,
+    mapping,
+    acceptedWarnings: warnings,
+    table: read.table,
     presetName: r.presetName,
   });
   progress("saving", 1);
   const [lon, lat] = centreLonLat(read.table, crs);
-  return { dataset: saved, warnings, columns: read.columns, suggestedCrs: Number.isFinite(lon) && Number.isFinite(lat) ? utmFor(lon, lat).code : null };
+  return {
+    dataset: saved,
+    warnings,
+    columns: read.columns,
+    suggestedCrs: Number.isFinite(lon) && Number.isFinite(lat) ? utmFor(lon, lat).code : null,
+  };
 }
 
 function fileError(fileName: string, issues: InputIssue[]): AppError {
   const errors = issues.filter((i) => i.severity === "error");
   const first = errors[0];
   const where = first?.line ? ` (line ${first.line}${first.column ? `, column ${first.column}` : ""})` : "";
-  return new AppError("invalid_file", `${fileName} cannot be used: ${errors.length} error(s), first${where}: ${first?.message ?? "unknown"}. Nothing was saved.`, issues);
+  return new AppError(
+    "invalid_file",
+    `${fileName} cannot be used: ${errors.length} error(s), first${where}: ${first?.message ?? "unknown"}. Nothing was saved.`,
+    issues,
+  );
 }

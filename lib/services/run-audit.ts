@@ -8,7 +8,12 @@ import { getFieldById } from "@/db/queries/fields";
 import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
 import { getProfileById } from "@/db/queries/profiles";
 import {
-  createAudit, failAudit, getAuditById, setAuditProgress, storeAuditResult, type RowBatch,
+  createAudit,
+  failAudit,
+  getAuditById,
+  setAuditProgress,
+  storeAuditResult,
+  type RowBatch,
 } from "@/db/queries/audits";
 import { AppError, notFound } from "@/lib/errors";
 import type { AuditDto, AuditSettingsDto } from "@/lib/api-types";
@@ -19,7 +24,11 @@ import type { Viewer } from "@/lib/access";
  * Check the request, create the audit ("computing") and start the computation in the background.
  * Returns the new audit; `wait` resolves only when the computation has finished (for scripts and tests).
  */
-export async function startAudit(viewer: Viewer, input: AuditCreateInput, opts: { wait?: boolean } = {}): Promise<AuditDto> {
+export async function startAudit(
+  viewer: Viewer,
+  input: AuditCreateInput,
+  opts: { wait?: boolean } = {},
+): Promise<AuditDto> {
   const db = await getDb();
   const orgId = viewer.orgId;
   const field = await getFieldById(db, { id: input.fieldId, orgId });
@@ -29,10 +38,17 @@ export async function startAudit(viewer: Viewer, input: AuditCreateInput, opts: 
     getDatasetById(db, { id: input.surveyDatasetId, orgId }),
   ]);
   const issues: { path: string[]; message: string }[] = [];
-  if (!planted || planted.fieldId !== field.id) issues.push({ path: ["plantedDatasetId"], message: "No such as-planted dataset in this field." });
-  else if (planted.kind !== "planted") issues.push({ path: ["plantedDatasetId"], message: `${planted.fileName} is a survey file, not as-planted records.` });
-  if (!survey || survey.fieldId !== field.id) issues.push({ path: ["surveyDatasetId"], message: "No such survey dataset in this field." });
-  else if (survey.kind !== "survey") issues.push({ path: ["surveyDatasetId"], message: `${survey.fileName} is as-planted records, not a survey file.` });
+  if (!planted || planted.fieldId !== field.id)
+    issues.push({ path: ["plantedDatasetId"], message: "No such as-planted dataset in this field." });
+  else if (planted.kind !== "planted")
+    issues.push({
+      path: ["plantedDatasetId"],
+      message: `${planted.fileName} is a survey file, not as-planted records.`,
+    });
+  if (!survey || survey.fieldId !== field.id)
+    issues.push({ path: ["surveyDatasetId"], message: "No such survey dataset in this field." });
+  else if (survey.kind !== "survey")
+    issues.push({ path: ["surveyDatasetId"], message: `${survey.fileName} is as-planted records, not a survey file.` });
   const profile = await getProfileById(db, { id: input.profileId, orgId });
   if (!profile) issues.push({ path: ["profileId"], message: "No such tolerance profile." });
   if (issues.length) throw new AppError("invalid_input", issues.map((i) => i.message).join(" "), issues);
@@ -44,13 +60,22 @@ export async function startAudit(viewer: Viewer, input: AuditCreateInput, opts: 
     workCrs = "auto";
   }
   const settings: AuditSettingsDto = {
-    match: input.match, maxDistanceM: input.maxDistanceM,
-    rowBearingDeg: input.rowBearingDeg ?? field.rowBearingDeg ?? null, timeZone: field.timeZone, workCrs,
+    match: input.match,
+    maxDistanceM: input.maxDistanceM,
+    rowBearingDeg: input.rowBearingDeg ?? field.rowBearingDeg ?? null,
+    timeZone: field.timeZone,
+    workCrs,
   };
   const { builtIn: _b, note: _n, updatedAt: _u, ...snapshot } = profile!;
   const id = await createAudit(db, {
-    orgId, userId: viewer.userId, fieldId: field.id, plantedDatasetId: planted!.id, surveyDatasetId: survey!.id,
-    profileId: profile!.id, profileSnapshot: snapshot, settings,
+    orgId,
+    userId: viewer.userId,
+    fieldId: field.id,
+    plantedDatasetId: planted!.id,
+    surveyDatasetId: survey!.id,
+    profileId: profile!.id,
+    profileSnapshot: snapshot,
+    settings,
     title: input.title ?? `${field.name} — ${profile!.name}`,
   });
   const run = computeStoredAudit(db, { id, orgId });
@@ -61,7 +86,12 @@ export async function startAudit(viewer: Viewer, input: AuditCreateInput, opts: 
 
 /** Progress shown while each stage runs (saving then moves from 0.5 to 0.95 with the rows stored). */
 const STAGE_PROGRESS: Record<ComputeStage, number> = {
-  validate: 0.15, project: 0.2, "check-files": 0.25, pair: 0.3, "row-bearing": 0.4, statistics: 0.42,
+  validate: 0.15,
+  project: 0.2,
+  "check-files": 0.25,
+  pair: 0.3,
+  "row-bearing": 0.4,
+  statistics: 0.42,
 };
 
 /**
@@ -73,7 +103,8 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
   let job: AuditWorkerJob | null = null;
   try {
     const auditRow = await getAuditById(db, { id, orgId });
-    if (!auditRow || !auditRow.planted || !auditRow.survey || !auditRow.settings || !auditRow.profile) throw new Error("audit inputs are missing");
+    if (!auditRow || !auditRow.planted || !auditRow.survey || !auditRow.settings || !auditRow.profile)
+      throw new Error("audit inputs are missing");
     await setAuditProgress(db, { id, progress: 0.05, stage: "loading" });
     const [planted, survey] = await Promise.all([
       loadDatasetPoints(db, { id: auditRow.planted.id, orgId }),
@@ -82,8 +113,12 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
     if (!planted || !survey) throw new Error("a dataset of this audit has no stored points");
     await setAuditProgress(db, { id, progress: 0.1, stage: "computing" });
     const worker = await startAuditWorker({
-      planted: planted.table, plantedCrs: planted.dto.crs, survey: survey.table, surveyCrs: survey.dto.crs,
-      settings: auditRow.settings, profile: auditRow.profile,
+      planted: planted.table,
+      plantedCrs: planted.dto.crs,
+      survey: survey.table,
+      surveyCrs: survey.dto.crs,
+      settings: auditRow.settings,
+      profile: auditRow.profile,
     });
     job = worker;
     const messages = worker.messages;
@@ -96,11 +131,22 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
 
     let m = await next();
     while (m.type === "stage") {
-      await setAuditProgress(db, { id, progress: STAGE_PROGRESS[m.stage], stage: m.stage === "statistics" ? "statistics" : "pairing" });
+      await setAuditProgress(db, {
+        id,
+        progress: STAGE_PROGRESS[m.stage],
+        stage: m.stage === "statistics" ? "statistics" : "pairing",
+      });
       m = await next();
     }
     if (m.type === "refused") {
-      await failAudit(db, { id, orgId, error: m.errors.map((e) => `${e.file}${e.line ? ` line ${e.line}` : ""}: ${e.message}`).slice(0, 5).join("; ") });
+      await failAudit(db, {
+        id,
+        orgId,
+        error: m.errors
+          .map((e) => `${e.file}${e.line ? ` line ${e.line}` : ""}: ${e.message}`)
+          .slice(0, 5)
+          .join("; "),
+      });
       return;
     }
     if (m.type !== "computed") throw new Error(`the audit worker sent "${m.type}" before its result`);
@@ -112,14 +158,20 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
         const b = await next();
         if (b.type === "done") return;
         if (b.type === "residuals") yield { kind: "residual", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
-        else if (b.type === "unpaired") yield { kind: "unpaired", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
+        else if (b.type === "unpaired")
+          yield { kind: "unpaired", rows: b.rows.map((row) => ({ auditId: id, ...row })) };
         else throw new Error(`the audit worker sent "${b.type}" among the rows`);
       }
     }
     await storeAuditResult(db, {
-      id, orgId, summary: computed.summary, verdict: computed.verdict, settings: computed.settings,
+      id,
+      orgId,
+      summary: computed.summary,
+      verdict: computed.verdict,
+      settings: computed.settings,
       // Rows come from the same builders verification uses, so stored and re-computed rows cannot drift apart.
-      rows: rows(), total: computed.residualCount + computed.unpairedCount,
+      rows: rows(),
+      total: computed.residualCount + computed.unpairedCount,
       reports: computed.reports,
       onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
     });

@@ -8,7 +8,11 @@ export const AuditCreateInput = z.object({
   profileId: z.uuid(),
   title: z.string().trim().min(1).max(120).optional(),
   match: z.enum(["auto", "id", "nearest"]).default("auto"),
-  maxDistanceM: z.number().positive().max(5, "Pairing by position farther than 5 m would pair unrelated plants.").default(0.1),
+  maxDistanceM: z
+    .number()
+    .positive()
+    .max(5, "Pairing by position farther than 5 m would pair unrelated plants.")
+    .default(0.1),
   rowBearingDeg: z.number().min(0).max(360).nullable().optional(),
 });
 export type AuditCreateInput = z.infer<typeof AuditCreateInput>;

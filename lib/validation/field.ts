@@ -12,8 +12,13 @@ function isIanaZone(zone: string): boolean {
 }
 
 const position = z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90)]);
-const ring = z.array(position).min(4, "A boundary ring needs at least 4 positions (first = last).")
-  .refine((r) => r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1], "A boundary ring must end where it starts.");
+const ring = z
+  .array(position)
+  .min(4, "A boundary ring needs at least 4 positions (first = last).")
+  .refine(
+    (r) => r[0][0] === r[r.length - 1][0] && r[0][1] === r[r.length - 1][1],
+    "A boundary ring must end where it starts.",
+  );
 
 /** Field boundary: a GeoJSON Polygon in WGS 84 longitude/latitude. */
 export const BoundarySchema = z.object({ type: z.literal("Polygon"), coordinates: z.array(ring).min(1) });
@@ -22,7 +27,10 @@ export const BoundarySchema = z.object({ type: z.literal("Polygon"), coordinates
 export const FieldInput = z.object({
   name: z.string().trim().min(1, "Give the field a name.").max(120),
   farm: z.string().trim().min(1, "Name the farm or site.").max(120),
-  crs: z.string().trim().regex(crsPattern, "Use an EPSG code such as EPSG:25831, or a proj string starting with +proj="),
+  crs: z
+    .string()
+    .trim()
+    .regex(crsPattern, "Use an EPSG code such as EPSG:25831, or a proj string starting with +proj="),
   timeZone: z.string().trim().refine(isIanaZone, "Use an IANA time zone such as Europe/Amsterdam."),
   rowBearingDeg: z.number().min(0).max(180).nullable().default(null),
   bedSpacingM: z.number().positive().max(20).nullable().default(null),

@@ -52,8 +52,15 @@ export function workerBundle(entry: string): Promise<string> {
     mkdirSync(dir, { recursive: true });
     const tmp = `${out}.${process.pid}.tmp`;
     const result = await build({
-      absWorkingDir: root, entryPoints: [entry], bundle: true, platform: "node", format: "cjs", target: "node20",
-      outfile: tmp, metafile: true, logLevel: "silent",
+      absWorkingDir: root,
+      entryPoints: [entry],
+      bundle: true,
+      platform: "node",
+      format: "cjs",
+      target: "node20",
+      outfile: tmp,
+      metafile: true,
+      logLevel: "silent",
     });
     writeFileSync(meta, JSON.stringify(Object.keys(result.metafile.inputs)));
     renameSync(tmp, out);

@@ -12,14 +12,33 @@ const root = path.resolve(import.meta.dirname, "../..");
 const fx = (name: string) => path.join("tests/fixtures/engine", name);
 
 function audit(...args: string[]) {
-  const r = spawnSync(process.execPath, ["--import", "tsx", "lib/cli/audit.ts", ...args], { cwd: root, encoding: "utf8", timeout: 60_000 });
+  const r = spawnSync(process.execPath, ["--import", "tsx", "lib/cli/audit.ts", ...args], {
+    cwd: root,
+    encoding: "utf8",
+    timeout: 60_000,
+  });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
 describe("audit CLI", () => {
   it("audit CLI -- good files: exit 0 and the JSON summary on stdout", () => {
     const out = path.join(mkdtempSync(path.join(tmpdir(), "plotproof-")), "report.csv");
-    const r = audit("--planted", fx("planted-good.csv"), "--survey", fx("survey-good.csv"), "--survey-crs", "EPSG:32632", "--tolerance", "0.02", "--group-by", "arm,day", "--timezone", "Europe/Berlin", "--out", out);
+    const r = audit(
+      "--planted",
+      fx("planted-good.csv"),
+      "--survey",
+      fx("survey-good.csv"),
+      "--survey-crs",
+      "EPSG:32632",
+      "--tolerance",
+      "0.02",
+      "--group-by",
+      "arm,day",
+      "--timezone",
+      "Europe/Berlin",
+      "--out",
+      out,
+    );
     expect(r.stderr).not.toMatch(/^error/m);
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
@@ -44,7 +63,18 @@ describe("audit CLI", () => {
   });
 
   it("audit CLI -- survey with plant ids, semicolons and decimal commas pairs by id", () => {
-    const r = audit("--planted", fx("planted-good.csv"), "--survey", fx("survey-ids-semicolon.csv"), "--survey-crs", "EPSG:25832", "--match", "id", "--row-bearing", "28");
+    const r = audit(
+      "--planted",
+      fx("planted-good.csv"),
+      "--survey",
+      fx("survey-ids-semicolon.csv"),
+      "--survey-crs",
+      "EPSG:25832",
+      "--match",
+      "id",
+      "--row-bearing",
+      "28",
+    );
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
     expect(s.pairs).toBe(25);
@@ -54,22 +84,45 @@ describe("audit CLI", () => {
   });
 
   it("audit CLI -- text in a coordinate column: exit 2 naming file, line 57, column and value", () => {
-    const r = audit("--planted", fx("planted-text-line57.csv"), "--survey", fx("survey-good.csv"), "--survey-crs", "EPSG:32632");
+    const r = audit(
+      "--planted",
+      fx("planted-text-line57.csv"),
+      "--survey",
+      fx("survey-good.csv"),
+      "--survey-crs",
+      "EPSG:32632",
+    );
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
-    expect(r.stderr).toContain(`error ${fx("planted-text-line57.csv")}:57 column "lat" value "fifty-two": expected a number`);
+    expect(r.stderr).toContain(
+      `error ${fx("planted-text-line57.csv")}:57 column "lat" value "fifty-two": expected a number`,
+    );
     expect(r.stderr).toContain("(coordinate-not-numeric)");
   });
 
   it("audit CLI -- swapped latitude/longitude: exit 2, files far apart, columns look swapped", () => {
-    const r = audit("--planted", fx("planted-swapped.csv"), "--survey", fx("survey-good.csv"), "--survey-crs", "EPSG:32632");
+    const r = audit(
+      "--planted",
+      fx("planted-swapped.csv"),
+      "--survey",
+      fx("survey-good.csv"),
+      "--survey-crs",
+      "EPSG:32632",
+    );
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/files-far-apart/);
     expect(r.stderr).toContain(`In ${fx("planted-swapped.csv")} the two coordinate columns look swapped`);
   });
 
   it("audit CLI -- duplicate plant ids: exit 2 listing the lines", () => {
-    const r = audit("--planted", fx("planted-duplicate-ids.csv"), "--survey", fx("survey-good.csv"), "--survey-crs", "EPSG:32632");
+    const r = audit(
+      "--planted",
+      fx("planted-duplicate-ids.csv"),
+      "--survey",
+      fx("survey-good.csv"),
+      "--survey-crs",
+      "EPSG:32632",
+    );
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/plant id "AB-113" appears 2 times, on lines 5, 9/);
     expect(r.stderr).toMatch(/plant id "AB-124" appears 2 times, on lines 12, 13/);

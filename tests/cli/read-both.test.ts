@@ -11,7 +11,7 @@ const dir = mkdtempSync(path.join(tmpdir(), "plotproof-read-"));
 function plantedFile(name: string, rows: number, edit?: (i: number, line: string) => string): string {
   const lines = ["\uFEFFplant_id,crop,bed,row,fix,planted_at,lat,lon"];
   for (let i = 0; i < rows; i++) {
-    const line = `AB-${i},${["leek", "kale", "Möhre"][i % 3]},B${(i / 500) | 0},${(i / 100) % 5 | 0},${i % 7 ? 4 : 5},${i % 11 ? "2025-05-03T08:00:00Z" : "2025-05-03 10:00"},${(52.3 + i * 1e-7).toFixed(9)},${(9.77 + (i % 100) * 3e-6).toFixed(9)}`;
+    const line = `AB-${i},${["leek", "kale", "Möhre"][i % 3]},B${(i / 500) | 0},${((i / 100) % 5) | 0},${i % 7 ? 4 : 5},${i % 11 ? "2025-05-03T08:00:00Z" : "2025-05-03 10:00"},${(52.3 + i * 1e-7).toFixed(9)},${(9.77 + (i % 100) * 3e-6).toFixed(9)}`;
     lines.push(edit ? edit(i, line) : line);
   }
   const p = path.join(dir, name);
@@ -24,7 +24,11 @@ writeFileSync(survey, "easting,northing\n552300.1,5794100.2\n552300.3,5794100.4\
 describe("readBoth", () => {
   it("readBoth -- split across two threads equals a whole read", async () => {
     const planted = plantedFile("p1.csv", 20000, (i, l) => (i % 997 === 0 ? l.replace(/^AB-\d+/, "") : l));
-    const [a, b] = await readBoth({ path: planted, role: "planted" }, { path: survey, role: "survey", format: "csv" }, { parallel: true, splitSlackBytes: 0 });
+    const [a, b] = await readBoth(
+      { path: planted, role: "planted" },
+      { path: survey, role: "survey", format: "csv" },
+      { parallel: true, splitSlackBytes: 0 },
+    );
     const whole = await readFileJob({ path: planted, role: "planted" });
     expect(a.sawQuote).toBe(false);
     expect(a.table).toEqual(whole.table);
@@ -35,14 +39,28 @@ describe("readBoth", () => {
 
   it("readBoth -- an error in the second part keeps its file line", async () => {
     const planted = plantedFile("p2.csv", 20000, (i, l) => (i === 19990 ? l.replace(/,52\.\d+,/, ",n/a,") : l));
-    const [a] = await readBoth({ path: planted, role: "planted" }, { path: survey, role: "survey" }, { parallel: true, splitSlackBytes: 0 });
+    const [a] = await readBoth(
+      { path: planted, role: "planted" },
+      { path: survey, role: "survey" },
+      { parallel: true, splitSlackBytes: 0 },
+    );
     expect(a.table).toBeNull();
-    expect(a.issues.find((i) => i.severity === "error")).toMatchObject({ code: "coordinate-not-numeric", line: 19992, value: "n/a" });
+    expect(a.issues.find((i) => i.severity === "error")).toMatchObject({
+      code: "coordinate-not-numeric",
+      line: 19992,
+      value: "n/a",
+    });
   });
 
   it("readBoth -- a quoted field anywhere makes the file be read whole", async () => {
-    const planted = plantedFile("p3.csv", 20000, (i, l) => (i === 12000 ? l.replace("kale", '"kale, curly"').replace("leek", '"leek, winter"') : l));
-    const [a] = await readBoth({ path: planted, role: "planted" }, { path: survey, role: "survey" }, { parallel: true, splitSlackBytes: 0 });
+    const planted = plantedFile("p3.csv", 20000, (i, l) =>
+      i === 12000 ? l.replace("kale", '"kale, curly"').replace("leek", '"leek, winter"') : l,
+    );
+    const [a] = await readBoth(
+      { path: planted, role: "planted" },
+      { path: survey, role: "survey" },
+      { parallel: true, splitSlackBytes: 0 },
+    );
     const whole = await readFileJob({ path: planted, role: "planted" });
     expect(a.table).toEqual(whole.table);
     expect(a.issues).toEqual(whole.issues);

@@ -9,7 +9,9 @@ test.describe.configure({ mode: "serial" });
 let auditId = "";
 let pairs = 0;
 
-test("audit -- technician creates an audit for Long Acre, reads the verdict, sorts, filters and downloads", async ({ page }) => {
+test("audit -- technician creates an audit for Long Acre, reads the verdict, sorts, filters and downloads", async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await new SignInPage(page).signInAs("technician");
   const api = new AuditApi(page);
@@ -21,8 +23,12 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   const form = new NewAuditPage(page);
   await form.open(fieldId);
   await form.fill({
-    title: "Long Acre spring check", plantedId: planted.id, surveyId: survey.id,
-    profileName: "In-row weeding around plants", match: /Plant id, then position/, maxDistanceMm: "100",
+    title: "Long Acre spring check",
+    plantedId: planted.id,
+    surveyId: survey.id,
+    profileName: "In-row weeding around plants",
+    match: /Plant id, then position/,
+    maxDistanceMm: "100",
   });
   await form.submit();
 
@@ -61,7 +67,9 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   await expect(page.getByTestId("figure-cep")).toContainText(formatMm(s.cep50Model));
   await expect(page.getByTestId("figure-nssda")).toContainText(formatMm(s.nssda95));
   expect(s.raw).not.toBeNull();
-  await expect(page.getByTestId("raw-comparison")).toContainText(`from ${formatMm(s.raw!.rmseR)} to ${formatMm(s.rmseR)}`);
+  await expect(page.getByTestId("raw-comparison")).toContainText(
+    `from ${formatMm(s.raw!.rmseR)} to ${formatMm(s.rmseR)}`,
+  );
   await expect(page.getByTestId("group-bed").locator('tr[data-group-key="3"]')).toHaveAttribute("data-out", "true");
   await expect(page.getByTestId("chart-scatter").locator("figcaption")).toContainText(formatMm(s.r95));
 
@@ -82,9 +90,13 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   await result.filter("Show", "only out of tolerance", "only", "out");
   await expect(result.residualStatus).toContainText(`of ${out}`);
   await expect(result.residualRows).toHaveCount(Math.min(out, 25));
-  const marks = page.getByTestId("residual-row").locator("[data-pass]").filter({ hasText: /^(Within|Out)$/ });
+  const marks = page
+    .getByTestId("residual-row")
+    .locator("[data-pass]")
+    .filter({ hasText: /^(Within|Out)$/ });
   await expect(marks).toHaveCount(Math.min(out, 25));
-  for (const flag of await marks.evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.pass))) expect(flag).toBe("false");
+  for (const flag of await marks.evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.pass)))
+    expect(flag).toBe("false");
 
   // Bed and plant id filters, also answered by the server.
   await result.clearFilters();
@@ -94,7 +106,10 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   await result.filter("Plant id contains", "LA-3-2-", "q", "LA-3-2-");
   const searched = await result.residualRowsData();
   expect(searched.length).toBeGreaterThan(0);
-  for (const r of searched) { expect(r.plant).toContain("LA-3-2-"); expect(r.bed).toBe("3"); }
+  for (const r of searched) {
+    expect(r.plant).toContain("LA-3-2-");
+    expect(r.bed).toBe("3");
+  }
 
   // The per-plant CSV: one row per pair, largest radial errors from bed 3 (the RTK-float stretch).
   const { download, text } = await result.download("Per-plant errors (CSV)");
@@ -130,7 +145,15 @@ test("audit -- grower reads the result and downloads, but cannot create audits",
   const fieldId = await api.fieldId("Long Acre");
   const audit = await api.audit(auditId);
   const refused = await page.request.post("/api/audits", {
-    data: { fieldId, plantedDatasetId: audit.planted!.id, surveyDatasetId: audit.survey!.id, profileId: audit.profile!.id, title: "Grower try", match: "auto", maxDistanceM: 0.1 },
+    data: {
+      fieldId,
+      plantedDatasetId: audit.planted!.id,
+      surveyDatasetId: audit.survey!.id,
+      profileId: audit.profile!.id,
+      title: "Grower try",
+      match: "auto",
+      maxDistanceM: 0.1,
+    },
   });
   expect(refused.status()).toBe(403);
   expect(await refused.json()).toMatchObject({ error: { code: "forbidden" } });

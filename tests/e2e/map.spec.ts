@@ -16,14 +16,20 @@ test.use({ viewport: { width: 1400, height: 1100 } });
 let auditId = "";
 let fieldId = "";
 
-async function outOfTolerance(page: import("@playwright/test").Page, id: string, bed?: string): Promise<ResidualPage<ResidualRowDto>> {
+async function outOfTolerance(
+  page: import("@playwright/test").Page,
+  id: string,
+  bed?: string,
+): Promise<ResidualPage<ResidualRowDto>> {
   const q = new URLSearchParams({ only: "out", sort: "radial", dir: "desc", pageSize: "500", ...(bed ? { bed } : {}) });
   const res = await page.request.get(`/api/audits/${id}/residuals?${q}`);
   expect(res.status()).toBe(200);
   return res.json();
 }
 
-test("map -- out-of-tolerance plants are drawn in the highlight colour, and filters change what is drawn", async ({ page }) => {
+test("map -- out-of-tolerance plants are drawn in the highlight colour, and filters change what is drawn", async ({
+  page,
+}) => {
   test.setTimeout(180_000);
   await new SignInPage(page).signInAs("technician");
   const audit = await createDemoAudit(page);
@@ -42,7 +48,9 @@ test("map -- out-of-tolerance plants are drawn in the highlight colour, and filt
   expect(payload.meta.pairs).toBe(summary.pairs);
   expect(payload.meta.crs).toBe("EPSG:25831");
   expect(payload.arrays.pairXY).toBeInstanceOf(Float32Array);
-  const flaggedOut = Array.from(payload.arrays.pairFlags).filter((f) => (f & PAIR_FLAG.WITHIN_KNOWN) && !(f & PAIR_FLAG.WITHIN)).length;
+  const flaggedOut = Array.from(payload.arrays.pairFlags).filter(
+    (f) => f & PAIR_FLAG.WITHIN_KNOWN && !(f & PAIR_FLAG.WITHIN),
+  ).length;
   expect(flaggedOut).toBe(out.total);
   expect(payload.meta.unpaired).toBe(summary.unmatchedPlanted + summary.unmatchedSurvey + summary.ambiguousSurvey);
 
@@ -50,7 +58,9 @@ test("map -- out-of-tolerance plants are drawn in the highlight colour, and filt
   await map.openAudit(auditId);
   await expect(map.root).toHaveAttribute("data-pairs-shown", String(summary.pairs));
   await expect(map.root).toHaveAttribute("data-out-shown", String(out.total));
-  await expect(map.status).toContainText(`Showing ${summary.pairs} of ${summary.pairs} checkpoints, ${out.total} out of tolerance`);
+  await expect(map.status).toContainText(
+    `Showing ${summary.pairs} of ${summary.pairs} checkpoints, ${out.total} out of tolerance`,
+  );
   await expect(page.getByTestId("legend-error")).toContainText("limit of the profile: 10 mm");
   await expect(page.getByTestId("north-arrow")).toContainText("grid north of EPSG:25831");
   await expect(page.getByTestId("scale-bar")).toContainText(/\d+ (m|cm)/);
@@ -116,7 +126,9 @@ test("map -- the grower's field view: heatmap, guidance per bed and the record-a
   expect(res.status()).toBe(200);
   const view = (await res.json()) as FieldMapDto;
   expect(view.audit?.id).toBe(auditId);
-  expect(view.summary).toMatch(/This map shows how accurate the plant records are, not whether a machine is safe to run\.$/);
+  expect(view.summary).toMatch(
+    /This map shows how accurate the plant records are, not whether a machine is safe to run\.$/,
+  );
   const bed3 = view.guidance.find((g) => g.bed === "3")!;
   expect(bed3.state).toBe("not-relied-on");
 
@@ -143,7 +155,11 @@ test("map -- refused outside the audit's organisation and without a session", as
   await page.goto("/login");
   await new SignInPage(page).signIn(otherOwner.email, DEMO_PASSWORD);
   await expect(page.getByTestId("home-owner")).toBeVisible();
-  for (const url of [`/api/audits/${auditId}/map-data`, `/api/audits/${auditId}/map-data?pair=0`, `/api/fields/${fieldId}/map`]) {
+  for (const url of [
+    `/api/audits/${auditId}/map-data`,
+    `/api/audits/${auditId}/map-data?pair=0`,
+    `/api/fields/${fieldId}/map`,
+  ]) {
     const res = await page.request.get(url);
     expect(res.status(), url).toBe(404);
     expect(await res.json()).toMatchObject({ error: { code: "not_found" } });
@@ -166,14 +182,21 @@ test("map -- opened while its audit is still computing, it shows the progress an
   await new SignInPage(page).signInAs("technician");
   const api = new AuditApi(page);
   // A field of its own, so the other tests' "latest audit of Long Acre" stays what they expect.
-  const made = await page.request.post("/api/fields", { data: { name: `Great Drove ${Date.now()}`, farm: "Kestrel Fen", crs: "EPSG:25831", timeZone: "Europe/Amsterdam" } });
+  const made = await page.request.post("/api/fields", {
+    data: { name: `Great Drove ${Date.now()}`, farm: "Kestrel Fen", crs: "EPSG:25831", timeZone: "Europe/Amsterdam" },
+  });
   expect(made.status(), await made.text()).toBe(201);
   const field = ((await made.json()) as { field: { id: string } }).field.id;
   // 100,000 plants, every one surveyed (the same positions, paired by plant id): storing the rows takes several seconds.
   const buffer = bigAsPlanted(100_000);
   const upload = async (kind: "planted" | "survey") => {
     const res = await page.request.post(`/api/fields/${field}/datasets`, {
-      multipart: { file: { name: `great-drove-${kind}.csv`, mimeType: "text/csv", buffer }, kind, crs: "EPSG:4326", acceptWarnings: "true" },
+      multipart: {
+        file: { name: `great-drove-${kind}.csv`, mimeType: "text/csv", buffer },
+        kind,
+        crs: "EPSG:4326",
+        acceptWarnings: "true",
+      },
       timeout: 120_000,
     });
     expect(res.status(), await res.text()).toBe(201);
@@ -182,7 +205,15 @@ test("map -- opened while its audit is still computing, it shows the progress an
   const plantedDatasetId = await upload("planted");
   const surveyDatasetId = await upload("survey");
   const profile = (await api.profiles()).find((p) => p.name === "Inter-row hoeing")!;
-  const res = await page.request.post("/api/audits", { data: { fieldId: field, plantedDatasetId, surveyDatasetId, profileId: profile.id, title: "Great Drove while computing" } });
+  const res = await page.request.post("/api/audits", {
+    data: {
+      fieldId: field,
+      plantedDatasetId,
+      surveyDatasetId,
+      profileId: profile.id,
+      title: "Great Drove while computing",
+    },
+  });
   expect(res.status()).toBe(202);
   const { audit } = (await res.json()) as { audit: { id: string } };
 
@@ -195,4 +226,3 @@ test("map -- opened while its audit is still computing, it shows the progress an
   await expect(map.root).toBeVisible({ timeout: 240_000 });
   await expect(map.root).toHaveAttribute("data-pairs-shown", "100000");
 });
-

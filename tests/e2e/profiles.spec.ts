@@ -12,7 +12,9 @@ test("profiles -- QA lead edits a radial limit, and a taken name is refused", as
 
   const profiles = new ProfilesPage(page);
   await profiles.open();
-  await expect(profiles.row(PROFILE).getByTestId("built-in-label")).toHaveText("Starting values from common practice, not a standard");
+  await expect(profiles.row(PROFILE).getByTestId("built-in-label")).toHaveText(
+    "Starting values from common practice, not a standard",
+  );
   const newMm = before.radialM !== null && Math.abs(before.radialM - 0.0125) < 1e-9 ? "11" : "12.5";
   await profiles.edit(PROFILE, { "Radial limit": newMm });
   await expect(page.getByTestId("profile-notice")).toHaveText(`Saved “${PROFILE}”.`);

@@ -35,7 +35,10 @@ test("roles -- grower is refused the review page and the technician-only API", a
   expect(await res.json()).toMatchObject({ error: { code: "forbidden" } });
 });
 
-test("organisations -- another organisation's field is not found, in the API and the page", async ({ page, browser }) => {
+test("organisations -- another organisation's field is not found, in the API and the page", async ({
+  page,
+  browser,
+}) => {
   // Find a field id of the other organisation by signing in as its owner in a separate context.
   const other = await browser.newContext();
   const otherPage = await other.newPage();
@@ -73,7 +76,9 @@ test("sign-in -- a wrong password shows a clear message", async ({ page }) => {
   await expect(page).toHaveURL(/\/login$/);
 });
 
-test("sign-up -- invalid e-mail and short password get field-level errors, then a valid sign-up lands on the owner home", async ({ page }) => {
+test("sign-up -- invalid e-mail and short password get field-level errors, then a valid sign-up lands on the owner home", async ({
+  page,
+}) => {
   await page.goto("/signup");
   await page.getByLabel("Your name").fill("Fenna Lark");
   await page.getByLabel("E-mail").fill("fenna-at-nowhere");

@@ -6,7 +6,10 @@ test.describe.configure({ mode: "serial" });
 
 const INVITEE = { name: "Wren Talbot", email: "wren@kestrelfen.example", password: "wren-fen-2026" };
 
-test("team -- owner invites a grower; the e-mail arrives; the invitee sets a password and lands on the grower home", async ({ page, browser }) => {
+test("team -- owner invites a grower; the e-mail arrives; the invitee sets a password and lands on the grower home", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(120_000);
   await new SignInPage(page).signInAs("owner");
   await page.goto("/team");
@@ -14,11 +17,18 @@ test("team -- owner invites a grower; the e-mail arrives; the invitee sets a pas
   await page.getByLabel("E-mail", { exact: true }).fill(INVITEE.email);
   await page.getByLabel("Role", { exact: true }).selectOption({ label: "Grower" });
   await page.getByRole("button", { name: "Send invitation" }).click();
-  await expect(page.getByTestId("team-notice")).toHaveText(`Invitation e-mailed to ${INVITEE.email}. It works for 7 days.`);
-  await expect(page.getByTestId("invitations-table").locator(`tr[data-email="${INVITEE.email}"]`)).toHaveAttribute("data-status", "pending");
+  await expect(page.getByTestId("team-notice")).toHaveText(
+    `Invitation e-mailed to ${INVITEE.email}. It works for 7 days.`,
+  );
+  await expect(page.getByTestId("invitations-table").locator(`tr[data-email="${INVITEE.email}"]`)).toHaveAttribute(
+    "data-status",
+    "pending",
+  );
 
   const mail = await new Outbox(browser).waitFor(INVITEE.email, "Join Kestrel Fen Growers on Plotproof");
-  expect(mail.text).toContain(`${demoPerson("owner").name} has invited you to join Kestrel Fen Growers on Plotproof as Grower.`);
+  expect(mail.text).toContain(
+    `${demoPerson("owner").name} has invited you to join Kestrel Fen Growers on Plotproof as Grower.`,
+  );
   expect(new URL(mail.link).pathname).toMatch(/^\/invite\/\S+$/);
 
   // The invitee has no account and no session.
@@ -43,11 +53,17 @@ test("team -- owner invites a grower; the e-mail arrives; the invitee sets a pas
   await expect(invitee.getByTestId("invitation-problem")).toContainText("already been accepted");
   await context.close();
   await page.reload();
-  await expect(page.getByTestId("invitations-table").locator(`tr[data-email="${INVITEE.email}"]`)).toHaveAttribute("data-status", "accepted");
+  await expect(page.getByTestId("invitations-table").locator(`tr[data-email="${INVITEE.email}"]`)).toHaveAttribute(
+    "data-status",
+    "accepted",
+  );
   await expect(page.getByTestId("team-table").locator(`tr[data-email="${INVITEE.email}"]`)).toContainText(INVITEE.name);
 });
 
-test("team -- the owner changes the new member's role, then removes them; their session stops working", async ({ page, browser }) => {
+test("team -- the owner changes the new member's role, then removes them; their session stops working", async ({
+  page,
+  browser,
+}) => {
   const context = await browser.newContext();
   const member = await context.newPage();
   await member.goto("/login");

@@ -34,11 +34,21 @@ const BOUNDARY = {
   properties: { name: "Reed Margin" },
   geometry: {
     type: "Polygon",
-    coordinates: [[[5.3930, 52.5175], [5.3960, 52.5175], [5.3960, 52.5195], [5.3930, 52.5195], [5.3930, 52.5175]]],
+    coordinates: [
+      [
+        [5.393, 52.5175],
+        [5.396, 52.5175],
+        [5.396, 52.5195],
+        [5.393, 52.5195],
+        [5.393, 52.5175],
+      ],
+    ],
   },
 };
 
-test("field form -- technician creates Reed Margin with a CRS from the search list and lands on its page", async ({ page }) => {
+test("field form -- technician creates Reed Margin with a CRS from the search list and lands on its page", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const form = new FieldFormPage(page);
   await form.openNew();
@@ -65,10 +75,25 @@ test("field form -- technician creates Reed Margin with a CRS from the search li
 
   // A boundary in projected metres is refused in the browser; one in longitude/latitude is shown.
   const projected = structuredClone(BOUNDARY);
-  projected.geometry.coordinates = [[[662410, 5821330], [662500, 5821330], [662500, 5821500], [662410, 5821330]]];
-  await form.boundaryFromFile({ name: "reed-margin-utm.geojson", mimeType: "application/geo+json", buffer: Buffer.from(JSON.stringify(projected)) });
+  projected.geometry.coordinates = [
+    [
+      [662410, 5821330],
+      [662500, 5821330],
+      [662500, 5821500],
+      [662410, 5821330],
+    ],
+  ];
+  await form.boundaryFromFile({
+    name: "reed-margin-utm.geojson",
+    mimeType: "application/geo+json",
+    buffer: Buffer.from(JSON.stringify(projected)),
+  });
   await expect(form.fieldError("boundaryFile")).toContainText("not longitude/latitude");
-  await form.boundaryFromFile({ name: "reed-margin.geojson", mimeType: "application/geo+json", buffer: Buffer.from(JSON.stringify(BOUNDARY)) });
+  await form.boundaryFromFile({
+    name: "reed-margin.geojson",
+    mimeType: "application/geo+json",
+    buffer: Buffer.from(JSON.stringify(BOUNDARY)),
+  });
   await expect(form.fieldError("boundaryFile")).toHaveCount(0);
   await expect(page.getByTestId("boundary-preview")).toContainText("4 corners");
 
@@ -85,11 +110,20 @@ test("field form -- technician creates Reed Margin with a CRS from the search li
 
   const id = page.url().split("/").pop()!;
   const saved = (await (await page.request.get(`/api/fields/${id}`)).json()).field;
-  expect(saved).toMatchObject({ name: "Reed Margin", crs: "EPSG:25831", rowBearingDeg: 22.5, bedSpacingM: 3, rowsPerBed: 5, rowSpacingM: 0.5 });
+  expect(saved).toMatchObject({
+    name: "Reed Margin",
+    crs: "EPSG:25831",
+    rowBearingDeg: 22.5,
+    bedSpacingM: 3,
+    rowsPerBed: 5,
+    rowSpacingM: 0.5,
+  });
   expect(saved.boundary.coordinates).toEqual(BOUNDARY.geometry.coordinates);
 });
 
-test("upload -- the demo as-planted file is previewed, its columns checked, the progress reaches 100 % and the dataset is saved", async ({ page }) => {
+test("upload -- the demo as-planted file is previewed, its columns checked, the progress reaches 100 % and the dataset is saved", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const fieldId = await newField(page.request, "Sedge Corner");
   const upload = new UploadPage(page);
@@ -145,10 +179,11 @@ test("upload -- the demo as-planted file is previewed, its columns checked, the 
 
   await page.goto(`/fields/${fieldId}`);
   await expect(page.getByText(/long-acre-as-planted\.csv/)).toBeVisible();
-
 });
 
-test("upload -- the technician says the fix column is not in the file: it is not read, and the saved mapping and preset say so", async ({ page }) => {
+test("upload -- the technician says the fix column is not in the file: it is not read, and the saved mapping and preset say so", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const fieldId = await newField(page.request, "Carr Meadow");
   const upload = new UploadPage(page);
@@ -169,7 +204,9 @@ test("upload -- the technician says the fix column is not in the file: it is not
   // With the fix column unread there are no mixed fix qualities to warn about: saved at once.
   await expect(upload.saved).toBeVisible({ timeout: 30_000 });
   await expect(page.getByTestId("saved-warnings")).toHaveText("0");
-  const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as { mapping: Record<string, string | null> }[];
+  const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as {
+    mapping: Record<string, string | null>;
+  }[];
   expect(datasets).toHaveLength(1);
   expect(datasets[0].mapping).toMatchObject({ fix: null, arm: "arm", id: "plant_id", x: "lon", y: "lat" });
 
@@ -184,12 +221,15 @@ test("upload -- the technician says the fix column is not in the file: it is not
   await expect(fixHeading).toContainText("not read");
 });
 
-test("field form -- editing a field with saved records takes its row bearing and outline from them", async ({ page }) => {
+test("field form -- editing a field with saved records takes its row bearing and outline from them", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const fieldId = await newField(page.request, "Withy Bed");
   const res = await page.request.post(`/api/fields/${fieldId}/datasets`, {
     multipart: {
-      kind: "planted", acceptWarnings: "true",
+      kind: "planted",
+      acceptWarnings: "true",
       file: { name: "long-acre-as-planted.csv", mimeType: "text/csv", buffer: fs.readFileSync(AS_PLANTED) },
     },
   });
@@ -213,7 +253,9 @@ test("field form -- editing a field with saved records takes its row bearing and
   expect(saved.boundary.type).toBe("Polygon");
 });
 
-test("upload -- the survey file needs one column corrected, and its warning accepted, before it is saved", async ({ page }) => {
+test("upload -- the survey file needs one column corrected, and its warning accepted, before it is saved", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const fieldId = await newField(page.request, "Osier Bank");
   const upload = new UploadPage(page);
@@ -239,12 +281,22 @@ test("upload -- the survey file needs one column corrected, and its warning acce
   await upload.acceptWarningsAndSave();
   await expect(upload.saved).toBeVisible({ timeout: 30_000 });
   await upload.expectComplete();
-  const surveyRows = fs.readFileSync(SURVEY, "utf8").split("\n").filter((l) => l.trim() !== "").length - 1;
+  const surveyRows =
+    fs
+      .readFileSync(SURVEY, "utf8")
+      .split("\n")
+      .filter((l) => l.trim() !== "").length - 1;
   await expect(page.getByTestId("saved-rows")).toHaveText(surveyRows.toLocaleString("en-GB"));
 
-  const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as { kind: string; mapping: Record<string, string> }[];
+  const datasets = (await (await page.request.get(`/api/fields/${fieldId}`)).json()).datasets as {
+    kind: string;
+    mapping: Record<string, string>;
+  }[];
   expect(datasets).toHaveLength(1);
-  expect(datasets[0]).toMatchObject({ kind: "survey", mapping: { precision: "rover_sd_metres", x: "easting", y: "northing" } });
+  expect(datasets[0]).toMatchObject({
+    kind: "survey",
+    mapping: { precision: "rover_sd_metres", x: "easting", y: "northing" },
+  });
 });
 
 test("upload -- a broken file shows line 57 and column lat in the error table and saves nothing", async ({ page }) => {
@@ -259,7 +311,11 @@ test("upload -- a broken file shows line 57 and column lat in the error table an
   const cells = lines[56].split(",");
   cells[latAt] = "fifty-two";
   lines[56] = cells.join(",");
-  const broken = { name: "long-acre-as-planted-broken.csv", mimeType: "text/csv", buffer: Buffer.from(lines.join("\n")) };
+  const broken = {
+    name: "long-acre-as-planted-broken.csv",
+    mimeType: "text/csv",
+    buffer: Buffer.from(lines.join("\n")),
+  };
 
   const upload = new UploadPage(page);
   await upload.open(fieldId, "planted");
@@ -302,7 +358,10 @@ test("upload -- a grower sees no create or upload pages, and the API refuses the
     await expect(page.getByLabel("Choose a file or drop it here")).toHaveCount(0);
   }
   const res = await page.request.post(`/api/fields/${longAcre.id}/datasets`, {
-    multipart: { kind: "planted", file: { name: "long-acre-as-planted.csv", mimeType: "text/csv", buffer: fs.readFileSync(AS_PLANTED) } },
+    multipart: {
+      kind: "planted",
+      file: { name: "long-acre-as-planted.csv", mimeType: "text/csv", buffer: fs.readFileSync(AS_PLANTED) },
+    },
   });
   expect(res.status()).toBe(403);
   expect(await res.json()).toMatchObject({ error: { code: "forbidden" } });
@@ -326,7 +385,10 @@ test("upload -- 100,000 as-planted rows are saved from the browser with the prog
     const seen: Record<string, string[]> = { transfer: [], server: [] };
     (window as unknown as { __bars: typeof seen }).__bars = seen;
     new MutationObserver(() => {
-      for (const [key, id] of [["transfer", "upload-transfer"], ["server", "upload-server"]] as const) {
+      for (const [key, id] of [
+        ["transfer", "upload-transfer"],
+        ["server", "upload-server"],
+      ] as const) {
         const v = document.querySelector(`[data-testid="${id}"]`)?.getAttribute("aria-valuenow");
         if (v && seen[key][seen[key].length - 1] !== v) seen[key].push(v);
       }
@@ -345,11 +407,20 @@ test("upload -- 100,000 as-planted rows are saved from the browser with the prog
   expect(bars.server.filter((v) => Number(v) > 0 && Number(v) < 100).length).toBeGreaterThan(1);
   expect(bars.transfer.at(-1)).toBe("100");
   expect(bars.server.at(-1)).toBe("100");
-  test.info().annotations.push({ type: "timing", description: `100,000 rows (${(file.buffer.length / 1024 / 1024).toFixed(1)} MB) saved in ${seconds.toFixed(1)} s; bars: transfer ${bars.transfer.join(" → ")}; server ${bars.server.join(" → ")}` });
-  console.log(`[upload timing] 100,000 rows, ${(file.buffer.length / 1024 / 1024).toFixed(1)} MB: ${seconds.toFixed(1)} s from "Check and save" to saved`);
+  test
+    .info()
+    .annotations.push({
+      type: "timing",
+      description: `100,000 rows (${(file.buffer.length / 1024 / 1024).toFixed(1)} MB) saved in ${seconds.toFixed(1)} s; bars: transfer ${bars.transfer.join(" → ")}; server ${bars.server.join(" → ")}`,
+    });
+  console.log(
+    `[upload timing] 100,000 rows, ${(file.buffer.length / 1024 / 1024).toFixed(1)} MB: ${seconds.toFixed(1)} s from "Check and save" to saved`,
+  );
 });
 
-test("upload -- a GeoJSON survey file is previewed by its features' properties and saved with positions from the geometry", async ({ page }) => {
+test("upload -- a GeoJSON survey file is previewed by its features' properties and saved with positions from the geometry", async ({
+  page,
+}) => {
   await new SignInPage(page).signInAs("technician");
   const fieldId = await newField(page.request, "Lode Piece");
   const [head, ...rows] = fs.readFileSync(SURVEY, "utf8").trim().split("\n");
@@ -360,14 +431,26 @@ test("upload -- a GeoJSON survey file is previewed by its features' properties a
     return {
       type: "Feature",
       geometry: { type: "Point", coordinates: [Number(at(cells, "easting")), Number(at(cells, "northing"))] },
-      properties: { plant_id: at(cells, "plant_id") || null, method: at(cells, "method"), observed_at: at(cells, "observed_at") },
+      properties: {
+        plant_id: at(cells, "plant_id") || null,
+        method: at(cells, "method"),
+        observed_at: at(cells, "observed_at"),
+      },
     };
   });
-  const geojson = { type: "FeatureCollection", crs: { type: "name", properties: { name: "urn:ogc:def:crs:EPSG::25831" } }, features };
+  const geojson = {
+    type: "FeatureCollection",
+    crs: { type: "name", properties: { name: "urn:ogc:def:crs:EPSG::25831" } },
+    features,
+  };
 
   const upload = new UploadPage(page);
   await upload.open(fieldId, "survey");
-  await upload.choose({ name: "lode-piece-survey.geojson", mimeType: "application/geo+json", buffer: Buffer.from(JSON.stringify(geojson)) });
+  await upload.choose({
+    name: "lode-piece-survey.geojson",
+    mimeType: "application/geo+json",
+    buffer: Buffer.from(JSON.stringify(geojson)),
+  });
   await expect(page.getByTestId("preview-facts")).toContainText(`${rows.length}`);
   await expect(page.getByTestId("preview-facts")).toContainText("EPSG:25831");
   await expect(upload.previewTable.locator("thead")).toContainText("plant_id");

@@ -23,8 +23,10 @@ beforeAll(async () => {
   fieldsRoute = await import("@/app/api/fields/route");
   fieldRoute = await import("@/app/api/fields/[fieldId]/route");
   teamRoute = await import("@/app/api/team/route");
-  ownFieldId = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.grower }), ctx({}))).json()).fields[0].id;
-  foreignFieldId = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.other }), ctx({}))).json()).fields[0].id;
+  ownFieldId = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.grower }), ctx({}))).json()).fields[0]
+    .id;
+  foreignFieldId = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.other }), ctx({}))).json())
+    .fields[0].id;
 }, 120_000);
 
 describe("access -- session, role and organisation", () => {
@@ -36,13 +38,17 @@ describe("access -- session, role and organisation", () => {
 
   it("access -- each organisation lists only its own fields", async () => {
     const mine = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.grower }), ctx({}))).json()).fields;
-    const theirs = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.other }), ctx({}))).json()).fields;
+    const theirs = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.other }), ctx({}))).json())
+      .fields;
     expect(mine.map((f: { name: string }) => f.name).sort()).toEqual(["Long Acre", "Willow Strip"]);
     expect(theirs.map((f: { name: string }) => f.name)).toEqual(["Saltings Trial Plot"]);
   });
 
   it("access -- a grower cannot create a field (403) and nothing is saved", async () => {
-    const res = await fieldsRoute.POST(req("/api/fields", { method: "POST", cookie: cookies.grower, body: JSON.stringify(newField) }), ctx({}));
+    const res = await fieldsRoute.POST(
+      req("/api/fields", { method: "POST", cookie: cookies.grower, body: JSON.stringify(newField) }),
+      ctx({}),
+    );
     expect(res.status).toBe(403);
     expect((await res.json()).error.code).toBe("forbidden");
     const list = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.grower }), ctx({}))).json()).fields;
@@ -50,22 +56,44 @@ describe("access -- session, role and organisation", () => {
   });
 
   it("access -- a technician creates a field; bad input is 422 with the field named; a duplicate name is 409", async () => {
-    const bad = await fieldsRoute.POST(req("/api/fields", { method: "POST", cookie: cookies.technician, body: JSON.stringify({ ...newField, crs: "UTM31" }) }), ctx({}));
+    const bad = await fieldsRoute.POST(
+      req("/api/fields", {
+        method: "POST",
+        cookie: cookies.technician,
+        body: JSON.stringify({ ...newField, crs: "UTM31" }),
+      }),
+      ctx({}),
+    );
     expect(bad.status).toBe(422);
     expect((await bad.json()).error.issues[0].path).toEqual(["crs"]);
-    const ok = await fieldsRoute.POST(req("/api/fields", { method: "POST", cookie: cookies.technician, body: JSON.stringify(newField) }), ctx({}));
+    const ok = await fieldsRoute.POST(
+      req("/api/fields", { method: "POST", cookie: cookies.technician, body: JSON.stringify(newField) }),
+      ctx({}),
+    );
     expect(ok.status).toBe(201);
-    const again = await fieldsRoute.POST(req("/api/fields", { method: "POST", cookie: cookies.technician, body: JSON.stringify(newField) }), ctx({}));
+    const again = await fieldsRoute.POST(
+      req("/api/fields", { method: "POST", cookie: cookies.technician, body: JSON.stringify(newField) }),
+      ctx({}),
+    );
     expect(again.status).toBe(409);
   });
 
   it("access -- another organisation's field is 404, exactly like a field that does not exist", async () => {
-    const foreign = await fieldRoute.GET(req(`/api/fields/${foreignFieldId}`, { cookie: cookies.owner }), ctx({ fieldId: foreignFieldId }));
-    const missing = await fieldRoute.GET(req("/api/fields/00000000-0000-4000-8000-000000000000", { cookie: cookies.owner }), ctx({ fieldId: "00000000-0000-4000-8000-000000000000" }));
+    const foreign = await fieldRoute.GET(
+      req(`/api/fields/${foreignFieldId}`, { cookie: cookies.owner }),
+      ctx({ fieldId: foreignFieldId }),
+    );
+    const missing = await fieldRoute.GET(
+      req("/api/fields/00000000-0000-4000-8000-000000000000", { cookie: cookies.owner }),
+      ctx({ fieldId: "00000000-0000-4000-8000-000000000000" }),
+    );
     expect(foreign.status).toBe(404);
     expect(missing.status).toBe(404);
     expect(await foreign.json()).toEqual(await missing.json());
-    const own = await fieldRoute.GET(req(`/api/fields/${ownFieldId}`, { cookie: cookies.grower }), ctx({ fieldId: ownFieldId }));
+    const own = await fieldRoute.GET(
+      req(`/api/fields/${ownFieldId}`, { cookie: cookies.grower }),
+      ctx({ fieldId: ownFieldId }),
+    );
     expect(own.status).toBe(200);
     expect((await own.json()).field.id).toBe(ownFieldId);
   });

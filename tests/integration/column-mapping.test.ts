@@ -18,7 +18,14 @@ function upload(fields: Record<string, string>) {
   const form = new FormData();
   form.set("file", new File([new Uint8Array(AS_PLANTED)], "long-acre-as-planted.csv", { type: "text/csv" }));
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
-  return datasetsRoute.POST(new Request(`http://localhost:3000/api/fields/${fieldId}/datasets`, { method: "POST", body: form, headers: { cookie } }), ctx({ fieldId }));
+  return datasetsRoute.POST(
+    new Request(`http://localhost:3000/api/fields/${fieldId}/datasets`, {
+      method: "POST",
+      body: form,
+      headers: { cookie },
+    }),
+    ctx({ fieldId }),
+  );
 }
 
 async function presets(): Promise<PresetDto[]> {
@@ -39,7 +46,11 @@ beforeAll(async () => {
 
 describe("column mapping with roles not in the file", () => {
   it("upload -- fix: null leaves the fix column unread, and the stored mapping keeps the null", async () => {
-    const res = await upload({ kind: "planted", mapping: JSON.stringify({ fix: null }), presetName: "Planter without fix" });
+    const res = await upload({
+      kind: "planted",
+      mapping: JSON.stringify({ fix: null }),
+      presetName: "Planter without fix",
+    });
     expect(res.status).toBe(201);
     const body = (await res.json()) as UploadOkDto;
     expect(body.warnings).toEqual([]);
@@ -47,11 +58,17 @@ describe("column mapping with roles not in the file", () => {
     expect(body.columns.unused).toContain("fix");
     expect(body.dataset.mapping).toMatchObject({ fix: null, id: "plant_id", x: "lon", y: "lat", arm: "arm" });
 
-    const listed = (await (await datasetsRoute.GET(req(`/api/fields/${fieldId}/datasets`, { cookie }), ctx({ fieldId }))).json()).datasets as DatasetDto[];
+    const listed = (
+      await (await datasetsRoute.GET(req(`/api/fields/${fieldId}/datasets`, { cookie }), ctx({ fieldId }))).json()
+    ).datasets as DatasetDto[];
     const stored = listed.find((d) => d.id === body.dataset.id)!;
     expect(stored.mapping).toHaveProperty("fix", null);
     // Reading the file again with the stored mapping (as the review does) must not guess the fix column back.
-    const again = await readPoints([new Uint8Array(AS_PLANTED)], { source: "long-acre-as-planted.csv", role: "planted", mapping: stored.mapping! });
+    const again = await readPoints([new Uint8Array(AS_PLANTED)], {
+      source: "long-acre-as-planted.csv",
+      role: "planted",
+      mapping: stored.mapping!,
+    });
     expect(again.table!.attrs.fix).toBeUndefined();
     expect(again.table!.attrs.arm).toBeDefined();
 
@@ -78,13 +95,34 @@ describe("column mapping with roles not in the file", () => {
   });
 
   it("presets -- null roles are stored and given back unchanged; unknown roles are refused", async () => {
-    const mapping = { id: "plant_id", fix: null, arm: null, rawX: "raw_lon", rawY: "raw_lat", coordinates: "geographic" };
-    const res = await presetsRoute.POST(req("/api/presets", { method: "POST", cookie, body: JSON.stringify({ name: "Hand-held export", kind: "planted", mapping }) }), ctx({}));
+    const mapping = {
+      id: "plant_id",
+      fix: null,
+      arm: null,
+      rawX: "raw_lon",
+      rawY: "raw_lat",
+      coordinates: "geographic",
+    };
+    const res = await presetsRoute.POST(
+      req("/api/presets", {
+        method: "POST",
+        cookie,
+        body: JSON.stringify({ name: "Hand-held export", kind: "planted", mapping }),
+      }),
+      ctx({}),
+    );
     expect(res.status).toBe(201);
     expect((await res.json()).preset.mapping).toEqual(mapping);
     expect((await presets()).find((p) => p.name === "Hand-held export")?.mapping).toEqual(mapping);
 
-    const bad = await presetsRoute.POST(req("/api/presets", { method: "POST", cookie, body: JSON.stringify({ name: "Typo", kind: "planted", mapping: { fixx: null } }) }), ctx({}));
+    const bad = await presetsRoute.POST(
+      req("/api/presets", {
+        method: "POST",
+        cookie,
+        body: JSON.stringify({ name: "Typo", kind: "planted", mapping: { fixx: null } }),
+      }),
+      ctx({}),
+    );
     expect(bad.status).toBe(422);
   });
 });

@@ -15,7 +15,10 @@ export async function cookieFor(email: string, password: string): Promise<string
   const { getAuth } = await import("@/lib/auth");
   const res = await (await getAuth()).api.signInEmail({ body: { email, password }, asResponse: true });
   if (!res.ok) throw new Error(`sign-in failed for ${email}: ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
 }
 
 export function req(url: string, init: RequestInit & { cookie?: string } = {}): Request {

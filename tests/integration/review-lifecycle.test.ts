@@ -1,6 +1,16 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ctx, req } from "./helpers";
-import { ACTORS, PEOPLE, cloneAudit, returnBody, setUpReviewWorld, signoffBody, stateOf, type Actor, type ReviewWorld } from "./review-helpers";
+import {
+  ACTORS,
+  PEOPLE,
+  cloneAudit,
+  returnBody,
+  setUpReviewWorld,
+  signoffBody,
+  stateOf,
+  type Actor,
+  type ReviewWorld,
+} from "./review-helpers";
 import { captureMail, type MailCapture } from "@/lib/mail/testing";
 import { findLink } from "@/lib/mail/mime";
 import { sql } from "drizzle-orm";
@@ -32,28 +42,59 @@ beforeAll(async () => {
   };
 }, 180_000);
 
-afterAll(async () => { await mail?.stop(); });
+afterAll(async () => {
+  await mail?.stop();
+});
 
 type Action = "submit" | "sign_off" | "return" | "revise";
 
 function call(action: Action, who: Actor, id: string, body?: unknown): Promise<Response> {
   const init = { method: "POST", cookie: w.cookies[who], body: body === undefined ? undefined : JSON.stringify(body) };
   switch (action) {
-    case "submit": return routes.submit.POST(req(`/api/audits/${id}/submit`, init), ctx({ id }));
-    case "sign_off": return routes.signoff.POST(req(`/api/audits/${id}/signoff`, init), ctx({ id }));
-    case "return": return routes.ret.POST(req(`/api/audits/${id}/return`, init), ctx({ id }));
-    case "revise": return routes.revise.POST(req(`/api/audits/${id}/revise?wait=1`, init), ctx({ id }));
+    case "submit":
+      return routes.submit.POST(req(`/api/audits/${id}/submit`, init), ctx({ id }));
+    case "sign_off":
+      return routes.signoff.POST(req(`/api/audits/${id}/signoff`, init), ctx({ id }));
+    case "return":
+      return routes.ret.POST(req(`/api/audits/${id}/return`, init), ctx({ id }));
+    case "revise":
+      return routes.revise.POST(req(`/api/audits/${id}/revise?wait=1`, init), ctx({ id }));
   }
 }
 
-const bodyFor = (action: Action, who: Actor) => (action === "sign_off" ? signoffBody(who) : action === "return" ? returnBody : {});
+const bodyFor = (action: Action, who: Actor) =>
+  action === "sign_off" ? signoffBody(who) : action === "return" ? returnBody : {};
 
 // Who may take each step, from which state to which — the expected matrix, written out in full.
 const MATRIX: { action: Action; from: string; to: string; status: number; expect: Record<Actor, number> }[] = [
-  { action: "submit", from: "computed", to: "submitted", status: 200, expect: { owner: 200, qa_lead: 200, technician: 200, grower: 403, other: 404 } },
-  { action: "sign_off", from: "submitted", to: "signed_off", status: 201, expect: { owner: 201, qa_lead: 201, technician: 403, grower: 403, other: 404 } },
-  { action: "return", from: "submitted", to: "returned", status: 200, expect: { owner: 200, qa_lead: 200, technician: 403, grower: 403, other: 404 } },
-  { action: "revise", from: "returned", to: "returned", status: 201, expect: { owner: 201, qa_lead: 201, technician: 201, grower: 403, other: 404 } },
+  {
+    action: "submit",
+    from: "computed",
+    to: "submitted",
+    status: 200,
+    expect: { owner: 200, qa_lead: 200, technician: 200, grower: 403, other: 404 },
+  },
+  {
+    action: "sign_off",
+    from: "submitted",
+    to: "signed_off",
+    status: 201,
+    expect: { owner: 201, qa_lead: 201, technician: 403, grower: 403, other: 404 },
+  },
+  {
+    action: "return",
+    from: "submitted",
+    to: "returned",
+    status: 200,
+    expect: { owner: 200, qa_lead: 200, technician: 403, grower: 403, other: 404 },
+  },
+  {
+    action: "revise",
+    from: "returned",
+    to: "returned",
+    status: 201,
+    expect: { owner: 201, qa_lead: 201, technician: 201, grower: 403, other: 404 },
+  },
 ];
 
 describe("review -- role matrix over every lifecycle transition", () => {
@@ -69,7 +110,14 @@ describe("review -- role matrix over every lifecycle transition", () => {
           if (m.action === "revise") {
             const { audit } = await res.json();
             expect(audit.state).toBe("computed");
-            const review: ReviewDto = (await (await routes.signoff.GET(req(`/api/audits/${audit.id}/signoff`, { cookie: w.cookies[who] }), ctx({ id: audit.id }))).json()).review;
+            const review: ReviewDto = (
+              await (
+                await routes.signoff.GET(
+                  req(`/api/audits/${audit.id}/signoff`, { cookie: w.cookies[who] }),
+                  ctx({ id: audit.id }),
+                )
+              ).json()
+            ).review;
             expect(review).toMatchObject({ revision: 2, revisionOf: id });
             expect(review.revisions.map((r) => r.revision)).toEqual([1, 2]);
           }
@@ -80,7 +128,9 @@ describe("review -- role matrix over every lifecycle transition", () => {
       });
     }
     // Wrong state: an allowed role is refused with 409 and the reason, and nothing changes.
-    for (const state of ["computing", "computed", "failed", "submitted", "returned", "signed_off"].filter((s) => s !== m.from)) {
+    for (const state of ["computing", "computed", "failed", "submitted", "returned", "signed_off"].filter(
+      (s) => s !== m.from,
+    )) {
       it(`${m.action} -- on a ${state} audit is 409 with the reason`, async () => {
         const who: Actor = m.action === "submit" || m.action === "revise" ? "technician" : "qa_lead";
         const id = await cloneAudit(w.db, w.base.id, state);
@@ -88,7 +138,11 @@ describe("review -- role matrix over every lifecycle transition", () => {
         expect(res.status).toBe(409);
         const { error } = await res.json();
         expect(error.code).toBe("conflict");
-        expect(error.message).toMatch(state === "signed_off" ? /signed off\. A signed-off audit, its files and its results can no longer be changed/ : /only possible when the audit is/);
+        expect(error.message).toMatch(
+          state === "signed_off"
+            ? /signed off\. A signed-off audit, its files and its results can no longer be changed/
+            : /only possible when the audit is/,
+        );
         expect(await stateOf(w.db, id)).toBe(state);
       });
     }
@@ -96,9 +150,15 @@ describe("review -- role matrix over every lifecycle transition", () => {
 
   it("verify and activity -- every member may read them (200), another organisation gets 404", async () => {
     for (const who of ACTORS) {
-      const v = await routes.verify.POST(req(`/api/audits/${w.base.id}/verify`, { method: "POST", cookie: w.cookies[who] }), ctx({ id: w.base.id }));
+      const v = await routes.verify.POST(
+        req(`/api/audits/${w.base.id}/verify`, { method: "POST", cookie: w.cookies[who] }),
+        ctx({ id: w.base.id }),
+      );
       expect(v.status, who).toBe(who === "other" ? 404 : 200);
-      const a = await routes.activity.GET(req(`/api/audits/${w.base.id}/activity`, { cookie: w.cookies[who] }), ctx({ id: w.base.id }));
+      const a = await routes.activity.GET(
+        req(`/api/audits/${w.base.id}/activity`, { cookie: w.cookies[who] }),
+        ctx({ id: w.base.id }),
+      );
       expect(a.status, who).toBe(who === "other" ? 404 : 200);
     }
   });
@@ -107,8 +167,16 @@ describe("review -- role matrix over every lifecycle transition", () => {
     for (const action of ["submit", "sign_off", "return", "revise"] as const) {
       const res = await call(action, "owner", w.base.id, {}).catch(() => null);
       expect(res).not.toBeNull();
-      const anonymous = await (action === "submit" ? routes.submit.POST : action === "sign_off" ? routes.signoff.POST : action === "return" ? routes.ret.POST : routes.revise.POST)(
-        req(`/api/audits/${w.base.id}/x`, { method: "POST", body: "{}" }), ctx({ id: w.base.id }));
+      const anonymous = await (action === "submit"
+        ? routes.submit.POST
+        : action === "sign_off"
+          ? routes.signoff.POST
+          : action === "return"
+            ? routes.ret.POST
+            : routes.revise.POST)(
+        req(`/api/audits/${w.base.id}/x`, { method: "POST", body: "{}" }),
+        ctx({ id: w.base.id }),
+      );
       expect(anonymous.status).toBe(401);
     }
   });
@@ -123,7 +191,10 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     const res = await call("submit", "technician", id, { note: "Bed 3 had a float fix for a while." });
     expect(res.status).toBe(200);
     const review: ReviewDto = (await res.json()).review;
-    expect(review).toMatchObject({ state: "submitted", submitted: { by: PEOPLE.technician.name, note: "Bed 3 had a float fix for a while." } });
+    expect(review).toMatchObject({
+      state: "submitted",
+      submitted: { by: PEOPLE.technician.name, note: "Bed 3 had a float fix for a while." },
+    });
     const m = await mail.waitFor((x) => x.to.includes(PEOPLE.qa_lead.email));
     expect(m.subject).toBe(`Waiting for your sign-off: Long Acre spring check (computed)`);
     expect(findLink(m.text, "http://localhost:3000/audits/")).toBe(`http://localhost:3000/audits/${id}/review`);
@@ -132,7 +203,17 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
   });
 
   it("sign off -- refused without the deviation comment, an unticked item or the signer's own name (422 naming each)", async () => {
-    const bad = { checklist: { checkpoints: true, instrument: true, instrumentPrecisionMm: 2, controlMark: false, profileFits: true }, comment: "", typedName: "Maren Holt" };
+    const bad = {
+      checklist: {
+        checkpoints: true,
+        instrument: true,
+        instrumentPrecisionMm: 2,
+        controlMark: false,
+        profileFits: true,
+      },
+      comment: "",
+      typedName: "Maren Holt",
+    };
     const res = await call("sign_off", "qa_lead", id, bad);
     expect(res.status).toBe(422);
     const paths = (await res.json()).error.issues.map((i: { path: string[] }) => i.path.join("."));
@@ -146,12 +227,29 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     expect(res.status).toBe(201);
     const review: ReviewDto = (await res.json()).review;
     expect(review.state).toBe("signed_off");
-    expect(review.signoff).toMatchObject({ signerName: PEOPLE.qa_lead.name, signerRole: "qa_lead", deviation: true, typedName: PEOPLE.qa_lead.name });
+    expect(review.signoff).toMatchObject({
+      signerName: PEOPLE.qa_lead.name,
+      signerRole: "qa_lead",
+      deviation: true,
+      typedName: PEOPLE.qa_lead.name,
+    });
     expect(review.signoff!.sha256).toMatch(/^[0-9a-f]{64}$/);
     // The demo survey states its precision in precision_m (2 mm), so it comes from the file, not the signer.
-    expect(review.signoff!.checklist.instrument).toMatchObject({ precisionMm: 2, source: "survey file", tightestLimitMm: 8, ratio: 4 });
+    expect(review.signoff!.checklist.instrument).toMatchObject({
+      precisionMm: 2,
+      source: "survey file",
+      tightestLimitMm: 8,
+      ratio: 4,
+    });
     // The canonical JSON served is exactly what was hashed.
-    const withCanonical: ReviewDto = (await (await routes.signoff.GET(req(`/api/audits/${id}/signoff?canonical=1`, { cookie: w.cookies.grower }), ctx({ id }))).json()).review;
+    const withCanonical: ReviewDto = (
+      await (
+        await routes.signoff.GET(
+          req(`/api/audits/${id}/signoff?canonical=1`, { cookie: w.cookies.grower }),
+          ctx({ id }),
+        )
+      ).json()
+    ).review;
     const { createHash } = await import("node:crypto");
     expect(createHash("sha256").update(withCanonical.signoff!.canonical!).digest("hex")).toBe(review.signoff!.sha256);
     expect(JSON.parse(withCanonical.signoff!.canonical!).inputs.survey.sha256).toBe(w.survey.sha256);
@@ -171,7 +269,10 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
       expect((await res.json()).error.message).toContain("signed off");
     }
     for (const d of [w.survey, w.planted]) {
-      const res = await routes.dataset.DELETE(req(`/api/datasets/${d.id}`, { method: "DELETE", cookie: w.cookies.owner }), ctx({ id: d.id }));
+      const res = await routes.dataset.DELETE(
+        req(`/api/datasets/${d.id}`, { method: "DELETE", cookie: w.cookies.owner }),
+        ctx({ id: d.id }),
+      );
       expect(res.status).toBe(409);
       expect((await res.json()).error.message).toContain("signed-off audit");
     }
@@ -193,10 +294,15 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
       sql`delete from audit_review_event where audit_id = ${id}`,
     ];
     for (const statement of attempts) {
-      const err = await w.db.execute(statement).then(() => null, (e: Error & { cause?: Error }) => e);
+      const err = await w.db.execute(statement).then(
+        () => null,
+        (e: Error & { cause?: Error }) => e,
+      );
       expect(err, "the statement should have been refused").not.toBeNull();
       // drizzle wraps the database's error; the trigger's own message is its cause
-      expect(String(err!.cause?.message ?? err!.message)).toMatch(/^plotproof: .*(signed-off audit|is signed off|never changed or deleted)/);
+      expect(String(err!.cause?.message ?? err!.message)).toMatch(
+        /^plotproof: .*(signed-off audit|is signed off|never changed or deleted)/,
+      );
     }
     expect(await stateOf(w.db, id)).toBe("signed_off");
   });
@@ -208,7 +314,11 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     const res = await call("return", "owner", rid, returnBody);
     expect(res.status).toBe(200);
     const review: ReviewDto = (await res.json()).review;
-    expect(review.returned).toMatchObject({ by: PEOPLE.owner.name, reasons: ["too_few_checkpoints", "other"], comment: returnBody.comment });
+    expect(review.returned).toMatchObject({
+      by: PEOPLE.owner.name,
+      reasons: ["too_few_checkpoints", "other"],
+      comment: returnBody.comment,
+    });
     const m = await mail.waitFor((x) => x.to.includes(PEOPLE.technician.email) && x.subject.startsWith("Returned"));
     expect(m.text).toContain("• Too few checkpoints for this profile");
     await mail.waitFor((x) => x.to.includes(PEOPLE.grower.email) && x.subject.startsWith("Returned"));
@@ -224,19 +334,38 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     expect(again.status).toBe(409);
     expect((await again.json()).error.message).toContain("already has a corrected revision");
 
-    const first: ReviewDto = (await (await routes.signoff.GET(req(`/api/audits/${rid}/signoff`, { cookie: w.cookies.grower }), ctx({ id: rid }))).json()).review;
+    const first: ReviewDto = (
+      await (
+        await routes.signoff.GET(req(`/api/audits/${rid}/signoff`, { cookie: w.cookies.grower }), ctx({ id: rid }))
+      ).json()
+    ).review;
     expect(first).toMatchObject({ state: "returned", revisedBy: second.id, allowed: ["verify"] });
   });
 
   it("activity -- the audit's log names who uploaded, computed, submitted, signed and verified it", async () => {
-    await routes.verify.POST(req(`/api/audits/${id}/verify`, { method: "POST", cookie: w.cookies.grower }), ctx({ id }));
+    await routes.verify.POST(
+      req(`/api/audits/${id}/verify`, { method: "POST", cookie: w.cookies.grower }),
+      ctx({ id }),
+    );
     const res = await routes.activity.GET(req(`/api/audits/${id}/activity`, { cookie: w.cookies.grower }), ctx({ id }));
     const { activity } = await res.json();
     const actions = activity.map((a: { action: string }) => a.action);
-    expect(actions).toEqual(expect.arrayContaining(["dataset.uploaded", "audit.submitted", "mail.sent", "audit.signed_off", "audit.verified"]));
+    expect(actions).toEqual(
+      expect.arrayContaining([
+        "dataset.uploaded",
+        "audit.submitted",
+        "mail.sent",
+        "audit.signed_off",
+        "audit.verified",
+      ]),
+    );
     const texts = activity.map((a: { text: string }) => a.text);
-    expect(texts).toContain(`${PEOPLE.technician.name} uploaded long-acre-survey.csv (survey, ${w.survey.rowCount} rows).`);
-    expect(texts.find((t: string) => t.startsWith(`${PEOPLE.qa_lead.name} signed off revision 1 with deviation`))).toBeTruthy();
+    expect(texts).toContain(
+      `${PEOPLE.technician.name} uploaded long-acre-survey.csv (survey, ${w.survey.rowCount} rows).`,
+    );
+    expect(
+      texts.find((t: string) => t.startsWith(`${PEOPLE.qa_lead.name} signed off revision 1 with deviation`)),
+    ).toBeTruthy();
     expect(texts).toContain(`${PEOPLE.grower.name} verified it: figures and hash match.`);
   });
 });

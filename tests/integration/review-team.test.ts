@@ -20,8 +20,16 @@ let meRoute: typeof import("@/app/api/me/route");
 let accept: typeof import("@/app/(auth)/invite/[invitationId]/accept");
 
 const person = (role: string) => DEMO_PEOPLE.find((p) => p.role === role)!;
-const invite = (cookie: string, body: unknown) => invitationsRoute.POST(req("/api/team/invitations", { method: "POST", cookie, body: JSON.stringify(body) }), ctx({}));
-const memberIdOf = async (email: string) => (await db.select({ id: member.id }).from(member).innerJoin(user, eq(user.id, member.userId)).where(eq(user.email, email)))[0]?.id;
+const invite = (cookie: string, body: unknown) =>
+  invitationsRoute.POST(req("/api/team/invitations", { method: "POST", cookie, body: JSON.stringify(body) }), ctx({}));
+const memberIdOf = async (email: string) =>
+  (
+    await db
+      .select({ id: member.id })
+      .from(member)
+      .innerJoin(user, eq(user.id, member.userId))
+      .where(eq(user.email, email))
+  )[0]?.id;
 
 beforeAll(async () => {
   mail = await captureMail();
@@ -39,7 +47,9 @@ beforeAll(async () => {
   accept = await import("@/app/(auth)/invite/[invitationId]/accept");
 }, 120_000);
 
-afterAll(async () => { await mail?.stop(); });
+afterAll(async () => {
+  await mail?.stop();
+});
 
 describe("team -- invitations by e-mail", () => {
   let inv: InvitationDto;
@@ -57,11 +67,18 @@ describe("team -- invitations by e-mail", () => {
     const body = await res.json();
     inv = body.invitation;
     expect(body.mail).toBe("sent");
-    expect(inv).toMatchObject({ email: "wren@kestrelfen.example", role: "grower", status: "pending", invitedBy: person("owner").name });
+    expect(inv).toMatchObject({
+      email: "wren@kestrelfen.example",
+      role: "grower",
+      status: "pending",
+      invitedBy: person("owner").name,
+    });
     expect(new Date(inv.expiresAt).getTime() - Date.now()).toBeGreaterThan(6.9 * 86_400_000);
     const m = await mail.waitFor((x) => x.to.includes("wren@kestrelfen.example"));
     expect(m.subject).toBe("Join Kestrel Fen Growers on Plotproof");
-    expect(m.text).toContain(`${person("owner").name} has invited you to join Kestrel Fen Growers on Plotproof as Grower.`);
+    expect(m.text).toContain(
+      `${person("owner").name} has invited you to join Kestrel Fen Growers on Plotproof as Grower.`,
+    );
     expect(findLink(m.text, "http://localhost:3000/invite/")).toBe(inv.link);
     expect(inv.link).toBe(`http://localhost:3000/invite/${inv.id}`);
   });
@@ -72,7 +89,14 @@ describe("team -- invitations by e-mail", () => {
     expect((await again.json()).error.message).toContain("already has a pending invitation");
     const theirs = await (await teamRoute.GET(req("/api/team", { cookie: cookies.other }), ctx({}))).json();
     expect(theirs.invitations).toEqual([]);
-    expect((await invitationRoute.DELETE(req(`/api/team/invitations/${inv.id}`, { method: "DELETE", cookie: cookies.other }), ctx({ id: inv.id }))).status).toBe(404);
+    expect(
+      (
+        await invitationRoute.DELETE(
+          req(`/api/team/invitations/${inv.id}`, { method: "DELETE", cookie: cookies.other }),
+          ctx({ id: inv.id }),
+        )
+      ).status,
+    ).toBe(404);
   });
 
   it("invite -- an existing member's address is 409; a bad address or role is 422", async () => {
@@ -86,13 +110,33 @@ describe("team -- invitations by e-mail", () => {
     expect(short).toEqual({ ok: false, errors: { password: "Use 10 to 128 characters." } });
     expect(await memberIdOf("wren@kestrelfen.example")).toBeUndefined();
 
-    const ok = await accept.acceptWithNewAccount(inv.id, { name: "Wren Talbot", password: "wren-fen-2026" }, new Headers());
+    const ok = await accept.acceptWithNewAccount(
+      inv.id,
+      { name: "Wren Talbot", password: "wren-fen-2026" },
+      new Headers(),
+    );
     expect(ok.ok).toBe(true);
-    const me = await (await meRoute.GET(req("/api/me", { cookie: await cookieFor("wren@kestrelfen.example", "wren-fen-2026") }), ctx({}))).json();
-    expect(me).toEqual({ name: "Wren Talbot", email: "wren@kestrelfen.example", role: "grower", organisation: "Kestrel Fen Growers" });
-    const list: InvitationDto[] = (await (await teamRoute.GET(req("/api/team", { cookie: cookies.owner }), ctx({}))).json()).invitations;
+    const me = await (
+      await meRoute.GET(
+        req("/api/me", { cookie: await cookieFor("wren@kestrelfen.example", "wren-fen-2026") }),
+        ctx({}),
+      )
+    ).json();
+    expect(me).toEqual({
+      name: "Wren Talbot",
+      email: "wren@kestrelfen.example",
+      role: "grower",
+      organisation: "Kestrel Fen Growers",
+    });
+    const list: InvitationDto[] = (
+      await (await teamRoute.GET(req("/api/team", { cookie: cookies.owner }), ctx({}))).json()
+    ).invitations;
     expect(list.find((i) => i.id === inv.id)!.status).toBe("accepted");
-    const used = await accept.acceptWithNewAccount(inv.id, { name: "Someone", password: "another-pass-1" }, new Headers());
+    const used = await accept.acceptWithNewAccount(
+      inv.id,
+      { name: "Someone", password: "another-pass-1" },
+      new Headers(),
+    );
     expect(used).toEqual({ ok: false, formError: "This invitation has already been accepted. Sign in instead." });
   });
 
@@ -100,24 +144,46 @@ describe("team -- invitations by e-mail", () => {
     const res = await invite(cookies.owner, { email: OTHER_OWNER.email, role: "technician" });
     expect(res.status).toBe(201);
     const { invitation: i } = await res.json();
-    expect(await accept.acceptWithSignIn(i.id, { password: "wrong-password" }, new Headers())).toEqual({ ok: false, errors: { password: "That password does not match the account." } });
+    expect(await accept.acceptWithSignIn(i.id, { password: "wrong-password" }, new Headers())).toEqual({
+      ok: false,
+      errors: { password: "That password does not match the account." },
+    });
     expect((await accept.acceptWithSignIn(i.id, { password: DEMO_PASSWORD }, new Headers())).ok).toBe(true);
-    const rows = await db.select({ role: member.role }).from(member).innerJoin(user, eq(user.id, member.userId)).where(eq(user.email, OTHER_OWNER.email));
+    const rows = await db
+      .select({ role: member.role })
+      .from(member)
+      .innerJoin(user, eq(user.id, member.userId))
+      .where(eq(user.email, OTHER_OWNER.email));
     expect(rows.map((r) => r.role).sort()).toEqual(["owner", "technician"]);
   });
 
   it("accept -- an expired invitation is refused and creates no account", async () => {
     const res = await invite(cookies.owner, { email: "late@kestrelfen.example", role: "technician" });
     const { invitation: i } = await res.json();
-    await db.update(invitation).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(invitation.id, i.id));
-    const r = await accept.acceptWithNewAccount(i.id, { name: "Late Comer", password: "late-comer-2026" }, new Headers());
-    expect(r).toEqual({ ok: false, formError: "This invitation to Kestrel Fen Growers has expired. Ask its owner to send you a new one." });
+    await db
+      .update(invitation)
+      .set({ expiresAt: new Date(Date.now() - 60_000) })
+      .where(eq(invitation.id, i.id));
+    const r = await accept.acceptWithNewAccount(
+      i.id,
+      { name: "Late Comer", password: "late-comer-2026" },
+      new Headers(),
+    );
+    expect(r).toEqual({
+      ok: false,
+      formError: "This invitation to Kestrel Fen Growers has expired. Ask its owner to send you a new one.",
+    });
     expect((await db.select().from(user).where(eq(user.email, "late@kestrelfen.example"))).length).toBe(0);
-    const listed: InvitationDto[] = (await (await teamRoute.GET(req("/api/team", { cookie: cookies.owner }), ctx({}))).json()).invitations;
+    const listed: InvitationDto[] = (
+      await (await teamRoute.GET(req("/api/team", { cookie: cookies.owner }), ctx({}))).json()
+    ).invitations;
     expect(listed.find((x) => x.id === i.id)!.status).toBe("expired");
     // Re-sending an expired invitation issues a fresh one that works.
     mail.clear();
-    const again = await resendRoute.POST(req(`/api/team/invitations/${i.id}/resend`, { method: "POST", cookie: cookies.owner }), ctx({ id: i.id }));
+    const again = await resendRoute.POST(
+      req(`/api/team/invitations/${i.id}/resend`, { method: "POST", cookie: cookies.owner }),
+      ctx({ id: i.id }),
+    );
     expect(again.status).toBe(200);
     const fresh = (await again.json()).invitation as InvitationDto;
     expect(fresh.status).toBe("pending");
@@ -125,8 +191,17 @@ describe("team -- invitations by e-mail", () => {
   });
 
   it("cancel -- a withdrawn invitation's link stops working", async () => {
-    const { invitation: i } = await (await invite(cookies.owner, { email: "gone@kestrelfen.example", role: "grower" })).json();
-    expect((await invitationRoute.DELETE(req(`/api/team/invitations/${i.id}`, { method: "DELETE", cookie: cookies.owner }), ctx({ id: i.id }))).status).toBe(204);
+    const { invitation: i } = await (
+      await invite(cookies.owner, { email: "gone@kestrelfen.example", role: "grower" })
+    ).json();
+    expect(
+      (
+        await invitationRoute.DELETE(
+          req(`/api/team/invitations/${i.id}`, { method: "DELETE", cookie: cookies.owner }),
+          ctx({ id: i.id }),
+        )
+      ).status,
+    ).toBe(204);
     const r = await accept.acceptWithNewAccount(i.id, { name: "Gone", password: "gone-gone-2026" }, new Headers());
     expect(r.ok).toBe(false);
   });
@@ -135,29 +210,62 @@ describe("team -- invitations by e-mail", () => {
 describe("team -- roles and removal", () => {
   it("change role -- an owner makes the technician a QA lead; others may not; another organisation's member is 404", async () => {
     const techMember = await memberIdOf(person("technician").email);
-    const patch = (cookie: string, id: string, role: string) => memberRoute.PATCH(req(`/api/team/members/${id}`, { method: "PATCH", cookie, body: JSON.stringify({ role }) }), ctx({ memberId: id }));
+    const patch = (cookie: string, id: string, role: string) =>
+      memberRoute.PATCH(
+        req(`/api/team/members/${id}`, { method: "PATCH", cookie, body: JSON.stringify({ role }) }),
+        ctx({ memberId: id }),
+      );
     expect((await patch(cookies.qa_lead, techMember, "qa_lead")).status).toBe(403);
     const res = await patch(cookies.owner, techMember, "qa_lead");
     expect(res.status).toBe(200);
     expect((await res.json()).member).toMatchObject({ email: person("technician").email, role: "qa_lead" });
-    expect((await (await meRoute.GET(req("/api/me", { cookie: cookies.technician }), ctx({}))).json()).role).toBe("qa_lead");
+    expect((await (await meRoute.GET(req("/api/me", { cookie: cookies.technician }), ctx({}))).json()).role).toBe(
+      "qa_lead",
+    );
     expect((await patch(cookies.owner, techMember, "technician")).status).toBe(200);
-    const corinsOwnMembership = (await db.execute<{ id: string }>(sql`select m.id from member m join "user" u on u.id = m.user_id join organization o on o.id = m.organization_id where u.email = ${OTHER_OWNER.email} and o.name = 'Saltings Field Services'`)).rows[0].id;
+    const corinsOwnMembership = (
+      await db.execute<{ id: string }>(
+        sql`select m.id from member m join "user" u on u.id = m.user_id join organization o on o.id = m.organization_id where u.email = ${OTHER_OWNER.email} and o.name = 'Saltings Field Services'`,
+      )
+    ).rows[0].id;
     expect((await patch(cookies.owner, corinsOwnMembership, "grower")).status).toBe(404);
   });
 
   it("change role -- the only owner cannot step down (409 with the reason)", async () => {
     const ownerMember = await memberIdOf(person("owner").email);
-    const res = await memberRoute.PATCH(req(`/api/team/members/${ownerMember}`, { method: "PATCH", cookie: cookies.owner, body: JSON.stringify({ role: "grower" }) }), ctx({ memberId: ownerMember }));
+    const res = await memberRoute.PATCH(
+      req(`/api/team/members/${ownerMember}`, {
+        method: "PATCH",
+        cookie: cookies.owner,
+        body: JSON.stringify({ role: "grower" }),
+      }),
+      ctx({ memberId: ownerMember }),
+    );
     expect(res.status).toBe(409);
-    expect((await res.json()).error.message).toBe("An organisation needs at least one owner: make someone else owner first.");
+    expect((await res.json()).error.message).toBe(
+      "An organisation needs at least one owner: make someone else owner first.",
+    );
   });
 
   it("remove -- an owner removes a member, who can then no longer use the organisation", async () => {
     const wren = await memberIdOf("wren@kestrelfen.example");
     const wrenCookie = await cookieFor("wren@kestrelfen.example", "wren-fen-2026");
-    expect((await memberRoute.DELETE(req(`/api/team/members/${wren}`, { method: "DELETE", cookie: cookies.grower }), ctx({ memberId: wren }))).status).toBe(403);
-    expect((await memberRoute.DELETE(req(`/api/team/members/${wren}`, { method: "DELETE", cookie: cookies.owner }), ctx({ memberId: wren }))).status).toBe(204);
+    expect(
+      (
+        await memberRoute.DELETE(
+          req(`/api/team/members/${wren}`, { method: "DELETE", cookie: cookies.grower }),
+          ctx({ memberId: wren }),
+        )
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await memberRoute.DELETE(
+          req(`/api/team/members/${wren}`, { method: "DELETE", cookie: cookies.owner }),
+          ctx({ memberId: wren }),
+        )
+      ).status,
+    ).toBe(204);
     expect((await meRoute.GET(req("/api/me", { cookie: wrenCookie }), ctx({}))).status).toBe(401);
     const { members } = await (await teamRoute.GET(req("/api/team", { cookie: cookies.owner }), ctx({}))).json();
     expect(members.map((m: { email: string }) => m.email)).not.toContain("wren@kestrelfen.example");
@@ -165,8 +273,20 @@ describe("team -- roles and removal", () => {
 
   it("team changes -- an API key cannot change the team (403)", async () => {
     const keysRoute = await import("@/app/api/keys/route");
-    const { key } = await (await keysRoute.POST(req("/api/keys", { method: "POST", cookie: cookies.owner, body: JSON.stringify({ name: "Script" }) }), ctx({}))).json();
-    const res = await invitationsRoute.POST(req("/api/team/invitations", { method: "POST", headers: { authorization: `Bearer ${key}` }, body: JSON.stringify({ email: "k@kestrelfen.example", role: "grower" }) }), ctx({}));
+    const { key } = await (
+      await keysRoute.POST(
+        req("/api/keys", { method: "POST", cookie: cookies.owner, body: JSON.stringify({ name: "Script" }) }),
+        ctx({}),
+      )
+    ).json();
+    const res = await invitationsRoute.POST(
+      req("/api/team/invitations", {
+        method: "POST",
+        headers: { authorization: `Bearer ${key}` },
+        body: JSON.stringify({ email: "k@kestrelfen.example", role: "grower" }),
+      }),
+      ctx({}),
+    );
     expect(res.status).toBe(403);
     expect((await res.json()).error.message).toContain("API keys cannot change the team");
   });
@@ -193,7 +313,9 @@ describe("password reset by e-mail", () => {
   it("reset -- an unknown address sends nothing and says nothing", async () => {
     const { getAuth } = await import("@/lib/auth");
     mail.clear();
-    const r = await (await getAuth()).api.requestPasswordReset({ body: { email: "nobody@kestrelfen.example", redirectTo: "/reset-password" } });
+    const r = await (await getAuth()).api.requestPasswordReset({
+      body: { email: "nobody@kestrelfen.example", redirectTo: "/reset-password" },
+    });
     expect(r.status).toBe(true);
     await new Promise((res) => setTimeout(res, 300));
     expect(mail.messages).toHaveLength(0);

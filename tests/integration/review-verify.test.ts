@@ -21,18 +21,37 @@ beforeAll(async () => {
   activityRoute = await import("@/app/api/audits/[id]/activity/route");
 }, 180_000);
 
-afterAll(async () => { await mail?.stop(); });
+afterAll(async () => {
+  await mail?.stop();
+});
 
 async function signedAudit(): Promise<{ id: string; sha256: string }> {
   const id = await cloneAudit(w.db, w.base.id, "computed");
-  expect((await submitRoute.POST(req(`/api/audits/${id}/submit`, { method: "POST", cookie: w.cookies.technician }), ctx({ id }))).status).toBe(200);
-  const res = await signoffRoute.POST(req(`/api/audits/${id}/signoff`, { method: "POST", cookie: w.cookies.qa_lead, body: JSON.stringify(signoffBody("qa_lead")) }), ctx({ id }));
+  expect(
+    (
+      await submitRoute.POST(
+        req(`/api/audits/${id}/submit`, { method: "POST", cookie: w.cookies.technician }),
+        ctx({ id }),
+      )
+    ).status,
+  ).toBe(200);
+  const res = await signoffRoute.POST(
+    req(`/api/audits/${id}/signoff`, {
+      method: "POST",
+      cookie: w.cookies.qa_lead,
+      body: JSON.stringify(signoffBody("qa_lead")),
+    }),
+    ctx({ id }),
+  );
   expect(res.status).toBe(201);
   return { id, sha256: (await res.json()).review.signoff.sha256 };
 }
 
 async function verify(id: string): Promise<VerificationDto> {
-  const res = await verifyRoute.POST(req(`/api/audits/${id}/verify`, { method: "POST", cookie: w.cookies.grower }), ctx({ id }));
+  const res = await verifyRoute.POST(
+    req(`/api/audits/${id}/verify`, { method: "POST", cookie: w.cookies.grower }),
+    ctx({ id }),
+  );
   expect(res.status).toBe(200);
   return (await res.json()).verification;
 }
@@ -54,13 +73,31 @@ describe("verify -- re-computing from the raw files against the signed record", 
     const { id, sha256 } = await signedAudit();
     const v = await verify(id);
     expect(v.checks.filter((c) => !c.ok)).toEqual([]);
-    expect(v).toMatchObject({ ok: true, signed: true, signedSha256: sha256, storedSha256: sha256, recomputedSha256: sha256 });
-    expect(v.checks.map((c) => c.id)).toEqual(["record", "raw-files", "stored-points", "raw-files", "stored-points", "stored-results", "recomputed-results", "stored-hash", "recomputed-hash"]);
+    expect(v).toMatchObject({
+      ok: true,
+      signed: true,
+      signedSha256: sha256,
+      storedSha256: sha256,
+      recomputedSha256: sha256,
+    });
+    expect(v.checks.map((c) => c.id)).toEqual([
+      "record",
+      "raw-files",
+      "stored-points",
+      "raw-files",
+      "stored-points",
+      "stored-results",
+      "recomputed-results",
+      "stored-hash",
+      "recomputed-hash",
+    ]);
   });
 
   it("verify -- a residual changed directly in the database is reported as a mismatch, loudly and precisely", async () => {
     const { id, sha256 } = await signedAudit();
-    await tamper(sql`update audit_residual set de = de + 0.003, radial = radial + 0.003 where audit_id = ${id} and seq = 5`);
+    await tamper(
+      sql`update audit_residual set de = de + 0.003, radial = radial + 0.003 where audit_id = ${id} and seq = 5`,
+    );
     const v = await verify(id);
     expect(v.ok).toBe(false);
     expect(v.signedSha256).toBe(sha256);
@@ -69,14 +106,20 @@ describe("verify -- re-computing from the raw files against the signed record", 
     const stored = check(v, "stored-results")[0];
     expect(stored.ok).toBe(false);
     expect(stored.differences!.map((d) => d.path)).toEqual(["results.residuals.sha256"]);
-    expect(stored.text).toMatch(/^The database no longer holds what was signed: results\.residuals\.sha256 was [0-9a-f]{16}…, is [0-9a-f]{16}…$/);
+    expect(stored.text).toMatch(
+      /^The database no longer holds what was signed: results\.residuals\.sha256 was [0-9a-f]{16}…, is [0-9a-f]{16}…$/,
+    );
     expect(check(v, "stored-hash")[0].ok).toBe(false);
     // … while the raw files still reproduce the signed results, which shows where the change was made.
     expect(check(v, "recomputed-results")[0].ok).toBe(true);
     expect(check(v, "recomputed-hash")[0].ok).toBe(true);
     expect(check(v, "record")[0].ok).toBe(true);
-    const { activity } = await (await activityRoute.GET(req(`/api/audits/${id}/activity`, { cookie: w.cookies.owner }), ctx({ id }))).json();
-    expect(activity.at(-1).text).toBe("Ansel Brookes verified it: MISMATCH (Stored results as signed, Hash of the stored audit).");
+    const { activity } = await (
+      await activityRoute.GET(req(`/api/audits/${id}/activity`, { cookie: w.cookies.owner }), ctx({ id }))
+    ).json();
+    expect(activity.at(-1).text).toBe(
+      "Ansel Brookes verified it: MISMATCH (Stored results as signed, Hash of the stored audit).",
+    );
   });
 
   it("verify -- a changed headline figure is named with both values", async () => {
@@ -102,13 +145,17 @@ describe("verify -- re-computing from the raw files against the signed record", 
       expect(check(v, "recomputed-hash")[0].ok).toBe(false);
       expect(check(v, "stored-results")[0].ok).toBe(true);
     } finally {
-      await tamper(sql`update dataset_file set bytes = substring(bytes from 1 for length(bytes) - 1) where dataset_id = ${w.survey.id}`);
+      await tamper(
+        sql`update dataset_file set bytes = substring(bytes from 1 for length(bytes) - 1) where dataset_id = ${w.survey.id}`,
+      );
     }
   });
 
   it("verify -- a changed sign-off record no longer hashes to its own hash", async () => {
     const { id } = await signedAudit();
-    await tamper(sql`update audit_signoff set canonical = replace(canonical, '"deviation":true', '"deviation":false') where audit_id = ${id}`);
+    await tamper(
+      sql`update audit_signoff set canonical = replace(canonical, '"deviation":true', '"deviation":false') where audit_id = ${id}`,
+    );
     const v = await verify(id);
     expect(check(v, "record")[0]).toMatchObject({ ok: false, label: "Sign-off record intact" });
     expect(v.ok).toBe(false);
@@ -119,27 +166,74 @@ describe("verify -- re-computing from the raw files against the signed record", 
     const profileRoute = await import("@/app/api/profiles/[id]/route");
     const weeding = w.profiles.find((p) => p.name === "In-row weeding around plants")!;
     const { id: _i, builtIn: _b, updatedAt: _u, ...copy } = weeding;
-    const created = await profilesRoute.POST(req("/api/profiles", { method: "POST", cookie: w.cookies.qa_lead, body: JSON.stringify({ ...copy, name: "Weeding copy for this test" }) }), ctx({}));
+    const created = await profilesRoute.POST(
+      req("/api/profiles", {
+        method: "POST",
+        cookie: w.cookies.qa_lead,
+        body: JSON.stringify({ ...copy, name: "Weeding copy for this test" }),
+      }),
+      ctx({}),
+    );
     expect(created.status).toBe(201);
     const { profile } = await created.json();
     const id = await cloneAudit(w.db, w.base.id, "computed");
     await w.db.execute(sql`update audit set profile_id = ${profile.id} where id = ${id}`);
-    expect((await submitRoute.POST(req(`/api/audits/${id}/submit`, { method: "POST", cookie: w.cookies.technician }), ctx({ id }))).status).toBe(200);
-    expect((await signoffRoute.POST(req(`/api/audits/${id}/signoff`, { method: "POST", cookie: w.cookies.qa_lead, body: JSON.stringify(signoffBody("qa_lead")) }), ctx({ id }))).status).toBe(201);
-    const del = await profileRoute.DELETE(req(`/api/profiles/${profile.id}`, { method: "DELETE", cookie: w.cookies.qa_lead }), ctx({ id: profile.id }));
+    expect(
+      (
+        await submitRoute.POST(
+          req(`/api/audits/${id}/submit`, { method: "POST", cookie: w.cookies.technician }),
+          ctx({ id }),
+        )
+      ).status,
+    ).toBe(200);
+    expect(
+      (
+        await signoffRoute.POST(
+          req(`/api/audits/${id}/signoff`, {
+            method: "POST",
+            cookie: w.cookies.qa_lead,
+            body: JSON.stringify(signoffBody("qa_lead")),
+          }),
+          ctx({ id }),
+        )
+      ).status,
+    ).toBe(201);
+    const del = await profileRoute.DELETE(
+      req(`/api/profiles/${profile.id}`, { method: "DELETE", cookie: w.cookies.qa_lead }),
+      ctx({ id: profile.id }),
+    );
     expect(del.status).toBe(204);
-    const row = (await w.db.execute<{ profile_id: string | null; state: string }>(sql`select profile_id, state from audit where id = ${id}`)).rows[0];
+    const row = (
+      await w.db.execute<{ profile_id: string | null; state: string }>(
+        sql`select profile_id, state from audit where id = ${id}`,
+      )
+    ).rows[0];
     expect(row).toEqual({ profile_id: null, state: "signed_off" });
     expect((await verify(id)).ok).toBe(true);
     // Clearing the link is the only change let through: anything else on the same row is still refused.
-    const err = await w.db.execute(sql`update audit set profile_id = null, title = 'x' where id = ${id}`).then(() => null, (e: Error & { cause?: Error }) => e);
+    const err = await w.db.execute(sql`update audit set profile_id = null, title = 'x' where id = ${id}`).then(
+      () => null,
+      (e: Error & { cause?: Error }) => e,
+    );
     expect(String(err?.cause?.message ?? err?.message)).toMatch(/^plotproof: audit .* is signed off/);
   });
 
   it("verify -- an audit not yet signed: re-computed results are compared with the stored ones, without hashes", async () => {
     const v = await verify(w.base.id);
-    expect(v).toMatchObject({ ok: true, signed: false, signedSha256: null, storedSha256: null, recomputedSha256: null });
-    expect(v.checks.map((c) => c.id)).toEqual(["raw-files", "stored-points", "raw-files", "stored-points", "recomputed-results"]);
+    expect(v).toMatchObject({
+      ok: true,
+      signed: false,
+      signedSha256: null,
+      storedSha256: null,
+      recomputedSha256: null,
+    });
+    expect(v.checks.map((c) => c.id)).toEqual([
+      "raw-files",
+      "stored-points",
+      "raw-files",
+      "stored-points",
+      "recomputed-results",
+    ]);
     const id = await cloneAudit(w.db, w.base.id, "computed");
     await w.db.execute(sql`update audit_residual set dn = dn - 0.001 where audit_id = ${id} and seq = 0`);
     const bad = await verify(id);

@@ -13,31 +13,59 @@ const PAGE = 50;
 const Query = z.object({ before: z.coerce.number().int().positive().optional() });
 
 /** Who did what in the organisation, newest first. Team and key changes are shown to owners only. */
-export default async function ActivityPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function ActivityPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const viewer = await requirePageViewer();
   const q = Query.safeParse(await searchParams);
   const before = q.success ? q.data.before : undefined;
   const hideTypes = viewer.role === "owner" ? [] : ["member", "invitation", "api_key"];
-  const rows = toActivityDtos(await listOrgActivity(await getDb(), { orgId: viewer.orgId, before, limit: PAGE, hideTypes }));
+  const rows = toActivityDtos(
+    await listOrgActivity(await getDb(), { orgId: viewer.orgId, before, limit: PAGE, hideTypes }),
+  );
   return (
     <>
-      <PageTitle sub={`Everything done in ${viewer.orgName}: uploads, audits, reviews, sign-offs, downloads${viewer.role === "owner" ? ", team changes" : ""} and e-mails.`}>Activity</PageTitle>
+      <PageTitle
+        sub={`Everything done in ${viewer.orgName}: uploads, audits, reviews, sign-offs, downloads${viewer.role === "owner" ? ", team changes" : ""} and e-mails.`}
+      >
+        Activity
+      </PageTitle>
       <Panel title={before ? "Earlier activity" : "Latest activity"}>
-        {rows.length === 0 ? <Empty>Nothing yet.</Empty> : (
+        {rows.length === 0 ? (
+          <Empty>Nothing yet.</Empty>
+        ) : (
           <ol className="divide-y divide-chalk-deep text-sm" data-testid="org-activity">
             {rows.map((a) => (
               <li key={a.id} className="flex gap-4 py-1.5" data-action={a.action}>
                 <span className="w-44 shrink-0 text-ink-faint">{formatDate(a.at)}</span>
                 <span className={a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""}>
-                  {a.text}{a.href ? <> <Link href={a.href} className="text-leaf hover:underline">open</Link></> : null}
+                  {a.text}
+                  {a.href ? (
+                    <>
+                      {" "}
+                      <Link href={a.href} className="text-leaf hover:underline">
+                        open
+                      </Link>
+                    </>
+                  ) : null}
                 </span>
               </li>
             ))}
           </ol>
         )}
         <div className="mt-3 flex gap-4 text-sm">
-          {before ? <Link href="/activity" className="font-medium text-leaf hover:underline">Latest</Link> : null}
-          {rows.length === PAGE ? <Link href={`/activity?before=${rows.at(-1)!.id}`} className="font-medium text-leaf hover:underline">Earlier</Link> : null}
+          {before ? (
+            <Link href="/activity" className="font-medium text-leaf hover:underline">
+              Latest
+            </Link>
+          ) : null}
+          {rows.length === PAGE ? (
+            <Link href={`/activity?before=${rows.at(-1)!.id}`} className="font-medium text-leaf hover:underline">
+              Earlier
+            </Link>
+          ) : null}
         </div>
       </Panel>
     </>

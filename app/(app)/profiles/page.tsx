@@ -11,9 +11,13 @@ export default async function ProfilesPage() {
   const canEdit = CAN_REVIEW.includes(viewer.role);
   return (
     <>
-      <PageTitle sub={canEdit
-        ? "The limits an audit is judged against, one set per field operation. Editing a profile never changes the verdict of a past audit."
-        : "The limits an audit is judged against, one set per field operation. QA leads and owners edit them."}>
+      <PageTitle
+        sub={
+          canEdit
+            ? "The limits an audit is judged against, one set per field operation. Editing a profile never changes the verdict of a past audit."
+            : "The limits an audit is judged against, one set per field operation. QA leads and owners edit them."
+        }
+      >
         Tolerance profiles
       </PageTitle>
       <ProfilesManager canEdit={canEdit} />

@@ -15,11 +15,16 @@ export default async function TeamPage() {
       <PageTitle sub={viewer.orgName}>Team</PageTitle>
       {mail.mode === "capture" ? (
         <p className="mb-4 text-sm text-ink-soft" data-testid="outbox-note">
-          Demo mode: e-mails are not delivered but caught by a local fake mail server. <Link href="/outbox" className="font-medium text-leaf hover:underline">Read them in the outbox</Link>.
+          Demo mode: e-mails are not delivered but caught by a local fake mail server.{" "}
+          <Link href="/outbox" className="font-medium text-leaf hover:underline">
+            Read them in the outbox
+          </Link>
+          .
         </p>
       ) : mail.mode === "off" ? (
         <p className="mb-4 rounded-plot border-l-4 border-stake bg-stake-pale p-3 text-sm">
-          No mail server is configured (SMTP_HOST), so invitations are not e-mailed: copy each invitation&apos;s link and send it yourself.
+          No mail server is configured (SMTP_HOST), so invitations are not e-mailed: copy each invitation&apos;s link
+          and send it yourself.
         </p>
       ) : null}
       <TeamManager viewerEmail={viewer.email} />

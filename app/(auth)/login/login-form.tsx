@@ -22,9 +22,13 @@ export function LoginForm({ next = "/" }: { next?: string }) {
     const { error } = await authClient.signIn.email({ email: parsed.data.email, password: parsed.data.password });
     setPending(false);
     if (error) {
-      setFormError(error.status === 401 || error.code === "INVALID_EMAIL_OR_PASSWORD"
-        ? "That e-mail and password do not match an account. Check both and try again."
-        : error.status === 429 ? "Too many attempts. Wait a minute and try again." : "Sign-in failed. Try again in a moment.");
+      setFormError(
+        error.status === 401 || error.code === "INVALID_EMAIL_OR_PASSWORD"
+          ? "That e-mail and password do not match an account. Check both and try again."
+          : error.status === 429
+            ? "Too many attempts. Wait a minute and try again."
+            : "Sign-in failed. Try again in a moment.",
+      );
       return;
     }
     router.replace(next);
@@ -35,7 +39,13 @@ export function LoginForm({ next = "/" }: { next?: string }) {
     <form onSubmit={onSubmit} noValidate aria-label="Sign in">
       <FormError message={formError} />
       <TextField name="email" label="E-mail" type="email" autoComplete="email" error={errors.email} />
-      <TextField name="password" label="Password" type="password" autoComplete="current-password" error={errors.password} />
+      <TextField
+        name="password"
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password}
+      />
       <SubmitButton pending={pending}>Sign in</SubmitButton>
     </form>
   );

@@ -12,9 +12,16 @@ export default async function LoginPage({ searchParams }: { searchParams: Promis
     <>
       <h1 className="mb-6 text-xl font-semibold">Sign in</h1>
       <LoginForm next={target} />
-      <p className="mt-4 text-sm"><Link href="/reset-password" className="font-medium text-leaf hover:underline">Forgot your password?</Link></p>
+      <p className="mt-4 text-sm">
+        <Link href="/reset-password" className="font-medium text-leaf hover:underline">
+          Forgot your password?
+        </Link>
+      </p>
       <p className="mt-6 text-sm text-ink-soft">
-        New to Plotproof? <Link href="/signup" className="font-medium text-leaf hover:underline">Set up your organisation</Link>
+        New to Plotproof?{" "}
+        <Link href="/signup" className="font-medium text-leaf hover:underline">
+          Set up your organisation
+        </Link>
       </p>
     </>
   );

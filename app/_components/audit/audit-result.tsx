@@ -32,15 +32,26 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
   if (error) {
     const notFound = error instanceof ApiError && error.status === 404;
     return (
-      <div role="alert" className="rounded-plot border border-chalk-line bg-white p-5" data-testid={notFound ? "not-found" : "audit-error"}>
+      <div
+        role="alert"
+        className="rounded-plot border border-chalk-line bg-white p-5"
+        data-testid={notFound ? "not-found" : "audit-error"}
+      >
         <h1 className="text-xl font-semibold">{notFound ? "Nothing here" : "The audit could not be loaded"}</h1>
         <p className="mt-2 text-sm text-ink-soft">
-          {notFound ? "This audit does not exist, or it belongs to an organisation you are not part of." : (error as Error).message}
+          {notFound
+            ? "This audit does not exist, or it belongs to an organisation you are not part of."
+            : (error as Error).message}
         </p>
       </div>
     );
   }
-  if (!data) return <p className="text-sm text-ink-faint" aria-busy="true">Loading the audit…</p>;
+  if (!data)
+    return (
+      <p className="text-sm text-ink-faint" aria-busy="true">
+        Loading the audit…
+      </p>
+    );
 
   const audit = data.audit;
   const done = audit.state !== "computing" && audit.state !== "failed" && audit.summary !== null;
@@ -48,12 +59,16 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
     <div className="grid gap-6" data-testid="audit-result" data-state={audit.state}>
       <header>
         <p className="text-sm text-ink-soft">
-          <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">{audit.field.name}</Link>
+          <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">
+            {audit.field.name}
+          </Link>
           {" · "}audit
         </p>
         <h1 className="text-xl font-semibold tracking-tight">{audit.title}</h1>
         <p className="mt-1 text-sm text-ink-soft">
-          <span className="font-medium text-ink" data-testid="audit-state">{STATE_LABEL[audit.state] ?? audit.state}</span>
+          <span className="font-medium text-ink" data-testid="audit-state">
+            {STATE_LABEL[audit.state] ?? audit.state}
+          </span>
           {" · "}created {formatDate(audit.createdAt)}
           {audit.computedAt ? <> · computed {formatDate(audit.computedAt)}</> : null}
         </p>
@@ -61,12 +76,20 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
         <div className="mt-3 flex flex-wrap items-center gap-3">
           {done ? <DownloadLinks auditId={audit.id} /> : null}
           {done ? (
-            <Link href={`/audits/${audit.id}/map`} className="text-sm font-medium text-leaf underline-offset-2 hover:underline" data-testid="map-link">
+            <Link
+              href={`/audits/${audit.id}/map`}
+              className="text-sm font-medium text-leaf underline-offset-2 hover:underline"
+              data-testid="map-link"
+            >
               Open the field map
             </Link>
           ) : null}
           {canPrepare ? (
-            <Link href={`/fields/${audit.field.id}/audits/new`} className="text-sm font-medium text-leaf underline-offset-2 hover:underline" data-testid="new-audit-link">
+            <Link
+              href={`/fields/${audit.field.id}/audits/new`}
+              className="text-sm font-medium text-leaf underline-offset-2 hover:underline"
+              data-testid="new-audit-link"
+            >
               Run another audit on this field
             </Link>
           ) : null}
@@ -76,10 +99,16 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
       {done ? <ReviewBar auditId={audit.id} /> : null}
       {audit.state === "computing" ? <AuditProgress audit={audit} /> : null}
       {audit.state === "failed" ? (
-        <section role="alert" className="rounded-plot border-l-4 border-alarm bg-alarm-pale p-5" data-testid="audit-failed">
+        <section
+          role="alert"
+          className="rounded-plot border-l-4 border-alarm bg-alarm-pale p-5"
+          data-testid="audit-failed"
+        >
           <h2 className="text-base font-semibold">The audit could not be computed</h2>
           <p className="mt-1 text-sm">{audit.error ?? "No reason was recorded."}</p>
-          {canPrepare ? <p className="mt-2 text-sm">Check the two files and the pairing settings, then run the audit again.</p> : null}
+          {canPrepare ? (
+            <p className="mt-2 text-sm">Check the two files and the pairing settings, then run the audit again.</p>
+          ) : null}
         </section>
       ) : null}
 
@@ -102,24 +131,65 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
 function AuditInputs({ audit }: { audit: AuditDto }) {
   const p = audit.profile;
   const st = audit.settings;
-  const limits = p ? [
-    p.radialM !== null ? `radial ${formatMm(p.radialM)}` : null,
-    p.crossM !== null ? `cross-row ${formatMm(p.crossM)}` : null,
-    p.alongM !== null ? `along-row ${formatMm(p.alongM)}` : null,
-  ].filter(Boolean).join(", ") : "";
-  const match = st ? { auto: "by plant id, else by position", id: "by plant id only", nearest: "by position only" }[st.match] : null;
+  const limits = p
+    ? [
+        p.radialM !== null ? `radial ${formatMm(p.radialM)}` : null,
+        p.crossM !== null ? `cross-row ${formatMm(p.crossM)}` : null,
+        p.alongM !== null ? `along-row ${formatMm(p.alongM)}` : null,
+      ]
+        .filter(Boolean)
+        .join(", ")
+    : "";
+  const match = st
+    ? { auto: "by plant id, else by position", id: "by plant id only", nearest: "by position only" }[st.match]
+    : null;
   return (
     <dl className="mt-3 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-[9rem_1fr]" data-testid="audit-inputs">
       <dt className="text-ink-faint">As-planted file</dt>
-      <dd>{audit.planted ? <>{audit.planted.fileName} <span className="text-ink-faint">({audit.planted.rowCount} rows, SHA-256 {audit.planted.sha256.slice(0, 12)}…)</span></> : "removed"}</dd>
+      <dd>
+        {audit.planted ? (
+          <>
+            {audit.planted.fileName}{" "}
+            <span className="text-ink-faint">
+              ({audit.planted.rowCount} rows, SHA-256 {audit.planted.sha256.slice(0, 12)}…)
+            </span>
+          </>
+        ) : (
+          "removed"
+        )}
+      </dd>
       <dt className="text-ink-faint">Survey file</dt>
-      <dd>{audit.survey ? <>{audit.survey.fileName} <span className="text-ink-faint">({audit.survey.rowCount} rows, SHA-256 {audit.survey.sha256.slice(0, 12)}…)</span></> : "removed"}</dd>
+      <dd>
+        {audit.survey ? (
+          <>
+            {audit.survey.fileName}{" "}
+            <span className="text-ink-faint">
+              ({audit.survey.rowCount} rows, SHA-256 {audit.survey.sha256.slice(0, 12)}…)
+            </span>
+          </>
+        ) : (
+          "removed"
+        )}
+      </dd>
       <dt className="text-ink-faint">Tolerance profile</dt>
-      <dd>{p ? <>{p.name} — {limits || "no limits"}; {formatPct(p.requiredShare, 0)} of plants at {formatPct(p.confidence, 0)} confidence; at least {p.minCheckpoints} checkpoints</> : "none"}</dd>
+      <dd>
+        {p ? (
+          <>
+            {p.name} — {limits || "no limits"}; {formatPct(p.requiredShare, 0)} of plants at{" "}
+            {formatPct(p.confidence, 0)} confidence; at least {p.minCheckpoints} checkpoints
+          </>
+        ) : (
+          "none"
+        )}
+      </dd>
       {st ? (
         <>
           <dt className="text-ink-faint">Pairing</dt>
-          <dd>{match}, at most {formatMm(st.maxDistanceM)} apart; {st.rowBearingDeg !== null ? `rows at ${st.rowBearingDeg}°` : "row direction from the field or the records"}; grid {st.workCrs}</dd>
+          <dd>
+            {match}, at most {formatMm(st.maxDistanceM)} apart;{" "}
+            {st.rowBearingDeg !== null ? `rows at ${st.rowBearingDeg}°` : "row direction from the field or the records"}
+            ; grid {st.workCrs}
+          </dd>
         </>
       ) : null}
     </dl>

@@ -27,13 +27,19 @@ export interface GroupJudgement {
 export function judgeGroup(g: GroupRow, profile: AuditDto["profile"]): GroupJudgement | null {
   if (!profile) return null;
   const out: string[] = [];
-  if (profile.radialM !== null && g.r95 > profile.radialM) out.push(`R95 ${formatMm(g.r95)} is over the ${formatMm(profile.radialM)} radial limit`);
+  if (profile.radialM !== null && g.r95 > profile.radialM)
+    out.push(`R95 ${formatMm(g.r95)} is over the ${formatMm(profile.radialM)} radial limit`);
   if (g.withinShare !== null && g.withinShare < profile.requiredShare) {
     out.push(`${formatPct(g.withinShare)} within tolerance, the profile asks for ${formatPct(profile.requiredShare)}`);
   }
   if (out.length) return { status: "out", reasons: out };
   if (g.lower95 !== null && g.lower95 < profile.requiredShare) {
-    return { status: "unproven", reasons: [`${g.pairs} checkpoints show only at least ${formatPct(g.lower95)} within tolerance; the profile asks for ${formatPct(profile.requiredShare)}`] };
+    return {
+      status: "unproven",
+      reasons: [
+        `${g.pairs} checkpoints show only at least ${formatPct(g.lower95)} within tolerance; the profile asks for ${formatPct(profile.requiredShare)}`,
+      ],
+    };
   }
   return { status: "ok", reasons: [] };
 }
@@ -48,7 +54,9 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
   const hasRowFrame = summary.rowBearingDeg !== null;
   return (
     <section aria-labelledby="groups-heading" data-testid="breakdowns">
-      <h2 id="groups-heading" className="mb-1 text-base font-semibold">Breakdown</h2>
+      <h2 id="groups-heading" className="mb-1 text-base font-semibold">
+        Breakdown
+      </h2>
       <p className="mb-3 text-sm text-ink-soft">
         {audit.profile
           ? "Out: the group's 95 % radius is over the profile's radial limit, or fewer of its plants than required are within tolerance. Unproven: the plants look within tolerance, but the group has too few checkpoints to show the required share with the profile's confidence."
@@ -64,39 +72,93 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                 <caption className="mb-2 text-left font-semibold">{meta.title}</caption>
                 <thead className="text-xs text-ink-faint">
                   <tr>
-                    <th scope="col" className="py-1 pr-2 font-medium">{meta.key}</th>
-                    <th scope="col" className="pr-2 text-right font-medium">Pairs</th>
-                    <th scope="col" className="pr-2 text-right font-medium">Bias E / N</th>
-                    <th scope="col" className="pr-2 text-right font-medium">RMSE</th>
-                    {hasRowFrame ? <th scope="col" className="pr-2 text-right font-medium">Cross RMSE</th> : null}
-                    <th scope="col" className="pr-2 text-right font-medium">R95</th>
-                    <th scope="col" className="pr-2 text-right font-medium">Within (interval)</th>
-                    <th scope="col" className="font-medium">Against the profile</th>
+                    <th scope="col" className="py-1 pr-2 font-medium">
+                      {meta.key}
+                    </th>
+                    <th scope="col" className="pr-2 text-right font-medium">
+                      Pairs
+                    </th>
+                    <th scope="col" className="pr-2 text-right font-medium">
+                      Bias E / N
+                    </th>
+                    <th scope="col" className="pr-2 text-right font-medium">
+                      RMSE
+                    </th>
+                    {hasRowFrame ? (
+                      <th scope="col" className="pr-2 text-right font-medium">
+                        Cross RMSE
+                      </th>
+                    ) : null}
+                    <th scope="col" className="pr-2 text-right font-medium">
+                      R95
+                    </th>
+                    <th scope="col" className="pr-2 text-right font-medium">
+                      Within (interval)
+                    </th>
+                    <th scope="col" className="font-medium">
+                      Against the profile
+                    </th>
                   </tr>
                 </thead>
                 <tbody className="divide-y divide-chalk-deep">
                   {rows.map((g) => {
                     const j = judgeGroup(g, audit.profile);
                     return (
-                      <tr key={g.key ?? "(missing)"} className={j?.status === "out" ? "bg-alarm-pale/60" : undefined}
-                        data-group-key={g.key ?? ""} data-out={j?.status === "out" ? "true" : "false"} data-status={j?.status ?? "none"}>
-                        <th scope="row" className="py-1.5 pr-2 font-medium whitespace-nowrap">{g.key ?? <span className="text-ink-faint">missing</span>}</th>
+                      <tr
+                        key={g.key ?? "(missing)"}
+                        className={j?.status === "out" ? "bg-alarm-pale/60" : undefined}
+                        data-group-key={g.key ?? ""}
+                        data-out={j?.status === "out" ? "true" : "false"}
+                        data-status={j?.status ?? "none"}
+                      >
+                        <th scope="row" className="py-1.5 pr-2 font-medium whitespace-nowrap">
+                          {g.key ?? <span className="text-ink-faint">missing</span>}
+                        </th>
                         <td className="pr-2 text-right">{g.pairs}</td>
-                        <td className="pr-2 text-right whitespace-nowrap">{formatSignedMm(g.meanDE).replace(" mm", "")} / {formatSignedMm(g.meanDN)}</td>
+                        <td className="pr-2 text-right whitespace-nowrap">
+                          {formatSignedMm(g.meanDE).replace(" mm", "")} / {formatSignedMm(g.meanDN)}
+                        </td>
                         <td className="pr-2 text-right whitespace-nowrap">{formatMm(g.rmseR)}</td>
-                        {hasRowFrame ? <td className="pr-2 text-right whitespace-nowrap">{formatMm(g.rmseCross)}</td> : null}
+                        {hasRowFrame ? (
+                          <td className="pr-2 text-right whitespace-nowrap">{formatMm(g.rmseCross)}</td>
+                        ) : null}
                         <td className="pr-2 text-right whitespace-nowrap">{formatMm(g.r95)}</td>
                         <td className="pr-2 text-right whitespace-nowrap">
-                          {g.withinShare === null ? "–" : <>{formatPct(g.withinShare, 0)} <span className="text-xs text-ink-faint">({formatPct(g.lower95, 0)}–{formatPct(g.upper95, 0)})</span></>}
+                          {g.withinShare === null ? (
+                            "–"
+                          ) : (
+                            <>
+                              {formatPct(g.withinShare, 0)}{" "}
+                              <span className="text-xs text-ink-faint">
+                                ({formatPct(g.lower95, 0)}–{formatPct(g.upper95, 0)})
+                              </span>
+                            </>
+                          )}
                         </td>
                         <td className="min-w-64 py-1.5">
-                          {!j ? "–" : j.status === "unproven" ? (
+                          {!j ? (
+                            "–"
+                          ) : j.status === "unproven" ? (
                             <span className="inline-flex items-center gap-1.5 text-sm font-semibold text-loam">
-                              <svg viewBox="0 0 16 16" className="h-4 w-4" aria-hidden="true"><circle cx="8" cy="8" r="6.5" fill="none" stroke="currentColor" strokeWidth="1.8" /><path d="M8 4.5v4.2M8 11.2v.3" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" /></svg>
+                              <svg viewBox="0 0 16 16" className="h-4 w-4" aria-hidden="true">
+                                <circle cx="8" cy="8" r="6.5" fill="none" stroke="currentColor" strokeWidth="1.8" />
+                                <path
+                                  d="M8 4.5v4.2M8 11.2v.3"
+                                  stroke="currentColor"
+                                  strokeWidth="1.8"
+                                  strokeLinecap="round"
+                                />
+                              </svg>
                               Unproven
                             </span>
-                          ) : <PassMark passed={j.status === "ok"} passWord="OK" failWord="Out" />}
-                          {j && j.reasons.length ? <span className={`block text-xs ${j.status === "out" ? "text-alarm" : "text-ink-soft"}`}>{j.reasons.join("; ")}</span> : null}
+                          ) : (
+                            <PassMark passed={j.status === "ok"} passWord="OK" failWord="Out" />
+                          )}
+                          {j && j.reasons.length ? (
+                            <span className={`block text-xs ${j.status === "out" ? "text-alarm" : "text-ink-soft"}`}>
+                              {j.reasons.join("; ")}
+                            </span>
+                          ) : null}
                         </td>
                       </tr>
                     );

@@ -1,7 +1,17 @@
 import type { AuditSummary } from "@/lib/api-types";
 import { formatCount, formatIntervalMm, formatMm, formatPct, formatSignedMm } from "./format";
 
-function Figure({ label, value, detail, testId }: { label: string; value: React.ReactNode; detail?: React.ReactNode; testId?: string }) {
+function Figure({
+  label,
+  value,
+  detail,
+  testId,
+}: {
+  label: string;
+  value: React.ReactNode;
+  detail?: React.ReactNode;
+  testId?: string;
+}) {
   return (
     <div className="rounded-plot border border-chalk-line bg-white p-4" data-testid={testId}>
       <dt className="text-xs font-medium uppercase tracking-wide text-ink-faint">{label}</dt>
@@ -25,7 +35,9 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
   const hasRowFrame = s.rowBearingDeg !== null;
   return (
     <section aria-labelledby="figures-heading" data-testid="headline-figures">
-      <h2 id="figures-heading" className="mb-3 text-base font-semibold">Headline figures</h2>
+      <h2 id="figures-heading" className="mb-3 text-base font-semibold">
+        Headline figures
+      </h2>
       <p className="mb-3 text-sm text-ink-soft">
         Errors are survey minus as-planted, in millimetres on the {s.crs} grid.{" "}
         {hasRowFrame
@@ -34,66 +46,116 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
       </p>
       <dl className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <Figure
-          testId="figure-pairs" label="Checkpoints paired" value={formatCount(s.pairs)}
+          testId="figure-pairs"
+          label="Checkpoints paired"
+          value={formatCount(s.pairs)}
           detail={`${formatCount(s.pairedById)} by plant id, ${formatCount(s.pairedByPosition)} by position${s.pairedBeyondMaxDistance ? `; ${s.pairedBeyondMaxDistance} by id beyond the maximum distance` : ""}`}
         />
         <Figure
-          testId="figure-bias" label="Bias east / north" value={`${formatSignedMm(s.meanDE)} / ${formatSignedMm(s.meanDN)}`}
+          testId="figure-bias"
+          label="Bias east / north"
+          value={`${formatSignedMm(s.meanDE)} / ${formatSignedMm(s.meanDN)}`}
           detail={`${conf} intervals: east ${formatIntervalMm(s.meanDECi)}, north ${formatIntervalMm(s.meanDNCi)}`}
         />
         <Figure
-          testId="figure-rmse" label="RMSE horizontal" value={formatMm(s.rmseR)}
+          testId="figure-rmse"
+          label="RMSE horizontal"
+          value={formatMm(s.rmseR)}
           detail={`east ${formatMm(s.rmseE)}, north ${formatMm(s.rmseN)}`}
         />
         <Figure
-          testId="figure-cep" label="CEP (half of plants within)" value={formatMm(s.cep50)}
-          detail={<>measured; <span className="text-ink-faint">circular-normal model {formatMm(s.cep50Model)}</span></>}
+          testId="figure-cep"
+          label="CEP (half of plants within)"
+          value={formatMm(s.cep50)}
+          detail={
+            <>
+              measured; <span className="text-ink-faint">circular-normal model {formatMm(s.cep50Model)}</span>
+            </>
+          }
         />
         <Figure
-          testId="figure-r95" label="95 % radius (R95)" value={formatMm(s.r95)}
-          detail={<>measured; <span className="text-ink-faint">circular-normal model {formatMm(s.r95Model)}</span></>}
+          testId="figure-r95"
+          label="95 % radius (R95)"
+          value={formatMm(s.r95)}
+          detail={
+            <>
+              measured; <span className="text-ink-faint">circular-normal model {formatMm(s.r95Model)}</span>
+            </>
+          }
         />
         <Figure
-          testId="figure-nssda" label="NSSDA accuracy at 95 %" value={formatMm(s.nssda95)}
-          detail={s.nssdaNote ?? (s.nssdaCase ? NSSDA_CASE[s.nssdaCase] ?? s.nssdaCase : null)}
+          testId="figure-nssda"
+          label="NSSDA accuracy at 95 %"
+          value={formatMm(s.nssda95)}
+          detail={s.nssdaNote ?? (s.nssdaCase ? (NSSDA_CASE[s.nssdaCase] ?? s.nssdaCase) : null)}
         />
         <Figure
-          testId="figure-cross" label="Cross-row RMSE / mean" value={hasRowFrame ? `${formatMm(s.rmseCross)} / ${formatSignedMm(s.meanCross)}` : "–"}
+          testId="figure-cross"
+          label="Cross-row RMSE / mean"
+          value={hasRowFrame ? `${formatMm(s.rmseCross)} / ${formatSignedMm(s.meanCross)}` : "–"}
           detail={hasRowFrame ? "mean positive = right of the row direction" : "needs a row direction"}
         />
         <Figure
-          testId="figure-along" label="Along-row RMSE / mean" value={hasRowFrame ? `${formatMm(s.rmseAlong)} / ${formatSignedMm(s.meanAlong)}` : "–"}
+          testId="figure-along"
+          label="Along-row RMSE / mean"
+          value={hasRowFrame ? `${formatMm(s.rmseAlong)} / ${formatSignedMm(s.meanAlong)}` : "–"}
           detail={hasRowFrame ? "mean positive = ahead in the row direction" : "needs a row direction"}
         />
         <Figure
-          testId="figure-within" label="Within tolerance" value={w ? formatPct(w.share) : "–"}
-          detail={w
-            ? `${formatCount(w.within)} of ${formatCount(w.n)} plants; ${Math.round(w.confidence * 100)} % interval ${formatPct(w.lower95)} – ${formatPct(w.upper95)}`
-            : "no tolerance limits were set"}
+          testId="figure-within"
+          label="Within tolerance"
+          value={w ? formatPct(w.share) : "–"}
+          detail={
+            w
+              ? `${formatCount(w.within)} of ${formatCount(w.n)} plants; ${Math.round(w.confidence * 100)} % interval ${formatPct(w.lower95)} – ${formatPct(w.upper95)}`
+              : "no tolerance limits were set"
+          }
         />
         <Figure
-          testId="figure-outliers" label="Outliers" value={formatCount(s.outliers.count)}
-          detail={<>
-            farther than {formatMm(s.outliers.threshold)} from the median error
-            {s.withoutOutliers && s.outliers.count > 0 ? <>; without them RMSE {formatMm(s.withoutOutliers.rmseR)}, R95 {formatMm(s.withoutOutliers.r95)}</> : null}
-          </>}
+          testId="figure-outliers"
+          label="Outliers"
+          value={formatCount(s.outliers.count)}
+          detail={
+            <>
+              farther than {formatMm(s.outliers.threshold)} from the median error
+              {s.withoutOutliers && s.outliers.count > 0 ? (
+                <>
+                  ; without them RMSE {formatMm(s.withoutOutliers.rmseR)}, R95 {formatMm(s.withoutOutliers.r95)}
+                </>
+              ) : null}
+            </>
+          }
         />
         <Figure
-          testId="figure-helmert" label="Similarity fit (Helmert)"
+          testId="figure-helmert"
+          label="Similarity fit (Helmert)"
           value={s.helmert ? `${formatSignedPpm(s.helmert.scale)} · ${formatArcsec(s.helmert.rotationArcsec)}` : "–"}
-          detail={s.helmert
-            ? <>scale and rotation; shifts east {formatSignedM(s.helmert.tE)}, north {formatSignedM(s.helmert.tN)} (they depend on the grid origin); fit residual {formatMm(s.helmert.rmse)}</>
-            : "needs at least two pairs"}
+          detail={
+            s.helmert ? (
+              <>
+                scale and rotation; shifts east {formatSignedM(s.helmert.tE)}, north {formatSignedM(s.helmert.tN)} (they
+                depend on the grid origin); fit residual {formatMm(s.helmert.rmse)}
+              </>
+            ) : (
+              "needs at least two pairs"
+            )
+          }
         />
         <Figure
-          testId="figure-unpaired" label="Left unpaired" value={formatCount(s.unmatchedPlanted + s.unmatchedSurvey + s.ambiguousSurvey)}
+          testId="figure-unpaired"
+          label="Left unpaired"
+          value={formatCount(s.unmatchedPlanted + s.unmatchedSurvey + s.ambiguousSurvey)}
           detail={`${formatCount(s.unmatchedPlanted)} planted not found, ${formatCount(s.unmatchedSurvey)} surveyed not planted, ${formatCount(s.ambiguousSurvey)} ambiguous`}
         />
       </dl>
       {s.raw ? <RawComparison summary={s} /> : null}
       {s.notes.length > 0 ? (
         <ul className="mt-3 space-y-1 text-sm text-ink-soft" aria-label="Notes on the result">
-          {s.notes.map((n) => <li key={n.code} data-note={n.code}>Note: {n.message}</li>)}
+          {s.notes.map((n) => (
+            <li key={n.code} data-note={n.code}>
+              Note: {n.message}
+            </li>
+          ))}
         </ul>
       ) : null}
     </section>
@@ -102,17 +164,22 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
 
 function RawComparison({ summary }: { summary: AuditSummary }) {
   const raw = summary.raw!;
-  const before = raw.rmseR, after = summary.rmseR;
+  const before = raw.rmseR,
+    after = summary.rmseR;
   let sentence: string;
-  if (before === null || after === null) sentence = "Raw GNSS positions were present, but no RMSE could be computed for them.";
-  else if (after < before) sentence = `Camera correction reduced the horizontal RMSE from ${formatMm(before)} to ${formatMm(after)}.`;
-  else if (after > before) sentence = `Camera correction increased the horizontal RMSE from ${formatMm(before)} to ${formatMm(after)} — check the camera calibration.`;
+  if (before === null || after === null)
+    sentence = "Raw GNSS positions were present, but no RMSE could be computed for them.";
+  else if (after < before)
+    sentence = `Camera correction reduced the horizontal RMSE from ${formatMm(before)} to ${formatMm(after)}.`;
+  else if (after > before)
+    sentence = `Camera correction increased the horizontal RMSE from ${formatMm(before)} to ${formatMm(after)} — check the camera calibration.`;
   else sentence = `Camera correction left the horizontal RMSE unchanged at ${formatMm(after)}.`;
   return (
     <div className="mt-3 rounded-plot border border-chalk-line bg-white p-4 text-sm" data-testid="raw-comparison">
       <p className="font-medium">{sentence}</p>
       <p className="mt-1 text-ink-soft">
-        Raw GNSS (before camera correction) over {formatCount(raw.pairs)} plants: R95 {formatMm(raw.r95)}, bias {formatSignedMm(raw.meanDE)} east / {formatSignedMm(raw.meanDN)} north
+        Raw GNSS (before camera correction) over {formatCount(raw.pairs)} plants: R95 {formatMm(raw.r95)}, bias{" "}
+        {formatSignedMm(raw.meanDE)} east / {formatSignedMm(raw.meanDN)} north
         {summary.rowBearingDeg !== null ? <>, cross-row RMSE {formatMm(raw.rmseCross)}</> : null}.
         {raw.missingRaw > 0 ? ` ${formatCount(raw.missingRaw)} paired plants had no raw position.` : ""}
       </p>

@@ -1,6 +1,14 @@
 /** Pass / fail shown by icon and word, never by colour alone. */
-export function PassMark({ passed, passWord = "Pass", failWord = "Fail", size = "sm" }: {
-  passed: boolean; passWord?: string; failWord?: string; size?: "sm" | "lg";
+export function PassMark({
+  passed,
+  passWord = "Pass",
+  failWord = "Fail",
+  size = "sm",
+}: {
+  passed: boolean;
+  passWord?: string;
+  failWord?: string;
+  size?: "sm" | "lg";
 }) {
   const box = size === "lg" ? "h-6 w-6" : "h-4 w-4";
   return (
@@ -11,7 +19,14 @@ export function PassMark({ passed, passWord = "Pass", failWord = "Fail", size = 
       {passed ? (
         <svg viewBox="0 0 16 16" className={box} aria-hidden="true">
           <circle cx="8" cy="8" r="7" fill="currentColor" />
-          <path d="M4.5 8.3l2.3 2.3 4.7-5" stroke="#fff" strokeWidth="1.8" fill="none" strokeLinecap="round" strokeLinejoin="round" />
+          <path
+            d="M4.5 8.3l2.3 2.3 4.7-5"
+            stroke="#fff"
+            strokeWidth="1.8"
+            fill="none"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </svg>
       ) : (
         <svg viewBox="0 0 16 16" className={box} aria-hidden="true">

@@ -22,10 +22,18 @@ export function VerdictPanel({ audit }: { audit: AuditDto }) {
   const { verdict, profile } = audit;
   if (!verdict) {
     return (
-      <section aria-labelledby="verdict-heading" className="rounded-plot border border-chalk-line bg-white p-5" data-testid="verdict">
-        <h2 id="verdict-heading" className="text-base font-semibold">Verdict</h2>
+      <section
+        aria-labelledby="verdict-heading"
+        className="rounded-plot border border-chalk-line bg-white p-5"
+        data-testid="verdict"
+      >
+        <h2 id="verdict-heading" className="text-base font-semibold">
+          Verdict
+        </h2>
         <p className="mt-2 text-sm text-ink-soft">
-          {profile ? "No verdict was stored for this audit." : "This audit was run without a tolerance profile, so there is no pass or fail — only the figures below."}
+          {profile
+            ? "No verdict was stored for this audit."
+            : "This audit was run without a tolerance profile, so there is no pass or fail — only the figures below."}
         </p>
       </section>
     );
@@ -38,9 +46,15 @@ export function VerdictPanel({ audit }: { audit: AuditDto }) {
       data-passed={verdict.passed ? "true" : "false"}
     >
       <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
-        <h2 id="verdict-heading" className="text-base font-semibold">Verdict</h2>
+        <h2 id="verdict-heading" className="text-base font-semibold">
+          Verdict
+        </h2>
         <PassMark passed={verdict.passed} passWord="Passed" failWord="Failed" size="lg" />
-        {profile ? <span className="text-sm text-ink-soft">against the profile “{profile.name}” ({profile.operation})</span> : null}
+        {profile ? (
+          <span className="text-sm text-ink-soft">
+            against the profile “{profile.name}” ({profile.operation})
+          </span>
+        ) : null}
       </div>
       <p className="mt-2 text-sm text-ink-soft">
         {verdict.passed
@@ -49,12 +63,21 @@ export function VerdictPanel({ audit }: { audit: AuditDto }) {
       </p>
       <ul className="mt-4 divide-y divide-chalk-deep" aria-label="Criteria">
         {verdict.criteria.map((c) => (
-          <li key={c.id} className="grid gap-x-4 gap-y-1 py-2 sm:grid-cols-[7rem_14rem_1fr]" data-testid="criterion" data-criterion={c.id} data-pass={c.passed ? "true" : "false"}>
+          <li
+            key={c.id}
+            className="grid gap-x-4 gap-y-1 py-2 sm:grid-cols-[7rem_14rem_1fr]"
+            data-testid="criterion"
+            data-criterion={c.id}
+            data-pass={c.passed ? "true" : "false"}
+          >
             <PassMark passed={c.passed} />
             <span className="text-sm font-medium">{CRITERION_NAME[c.id]}</span>
             <span className="text-sm">
               {c.text}
-              <span className="sr-only"> (measured {figure(c.observed, c.unit)}, limit {figure(c.limit, c.unit)})</span>
+              <span className="sr-only">
+                {" "}
+                (measured {figure(c.observed, c.unit)}, limit {figure(c.limit, c.unit)})
+              </span>
             </span>
           </li>
         ))}

@@ -45,14 +45,25 @@ export interface Bin {
 export function histogram(values: ArrayLike<number>, min: number, max: number, step: number): Bin[] {
   const n = Math.max(1, Math.round((max - min) / step));
   const bins: Bin[] = Array.from({ length: n }, (_, i) => ({
-    from: min + i * step, to: min + (i + 1) * step, mid: min + (i + 0.5) * step, count: 0, overflow: false, underflow: false,
+    from: min + i * step,
+    to: min + (i + 1) * step,
+    mid: min + (i + 0.5) * step,
+    count: 0,
+    overflow: false,
+    underflow: false,
   }));
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
     if (Number.isNaN(v)) continue;
     let k = Math.floor((v - min) / step);
-    if (k < 0) { k = 0; if (v < min) bins[0].underflow = true; }
-    if (k >= n) { k = n - 1; if (v >= max) bins[n - 1].overflow = true; }
+    if (k < 0) {
+      k = 0;
+      if (v < min) bins[0].underflow = true;
+    }
+    if (k >= n) {
+      k = n - 1;
+      if (v >= max) bins[n - 1].overflow = true;
+    }
     bins[k].count++;
   }
   return bins;
@@ -63,7 +74,9 @@ export function histogram(values: ArrayLike<number>, min: number, max: number, s
  * (all values when there are fewer). Input need not be sorted.
  */
 export function cumulativeCurve(values: ArrayLike<number>, maxPoints = 240): { x: number; pct: number }[] {
-  const sorted = Array.from(values).filter((v) => !Number.isNaN(v)).sort((a, b) => a - b);
+  const sorted = Array.from(values)
+    .filter((v) => !Number.isNaN(v))
+    .sort((a, b) => a - b);
   const n = sorted.length;
   if (n === 0) return [];
   const points: { x: number; pct: number }[] = [{ x: 0, pct: 0 }];
@@ -75,7 +88,8 @@ export function cumulativeCurve(values: ArrayLike<number>, maxPoints = 240): { x
 
 /** Share (0–1) of values ≤ limit. */
 export function shareAtOrBelow(values: ArrayLike<number>, limit: number): number {
-  let k = 0, n = 0;
+  let k = 0,
+    n = 0;
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
     if (Number.isNaN(v)) continue;

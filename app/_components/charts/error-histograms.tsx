@@ -18,7 +18,11 @@ function LimitSwatch({ colour = CHART.alarm, dash = "5 3" }: { colour?: string; 
   );
 }
 function BarSwatch({ colour }: { colour: string }) {
-  return <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true"><rect x="1" y="3" width="12" height="10" fill={colour} /></svg>;
+  return (
+    <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true">
+      <rect x="1" y="3" width="12" height="10" fill={colour} />
+    </svg>
+  );
 }
 
 function binLabel(b: Bin): string {
@@ -29,7 +33,15 @@ function binLabel(b: Bin): string {
 }
 
 /** Histogram of radial errors (mm) with the radial limit marked. */
-export function RadialHistogram({ radialMm, limitMm, caption }: { radialMm: readonly number[]; limitMm: number | null; caption: React.ReactNode }) {
+export function RadialHistogram({
+  radialMm,
+  limitMm,
+  caption,
+}: {
+  radialMm: readonly number[];
+  limitMm: number | null;
+  caption: React.ReactNode;
+}) {
   const { bins, max, step } = useMemo(() => {
     const sorted = [...radialMm].sort((a, b) => a - b);
     const reach = Math.max(percentileSorted(sorted, 0.99) || 0, limitMm ? limitMm * 1.2 : 0, 1);
@@ -38,27 +50,69 @@ export function RadialHistogram({ radialMm, limitMm, caption }: { radialMm: read
     return { bins: histogram(radialMm, 0, max, step).map((b) => ({ ...b, label: binLabel(b) })), max, step };
   }, [radialMm, limitMm]);
   return (
-    <ChartFigure caption={caption} testId="chart-radial-histogram" legend={[
-      { label: `plants per ${step} mm of radial error`, swatch: <BarSwatch colour={CHART.bar} /> },
-      ...(limitMm !== null ? [{ label: `radial limit ${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
-    ]} note={bins[bins.length - 1].overflow ? `The last bar also counts every plant beyond ${max} mm.` : undefined}>
-      <BarChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={bins} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} barCategoryGap={1} accessibilityLayer={false}>
+    <ChartFigure
+      caption={caption}
+      testId="chart-radial-histogram"
+      legend={[
+        { label: `plants per ${step} mm of radial error`, swatch: <BarSwatch colour={CHART.bar} /> },
+        ...(limitMm !== null ? [{ label: `radial limit ${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
+      ]}
+      note={bins[bins.length - 1].overflow ? `The last bar also counts every plant beyond ${max} mm.` : undefined}
+    >
+      <BarChart
+        responsive
+        style={{ width: "100%", aspectRatio: 1.8 }}
+        data={bins}
+        margin={{ top: 16, right: 12, bottom: 8, left: 0 }}
+        barCategoryGap={1}
+        accessibilityLayer={false}
+      >
         <CartesianGrid stroke={CHART.grid} vertical={false} />
-        <XAxis type="number" dataKey="mid" domain={[0, max]} ticks={niceTicks(0, max)} tick={{ fontSize: 11 }} height={40}
-          label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} />
-        <YAxis allowDecimals={false} tick={{ fontSize: 11 }} width={44}
-          label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />
-        <Tooltip labelFormatter={(_, p) => (p?.[0]?.payload as { label?: string } | undefined)?.label ?? ""} formatter={(v) => [`${v} plants`, "count"]} />
+        <XAxis
+          type="number"
+          dataKey="mid"
+          domain={[0, max]}
+          ticks={niceTicks(0, max)}
+          tick={{ fontSize: 11 }}
+          height={40}
+          label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
+        />
+        <YAxis
+          allowDecimals={false}
+          tick={{ fontSize: 11 }}
+          width={44}
+          label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
+        />
+        <Tooltip
+          labelFormatter={(_, p) => (p?.[0]?.payload as { label?: string } | undefined)?.label ?? ""}
+          formatter={(v) => [`${v} plants`, "count"]}
+        />
         <Bar dataKey="count" fill={CHART.bar} isAnimationActive={false} />
-        {limitMm !== null ? <ReferenceLine x={limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("limit")} /> : null}
+        {limitMm !== null ? (
+          <ReferenceLine
+            x={limitMm}
+            stroke={CHART.alarm}
+            strokeWidth={2}
+            strokeDasharray="5 3"
+            label={limitLabel("limit")}
+          />
+        ) : null}
       </BarChart>
     </ChartFigure>
   );
 }
 
 /** Cumulative share of plants (0–100 %) within each radial error, with the limit and the required share marked. */
-export function RadialCumulative({ radialMm, limitMm, requiredShare, caption }: {
-  radialMm: readonly number[]; limitMm: number | null; requiredShare: number | null; caption: React.ReactNode;
+export function RadialCumulative({
+  radialMm,
+  limitMm,
+  requiredShare,
+  caption,
+}: {
+  radialMm: readonly number[];
+  limitMm: number | null;
+  requiredShare: number | null;
+  caption: React.ReactNode;
 }) {
   const { points, max } = useMemo(() => {
     const points = cumulativeCurve(radialMm);
@@ -68,28 +122,87 @@ export function RadialCumulative({ radialMm, limitMm, requiredShare, caption }: 
     return { points: points.filter((p) => p.x <= max), max };
   }, [radialMm, limitMm]);
   return (
-    <ChartFigure caption={caption} testId="chart-radial-cumulative" legend={[
-      { label: "share of plants within that radial error", swatch: <LimitSwatch colour={CHART.leaf} dash="" /> },
-      ...(limitMm !== null ? [{ label: `radial limit ${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
-      ...(requiredShare !== null ? [{ label: `required share ${(requiredShare * 100).toFixed(0)} %`, swatch: <LimitSwatch colour={CHART.stake} /> }] : []),
-    ]}>
-      <LineChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={points} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} accessibilityLayer={false}>
+    <ChartFigure
+      caption={caption}
+      testId="chart-radial-cumulative"
+      legend={[
+        { label: "share of plants within that radial error", swatch: <LimitSwatch colour={CHART.leaf} dash="" /> },
+        ...(limitMm !== null ? [{ label: `radial limit ${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
+        ...(requiredShare !== null
+          ? [
+              {
+                label: `required share ${(requiredShare * 100).toFixed(0)} %`,
+                swatch: <LimitSwatch colour={CHART.stake} />,
+              },
+            ]
+          : []),
+      ]}
+    >
+      <LineChart
+        responsive
+        style={{ width: "100%", aspectRatio: 1.8 }}
+        data={points}
+        margin={{ top: 16, right: 12, bottom: 8, left: 0 }}
+        accessibilityLayer={false}
+      >
         <CartesianGrid stroke={CHART.grid} />
-        <XAxis type="number" dataKey="x" domain={[0, max]} ticks={niceTicks(0, max)} allowDataOverflow tick={{ fontSize: 11 }} height={40}
-          label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} />
-        <YAxis type="number" domain={[0, 100]} ticks={[0, 25, 50, 75, 100]} tick={{ fontSize: 11 }} width={44}
-          label={{ value: "plants within (%)", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />
-        <Tooltip labelFormatter={(v) => `${Number(v).toFixed(1)} mm`} formatter={(v) => [`${Number(v).toFixed(1)} %`, "plants within"]} />
-        <Line type="stepAfter" dataKey="pct" stroke={CHART.leaf} strokeWidth={2} dot={false} isAnimationActive={false} />
-        {limitMm !== null ? <ReferenceLine x={limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("limit", "insideBottomRight")} /> : null}
-        {requiredShare !== null ? <ReferenceLine y={requiredShare * 100} stroke={CHART.stake} strokeWidth={2} strokeDasharray="5 3" /> : null}
+        <XAxis
+          type="number"
+          dataKey="x"
+          domain={[0, max]}
+          ticks={niceTicks(0, max)}
+          allowDataOverflow
+          tick={{ fontSize: 11 }}
+          height={40}
+          label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
+        />
+        <YAxis
+          type="number"
+          domain={[0, 100]}
+          ticks={[0, 25, 50, 75, 100]}
+          tick={{ fontSize: 11 }}
+          width={44}
+          label={{ value: "plants within (%)", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
+        />
+        <Tooltip
+          labelFormatter={(v) => `${Number(v).toFixed(1)} mm`}
+          formatter={(v) => [`${Number(v).toFixed(1)} %`, "plants within"]}
+        />
+        <Line
+          type="stepAfter"
+          dataKey="pct"
+          stroke={CHART.leaf}
+          strokeWidth={2}
+          dot={false}
+          isAnimationActive={false}
+        />
+        {limitMm !== null ? (
+          <ReferenceLine
+            x={limitMm}
+            stroke={CHART.alarm}
+            strokeWidth={2}
+            strokeDasharray="5 3"
+            label={limitLabel("limit", "insideBottomRight")}
+          />
+        ) : null}
+        {requiredShare !== null ? (
+          <ReferenceLine y={requiredShare * 100} stroke={CHART.stake} strokeWidth={2} strokeDasharray="5 3" />
+        ) : null}
       </LineChart>
     </ChartFigure>
   );
 }
 
 /** Histogram of cross-row errors (mm; positive = right of the row direction) with ± the cross-row limit. */
-export function CrossHistogram({ crossMm, limitMm, caption }: { crossMm: readonly number[]; limitMm: number | null; caption: React.ReactNode }) {
+export function CrossHistogram({
+  crossMm,
+  limitMm,
+  caption,
+}: {
+  crossMm: readonly number[];
+  limitMm: number | null;
+  caption: React.ReactNode;
+}) {
   const { bins, half, step } = useMemo(() => {
     const abs = crossMm.map(Math.abs).sort((a, b) => a - b);
     const reach = Math.max(percentileSorted(abs, 0.99) || 0, limitMm ? limitMm * 1.2 : 0, 1);
@@ -97,23 +210,73 @@ export function CrossHistogram({ crossMm, limitMm, caption }: { crossMm: readonl
     const half = ceilTo(reach, step);
     return { bins: histogram(crossMm, -half, half, step).map((b) => ({ ...b, label: binLabel(b) })), half, step };
   }, [crossMm, limitMm]);
-  const edgeNote = bins[0].underflow || bins[bins.length - 1].overflow ? `The outer bars also count every plant beyond ±${half} mm.` : undefined;
+  const edgeNote =
+    bins[0].underflow || bins[bins.length - 1].overflow
+      ? `The outer bars also count every plant beyond ±${half} mm.`
+      : undefined;
   return (
-    <ChartFigure caption={caption} testId="chart-cross-histogram" note={edgeNote} legend={[
-      { label: `plants per ${step} mm of cross-row error`, swatch: <BarSwatch colour={CHART.loam} /> },
-      ...(limitMm !== null ? [{ label: `cross-row limit ±${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
-    ]}>
-      <BarChart responsive style={{ width: "100%", aspectRatio: 1.8 }} data={bins} margin={{ top: 16, right: 12, bottom: 8, left: 0 }} barCategoryGap={1} accessibilityLayer={false}>
+    <ChartFigure
+      caption={caption}
+      testId="chart-cross-histogram"
+      note={edgeNote}
+      legend={[
+        { label: `plants per ${step} mm of cross-row error`, swatch: <BarSwatch colour={CHART.loam} /> },
+        ...(limitMm !== null ? [{ label: `cross-row limit ±${limitMm.toFixed(1)} mm`, swatch: <LimitSwatch /> }] : []),
+      ]}
+    >
+      <BarChart
+        responsive
+        style={{ width: "100%", aspectRatio: 1.8 }}
+        data={bins}
+        margin={{ top: 16, right: 12, bottom: 8, left: 0 }}
+        barCategoryGap={1}
+        accessibilityLayer={false}
+      >
         <CartesianGrid stroke={CHART.grid} vertical={false} />
-        <XAxis type="number" dataKey="mid" domain={[-half, half]} ticks={niceTicks(-half, half)} tick={{ fontSize: 11 }} height={40}
-          label={{ value: "cross-row error (mm, + = right of row direction)", position: "insideBottom", offset: 0, fontSize: 12 }} />
-        <YAxis allowDecimals={false} tick={{ fontSize: 11 }} width={44}
-          label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }} />
-        <Tooltip labelFormatter={(_, p) => (p?.[0]?.payload as { label?: string } | undefined)?.label ?? ""} formatter={(v) => [`${v} plants`, "count"]} />
+        <XAxis
+          type="number"
+          dataKey="mid"
+          domain={[-half, half]}
+          ticks={niceTicks(-half, half)}
+          tick={{ fontSize: 11 }}
+          height={40}
+          label={{
+            value: "cross-row error (mm, + = right of row direction)",
+            position: "insideBottom",
+            offset: 0,
+            fontSize: 12,
+          }}
+        />
+        <YAxis
+          allowDecimals={false}
+          tick={{ fontSize: 11 }}
+          width={44}
+          label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
+        />
+        <Tooltip
+          labelFormatter={(_, p) => (p?.[0]?.payload as { label?: string } | undefined)?.label ?? ""}
+          formatter={(v) => [`${v} plants`, "count"]}
+        />
         <Bar dataKey="count" fill={CHART.loam} fillOpacity={0.8} isAnimationActive={false} />
         <ReferenceLine x={0} stroke={CHART.axis} />
-        {limitMm !== null ? <ReferenceLine x={-limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("−limit")} /> : null}
-        {limitMm !== null ? <ReferenceLine x={limitMm} stroke={CHART.alarm} strokeWidth={2} strokeDasharray="5 3" label={limitLabel("+limit")} /> : null}
+        {limitMm !== null ? (
+          <ReferenceLine
+            x={-limitMm}
+            stroke={CHART.alarm}
+            strokeWidth={2}
+            strokeDasharray="5 3"
+            label={limitLabel("−limit")}
+          />
+        ) : null}
+        {limitMm !== null ? (
+          <ReferenceLine
+            x={limitMm}
+            stroke={CHART.alarm}
+            strokeWidth={2}
+            strokeDasharray="5 3"
+            label={limitLabel("+limit")}
+          />
+        ) : null}
       </BarChart>
     </ChartFigure>
   );

@@ -1,6 +1,16 @@
 "use client";
 import { useMemo } from "react";
-import { CartesianGrid, ReferenceLine, Scatter, ScatterChart, Tooltip, XAxis, YAxis, useXAxisScale, useYAxisScale } from "recharts";
+import {
+  CartesianGrid,
+  ReferenceLine,
+  Scatter,
+  ScatterChart,
+  Tooltip,
+  XAxis,
+  YAxis,
+  useXAxisScale,
+  useYAxisScale,
+} from "recharts";
 import { ceilTo, niceStep, percentileSorted } from "./bins";
 import { CHART, ChartFigure } from "./frame";
 
@@ -19,7 +29,14 @@ type Point = { x: number; y: number };
 const MAX_DRAWN = 4000;
 
 /** Errors dE/dN in mm on equal axes, with circles for the tolerance, CEP and R95. */
-export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
+export function ErrorScatter({
+  dE,
+  dN,
+  within,
+  rings,
+  caption,
+  sampledFrom,
+}: {
   /** Millimetres. */
   dE: readonly number[];
   dN: readonly number[];
@@ -32,7 +49,9 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
   const { inside, outside, untested, half, step, hidden, drawn } = useMemo(() => {
     const n = dE.length;
     const stride = Math.max(1, Math.ceil(n / MAX_DRAWN));
-    const inside: Point[] = [], outside: Point[] = [], untested: Point[] = [];
+    const inside: Point[] = [],
+      outside: Point[] = [],
+      untested: Point[] = [];
     const radii: number[] = [];
     for (let i = 0; i < n; i++) radii.push(Math.hypot(dE[i], dN[i]));
     radii.sort((a, b) => a - b);
@@ -40,7 +59,8 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
     const reach = Math.max(percentileSorted(radii, 0.99) || 0, ...rings.map((r) => r.radiusMm), 1) * 1.15;
     const step = niceStep(reach / 4);
     const half = ceilTo(reach, step);
-    let hidden = 0, drawn = 0;
+    let hidden = 0,
+      drawn = 0;
     for (let i = 0; i < n; i++) {
       if (Math.abs(dE[i]) > half || Math.abs(dN[i]) > half) hidden++;
       if (i % stride !== 0) continue;
@@ -60,21 +80,36 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
   }, [half, step]);
 
   // Equal scales: a square chart with the same axis size on both sides gives a square plot area.
-  const size = 420, axis = 44, pad = 12;
+  const size = 420,
+    axis = 44,
+    pad = 12;
   return (
-    <ChartFigure caption={caption} testId="chart-scatter" note={
-      hidden > 0 || sampledFrom || drawn < dE.length ? (
-        <>
-          {hidden > 0 ? `${hidden} plant${hidden === 1 ? " lies" : "s lie"} beyond ±${half} mm and ${hidden === 1 ? "is" : "are"} not drawn. ` : ""}
-          {sampledFrom ? `Drawn: ${drawn} of ${sampledFrom} pairs (an even subsample).` : drawn < dE.length ? `Drawn: ${drawn} of ${dE.length} pairs (an even subsample).` : ""}
-        </>
-      ) : null
-    } legend={[
-      { label: "plant within tolerance", swatch: <Swatch shape="circle" colour={CHART.leaf} /> },
-      { label: "plant out of tolerance", swatch: <Swatch shape="cross" colour={CHART.alarm} /> },
-      ...(untested.length ? [{ label: "plant (no tolerance set)", swatch: <Swatch shape="circle" colour={CHART.ink} /> }] : []),
-      ...rings.map((r) => ({ label: `${r.label} ${r.radiusMm.toFixed(1)} mm`, swatch: <RingSwatch ring={r} /> })),
-    ]}>
+    <ChartFigure
+      caption={caption}
+      testId="chart-scatter"
+      note={
+        hidden > 0 || sampledFrom || drawn < dE.length ? (
+          <>
+            {hidden > 0
+              ? `${hidden} plant${hidden === 1 ? " lies" : "s lie"} beyond ±${half} mm and ${hidden === 1 ? "is" : "are"} not drawn. `
+              : ""}
+            {sampledFrom
+              ? `Drawn: ${drawn} of ${sampledFrom} pairs (an even subsample).`
+              : drawn < dE.length
+                ? `Drawn: ${drawn} of ${dE.length} pairs (an even subsample).`
+                : ""}
+          </>
+        ) : null
+      }
+      legend={[
+        { label: "plant within tolerance", swatch: <Swatch shape="circle" colour={CHART.leaf} /> },
+        { label: "plant out of tolerance", swatch: <Swatch shape="cross" colour={CHART.alarm} /> },
+        ...(untested.length
+          ? [{ label: "plant (no tolerance set)", swatch: <Swatch shape="circle" colour={CHART.ink} /> }]
+          : []),
+        ...rings.map((r) => ({ label: `${r.label} ${r.radiusMm.toFixed(1)} mm`, swatch: <RingSwatch ring={r} /> })),
+      ]}
+    >
       <div style={{ width: "100%", maxWidth: size }}>
         <ScatterChart
           responsive
@@ -83,16 +118,43 @@ export function ErrorScatter({ dE, dN, within, rings, caption, sampledFrom }: {
           accessibilityLayer={false}
         >
           <CartesianGrid stroke={CHART.grid} />
-          <XAxis type="number" dataKey="x" name="dE" domain={[-half, half]} ticks={ticks} allowDataOverflow height={axis}
-            label={{ value: "dE, east (mm)", position: "insideBottom", offset: 0, fontSize: 12 }} tick={{ fontSize: 11 }} />
-          <YAxis type="number" dataKey="y" name="dN" domain={[-half, half]} ticks={ticks} allowDataOverflow width={axis}
-            label={{ value: "dN, north (mm)", angle: -90, position: "insideLeft", offset: 4, fontSize: 12 }} tick={{ fontSize: 11 }} />
+          <XAxis
+            type="number"
+            dataKey="x"
+            name="dE"
+            domain={[-half, half]}
+            ticks={ticks}
+            allowDataOverflow
+            height={axis}
+            label={{ value: "dE, east (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
+            tick={{ fontSize: 11 }}
+          />
+          <YAxis
+            type="number"
+            dataKey="y"
+            name="dN"
+            domain={[-half, half]}
+            ticks={ticks}
+            allowDataOverflow
+            width={axis}
+            label={{ value: "dN, north (mm)", angle: -90, position: "insideLeft", offset: 4, fontSize: 12 }}
+            tick={{ fontSize: 11 }}
+          />
           <ReferenceLine x={0} stroke={CHART.axis} />
           <ReferenceLine y={0} stroke={CHART.axis} />
           <RingLayer rings={rings} />
           <Tooltip cursor={false} formatter={(v) => `${Number(v).toFixed(1)} mm`} />
-          {untested.length ? <Scatter name="plant" data={untested} fill={CHART.ink} shape="circle" isAnimationActive={false} /> : null}
-          <Scatter name="within tolerance" data={inside} fill={CHART.leaf} fillOpacity={0.7} shape="circle" isAnimationActive={false} />
+          {untested.length ? (
+            <Scatter name="plant" data={untested} fill={CHART.ink} shape="circle" isAnimationActive={false} />
+          ) : null}
+          <Scatter
+            name="within tolerance"
+            data={inside}
+            fill={CHART.leaf}
+            fillOpacity={0.7}
+            shape="circle"
+            isAnimationActive={false}
+          />
           <Scatter name="out of tolerance" data={outside} fill={CHART.alarm} shape="cross" isAnimationActive={false} />
         </ScatterChart>
       </div>
@@ -106,22 +168,45 @@ function RingLayer({ rings }: { rings: Ring[] }) {
   const xs = useXAxisScale();
   const ys = useYAxisScale();
   if (!xs || !ys) return null;
-  const cx = xs(0), cy = ys(0);
+  const cx = xs(0),
+    cy = ys(0);
   if (cx === undefined || cy === undefined) return null;
   return (
     <g aria-hidden="true">
       {rings.map((r, i) => {
-        const ex = xs(r.radiusMm), ey = ys(r.radiusMm);
+        const ex = xs(r.radiusMm),
+          ey = ys(r.radiusMm);
         if (ex === undefined || ey === undefined) return null;
-        const rx = Math.abs(ex - cx), ry = Math.abs(ey - cy);
+        const rx = Math.abs(ex - cx),
+          ry = Math.abs(ey - cy);
         // Each ring's label sits at its own angle so small, close rings stay readable.
         const a = LABEL_ANGLES[i % LABEL_ANGLES.length];
-        const lx = cx + rx * Math.cos(a), ly = cy - ry * Math.sin(a);
+        const lx = cx + rx * Math.cos(a),
+          ly = cy - ry * Math.sin(a);
         return (
           <g key={r.id} data-ring={r.id}>
-            <ellipse cx={cx} cy={cy} rx={rx} ry={ry} fill="none" stroke={r.colour} strokeWidth={1.6} strokeDasharray={r.dash} />
-            <text x={lx + (Math.cos(a) >= 0 ? 3 : -3)} y={ly + (Math.sin(a) >= 0 ? -3 : 11)} textAnchor={Math.cos(a) >= 0 ? "start" : "end"}
-              fontSize={11} fill={r.colour} paintOrder="stroke" stroke="#fff" strokeWidth={3}>{r.label}</text>
+            <ellipse
+              cx={cx}
+              cy={cy}
+              rx={rx}
+              ry={ry}
+              fill="none"
+              stroke={r.colour}
+              strokeWidth={1.6}
+              strokeDasharray={r.dash}
+            />
+            <text
+              x={lx + (Math.cos(a) >= 0 ? 3 : -3)}
+              y={ly + (Math.sin(a) >= 0 ? -3 : 11)}
+              textAnchor={Math.cos(a) >= 0 ? "start" : "end"}
+              fontSize={11}
+              fill={r.colour}
+              paintOrder="stroke"
+              stroke="#fff"
+              strokeWidth={3}
+            >
+              {r.label}
+            </text>
           </g>
         );
       })}
@@ -132,9 +217,11 @@ function RingLayer({ rings }: { rings: Ring[] }) {
 function Swatch({ shape, colour }: { shape: "circle" | "cross"; colour: string }) {
   return (
     <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true">
-      {shape === "circle"
-        ? <circle cx="7" cy="7" r="4" fill={colour} />
-        : <path d="M5 1h4v4h4v4H9v4H5V9H1V5h4z" fill={colour} />}
+      {shape === "circle" ? (
+        <circle cx="7" cy="7" r="4" fill={colour} />
+      ) : (
+        <path d="M5 1h4v4h4v4H9v4H5V9H1V5h4z" fill={colour} />
+      )}
     </svg>
   );
 }

@@ -15,7 +15,13 @@ export const CHART = {
  * A chart as a figure: the caption carries the key figures in words (the text alternative),
  * the legend is plain HTML so it is read and zoomed with the page.
  */
-export function ChartFigure({ caption, legend, children, testId, note }: {
+export function ChartFigure({
+  caption,
+  legend,
+  children,
+  testId,
+  note,
+}: {
   caption: React.ReactNode;
   /** Small print under the chart (what is not drawn). */
   note?: React.ReactNode;
@@ -28,7 +34,12 @@ export function ChartFigure({ caption, legend, children, testId, note }: {
       <div aria-hidden="true">{children}</div>
       {legend?.length ? (
         <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft" aria-label="Legend">
-          {legend.map((l) => <li key={l.label} className="inline-flex items-center gap-1.5">{l.swatch}{l.label}</li>)}
+          {legend.map((l) => (
+            <li key={l.label} className="inline-flex items-center gap-1.5">
+              {l.swatch}
+              {l.label}
+            </li>
+          ))}
         </ul>
       ) : null}
       {note ? <p className="mt-1 text-xs text-ink-faint">{note}</p> : null}

@@ -26,10 +26,23 @@ function useDebounced<T>(value: T, ms: number): T {
  * with a list of matches from GET /api/crs?q= (ARIA combobox with a listbox popup).
  */
 export function CrsPicker({
-  id, label, value, onChange, onBlur, error, hint, disabled,
+  id,
+  label,
+  value,
+  onChange,
+  onBlur,
+  error,
+  hint,
+  disabled,
 }: {
-  id: string; label: string; value: string; onChange: (code: string) => void; onBlur?: () => void;
-  error?: string; hint?: React.ReactNode; disabled?: boolean;
+  id: string;
+  label: string;
+  value: string;
+  onChange: (code: string) => void;
+  onBlur?: () => void;
+  error?: string;
+  hint?: React.ReactNode;
+  disabled?: boolean;
 }) {
   const listId = useId();
   const [open, setOpen] = useState(false);
@@ -38,7 +51,10 @@ export function CrsPicker({
   const q = useDebounced(query, 150);
   const list = useSWR<{ crs: CrsDto[] }>(open ? keys.crs(q) : null, fetcher, { keepPreviousData: true });
   // The chosen system's name, so people can see they picked the right one.
-  const chosen = useSWR<{ crs: CrsDto[] }>(/^EPSG:\d{4,5}$/i.test(value.trim()) ? keys.crs(value.trim()) : null, fetcher);
+  const chosen = useSWR<{ crs: CrsDto[] }>(
+    /^EPSG:\d{4,5}$/i.test(value.trim()) ? keys.crs(value.trim()) : null,
+    fetcher,
+  );
   const chosenEntry = chosen.data?.crs.find((c) => c.code.toUpperCase() === value.trim().toUpperCase());
   const options = (list.data?.crs ?? []).slice(0, 40);
 
@@ -69,7 +85,9 @@ export function CrsPicker({
   const described = [describedBy(id, { hint, error }), noteId].filter(Boolean).join(" ");
   return (
     <div className="mb-4">
-      <label htmlFor={id} className="mb-1 block text-sm font-medium">{label}</label>
+      <label htmlFor={id} className="mb-1 block text-sm font-medium">
+        {label}
+      </label>
       <div className="relative">
         <input
           id={id}
@@ -92,9 +110,14 @@ export function CrsPicker({
             setOpen(true);
             setActive(-1);
           }}
-          onFocus={() => { setQuery(""); }}
+          onFocus={() => {
+            setQuery("");
+          }}
           onClick={() => setOpen(true)}
-          onBlur={() => { setOpen(false); onBlur?.(); }}
+          onBlur={() => {
+            setOpen(false);
+            onBlur?.();
+          }}
           onKeyDown={onKeyDown}
           className={`${inputClass(!!error)} font-mono`}
         />
@@ -106,9 +129,15 @@ export function CrsPicker({
           className="absolute z-20 mt-1 max-h-72 w-full overflow-auto rounded-plot border border-chalk-line bg-white py-1 text-sm shadow-lg"
         >
           {list.error ? (
-            <li role="presentation" className="px-3 py-2 text-alarm">The list of coordinate systems could not be loaded; type an EPSG code such as EPSG:25831.</li>
+            <li role="presentation" className="px-3 py-2 text-alarm">
+              The list of coordinate systems could not be loaded; type an EPSG code such as EPSG:25831.
+            </li>
           ) : options.length === 0 ? (
-            <li role="presentation" className="px-3 py-2 text-ink-faint">{list.isLoading ? "Searching…" : "No coordinate system matches; try a number such as 25831 or a word such as UTM."}</li>
+            <li role="presentation" className="px-3 py-2 text-ink-faint">
+              {list.isLoading
+                ? "Searching…"
+                : "No coordinate system matches; try a number such as 25831 or a word such as UTM."}
+            </li>
           ) : (
             options.map((c, i) => (
               <li
@@ -129,10 +158,22 @@ export function CrsPicker({
         </ul>
       </div>
       <p id={noteId} className="mt-1 text-xs text-ink-soft" data-testid={`${id}-chosen`}>
-        {chosenEntry ? `${chosenEntry.name} — ${KIND_WORDS[chosenEntry.kind]}` : value.trim().startsWith("+proj=") ? "Custom proj definition" : ""}
+        {chosenEntry
+          ? `${chosenEntry.name} — ${KIND_WORDS[chosenEntry.kind]}`
+          : value.trim().startsWith("+proj=")
+            ? "Custom proj definition"
+            : ""}
       </p>
-      {hint ? <p id={`${id}-hint`} className="mt-1 text-xs text-ink-faint">{hint}</p> : null}
-      {error ? <p id={`${id}-error`} className="mt-1 text-sm text-alarm" data-field-error={id}>{error}</p> : null}
+      {hint ? (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-faint">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${id}-error`} className="mt-1 text-sm text-alarm" data-field-error={id}>
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }

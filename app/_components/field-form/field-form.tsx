@@ -13,15 +13,18 @@ import { FieldRow, buttonClass, describedBy, inputClass } from "./controls";
 import { CrsPicker } from "./crs-picker";
 import { BoundaryPreview } from "./boundary-preview";
 import {
-  FieldFormSchema, isFieldFormKey, numberToText, readBoundaryText,
-  type BoundaryPolygon, type FieldFormOutput, type FieldFormValues,
+  FieldFormSchema,
+  isFieldFormKey,
+  numberToText,
+  readBoundaryText,
+  type BoundaryPolygon,
+  type FieldFormOutput,
+  type FieldFormValues,
 } from "./schema";
 
 type BoundarySource = "none" | "current" | "records" | "file";
 
-export type FieldFormProps =
-  | { mode: "create"; farms: string[] }
-  | { mode: "edit"; field: FieldDto; farms: string[] };
+export type FieldFormProps = { mode: "create"; farms: string[] } | { mode: "edit"; field: FieldDto; farms: string[] };
 
 function Section({ title, children, intro }: { title: string; children: React.ReactNode; intro?: React.ReactNode }) {
   return (
@@ -61,7 +64,14 @@ export function FieldForm(props: FieldFormProps) {
       boundary: (editing?.boundary ?? null) as BoundaryPolygon | null,
     },
   });
-  const { register, handleSubmit, setValue, setError, clearErrors, formState: { errors, isSubmitting } } = form;
+  const {
+    register,
+    handleSubmit,
+    setValue,
+    setError,
+    clearErrors,
+    formState: { errors, isSubmitting },
+  } = form;
 
   // The browser's time zone is only known in the browser: fill it in after the first render.
   useEffect(() => {
@@ -73,9 +83,12 @@ export function FieldForm(props: FieldFormProps) {
     setBoundarySource(source);
     clearErrors("boundary");
     const polygon =
-      source === "current" ? editing?.boundary ?? null
-        : source === "records" ? derived.data?.boundary ?? null
-          : source === "file" ? boundaryFile?.polygon ?? null
+      source === "current"
+        ? (editing?.boundary ?? null)
+        : source === "records"
+          ? (derived.data?.boundary ?? null)
+          : source === "file"
+            ? (boundaryFile?.polygon ?? null)
             : null;
     setValue("boundary", polygon as BoundaryPolygon | null, { shouldDirty: true });
   };
@@ -86,7 +99,9 @@ export function FieldForm(props: FieldFormProps) {
     setValue("boundary", null);
     if (!file) return;
     if (file.size > 5 * 1024 * 1024) {
-      setBoundaryFileError(`“${file.name}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; a boundary file should be a single polygon of a few kilobytes.`);
+      setBoundaryFileError(
+        `“${file.name}” is ${(file.size / 1024 / 1024).toFixed(1)} MB; a boundary file should be a single polygon of a few kilobytes.`,
+      );
       return;
     }
     const result = readBoundaryText(await file.text());
@@ -102,7 +117,14 @@ export function FieldForm(props: FieldFormProps) {
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     if (boundarySource === "file" && !values.boundary) {
-      setError("boundary", { message: boundaryFileError ?? "Choose a GeoJSON file with the field's boundary, or pick another boundary option." }, { shouldFocus: true });
+      setError(
+        "boundary",
+        {
+          message:
+            boundaryFileError ?? "Choose a GeoJSON file with the field's boundary, or pick another boundary option.",
+        },
+        { shouldFocus: true },
+      );
       return;
     }
     try {
@@ -127,34 +149,65 @@ export function FieldForm(props: FieldFormProps) {
     }
   });
 
-  const bearingHint = derived.data?.rowBearingDeg != null
-    ? `The latest as-planted records run at ${derived.data.rowBearingDeg.toFixed(1)}°. Leave empty to derive the bearing when an audit runs.`
-    : "Degrees clockwise from grid north, 0–180. Leave empty to derive it from the as-planted records when an audit runs.";
+  const bearingHint =
+    derived.data?.rowBearingDeg != null
+      ? `The latest as-planted records run at ${derived.data.rowBearingDeg.toFixed(1)}°. Leave empty to derive the bearing when an audit runs.`
+      : "Degrees clockwise from grid north, 0–180. Leave empty to derive it from the as-planted records when an audit runs.";
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={editing ? `Edit ${editing.name}` : "New field"} className="max-w-3xl">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={editing ? `Edit ${editing.name}` : "New field"}
+      className="max-w-3xl"
+    >
       <FormError message={formError} />
 
       <Section title="Field">
         <div className="grid gap-x-6 md:grid-cols-2">
           <FieldRow id="name" label="Field name" error={errors.name?.message}>
-            <input id="name" type="text" autoComplete="off" {...register("name")}
-              aria-invalid={errors.name ? true : undefined} aria-describedby={describedBy("name", { error: errors.name?.message })}
-              className={inputClass(!!errors.name)} />
+            <input
+              id="name"
+              type="text"
+              autoComplete="off"
+              {...register("name")}
+              aria-invalid={errors.name ? true : undefined}
+              aria-describedby={describedBy("name", { error: errors.name?.message })}
+              className={inputClass(!!errors.name)}
+            />
           </FieldRow>
-          <FieldRow id="farm" label="Farm or site" error={errors.farm?.message}
-            hint={props.farms.length ? `Your fields are on: ${props.farms.join(", ")}` : undefined}>
-            <input id="farm" type="text" list="farm-list" autoComplete="off" {...register("farm")}
+          <FieldRow
+            id="farm"
+            label="Farm or site"
+            error={errors.farm?.message}
+            hint={props.farms.length ? `Your fields are on: ${props.farms.join(", ")}` : undefined}
+          >
+            <input
+              id="farm"
+              type="text"
+              list="farm-list"
+              autoComplete="off"
+              {...register("farm")}
               aria-invalid={errors.farm ? true : undefined}
-              aria-describedby={describedBy("farm", { error: errors.farm?.message, hint: props.farms.length ? 1 : undefined })}
-              className={inputClass(!!errors.farm)} />
-            <datalist id="farm-list">{props.farms.map((f) => <option key={f} value={f} />)}</datalist>
+              aria-describedby={describedBy("farm", {
+                error: errors.farm?.message,
+                hint: props.farms.length ? 1 : undefined,
+              })}
+              className={inputClass(!!errors.farm)}
+            />
+            <datalist id="farm-list">
+              {props.farms.map((f) => (
+                <option key={f} value={f} />
+              ))}
+            </datalist>
           </FieldRow>
         </div>
       </Section>
 
-      <Section title="Coordinates and time"
-        intro="The coordinate system audits are computed in (metres, e.g. the local UTM zone) and the time zone planting times are read in when a file gives no UTC offset.">
+      <Section
+        title="Coordinates and time"
+        intro="The coordinate system audits are computed in (metres, e.g. the local UTM zone) and the time zone planting times are read in when a file gives no UTC offset."
+      >
         <Controller
           control={form.control}
           name="crs"
@@ -170,50 +223,112 @@ export function FieldForm(props: FieldFormProps) {
                 derived.data?.suggestedCrs && derived.data.suggestedCrs !== field.value ? (
                   <>
                     The as-planted records lie in {derived.data.suggestedCrs}.{" "}
-                    <button type="button" className={buttonClass.quiet} onClick={() => setValue("crs", derived.data!.suggestedCrs!, { shouldValidate: true, shouldDirty: true })}>
+                    <button
+                      type="button"
+                      className={buttonClass.quiet}
+                      onClick={() =>
+                        setValue("crs", derived.data!.suggestedCrs!, { shouldValidate: true, shouldDirty: true })
+                      }
+                    >
                       Use {derived.data.suggestedCrs}
                     </button>
                   </>
-                ) : "A projected system in metres, such as EPSG:25831 (ETRS89 / UTM zone 31N)."
+                ) : (
+                  "A projected system in metres, such as EPSG:25831 (ETRS89 / UTM zone 31N)."
+                )
               }
             />
           )}
         />
-        <FieldRow id="timeZone" label="Time zone" error={errors.timeZone?.message} hint="IANA name such as Europe/Amsterdam; filled in from this browser.">
-          <input id="timeZone" type="text" list="zone-list" autoComplete="off" spellCheck={false} {...register("timeZone")}
-            aria-invalid={errors.timeZone ? true : undefined} aria-describedby={describedBy("timeZone", { error: errors.timeZone?.message, hint: 1 })}
-            className={inputClass(!!errors.timeZone)} />
-          <datalist id="zone-list">{zones.map((z) => <option key={z} value={z} />)}</datalist>
+        <FieldRow
+          id="timeZone"
+          label="Time zone"
+          error={errors.timeZone?.message}
+          hint="IANA name such as Europe/Amsterdam; filled in from this browser."
+        >
+          <input
+            id="timeZone"
+            type="text"
+            list="zone-list"
+            autoComplete="off"
+            spellCheck={false}
+            {...register("timeZone")}
+            aria-invalid={errors.timeZone ? true : undefined}
+            aria-describedby={describedBy("timeZone", { error: errors.timeZone?.message, hint: 1 })}
+            className={inputClass(!!errors.timeZone)}
+          />
+          <datalist id="zone-list">
+            {zones.map((z) => (
+              <option key={z} value={z} />
+            ))}
+          </datalist>
         </FieldRow>
       </Section>
 
-      <Section title="Rows and beds" intro="Used to split errors into along-row and cross-row parts and to check the geometry of the records. All optional.">
-        <FieldRow id="rowBearingDeg" label="Row bearing (° from grid north)" error={errors.rowBearingDeg?.message} hint={bearingHint}>
+      <Section
+        title="Rows and beds"
+        intro="Used to split errors into along-row and cross-row parts and to check the geometry of the records. All optional."
+      >
+        <FieldRow
+          id="rowBearingDeg"
+          label="Row bearing (° from grid north)"
+          error={errors.rowBearingDeg?.message}
+          hint={bearingHint}
+        >
           <div className="flex flex-wrap items-center gap-3">
-            <input id="rowBearingDeg" type="text" inputMode="decimal" autoComplete="off" {...register("rowBearingDeg")}
+            <input
+              id="rowBearingDeg"
+              type="text"
+              inputMode="decimal"
+              autoComplete="off"
+              {...register("rowBearingDeg")}
               aria-invalid={errors.rowBearingDeg ? true : undefined}
               aria-describedby={describedBy("rowBearingDeg", { error: errors.rowBearingDeg?.message, hint: 1 })}
-              className={`${inputClass(!!errors.rowBearingDeg)} max-w-40`} />
+              className={`${inputClass(!!errors.rowBearingDeg)} max-w-40`}
+            />
             {editing ? (
-              <button type="button" className={buttonClass.secondary}
+              <button
+                type="button"
+                className={buttonClass.secondary}
                 disabled={derived.data?.rowBearingDeg == null}
-                title={derived.error ? "The records could not be read for suggestions just now" : derived.data?.rowBearingDeg == null ? "Upload as-planted records first" : undefined}
-                onClick={() => setValue("rowBearingDeg", derived.data!.rowBearingDeg!.toFixed(1), { shouldValidate: true, shouldDirty: true })}>
+                title={
+                  derived.error
+                    ? "The records could not be read for suggestions just now"
+                    : derived.data?.rowBearingDeg == null
+                      ? "Upload as-planted records first"
+                      : undefined
+                }
+                onClick={() =>
+                  setValue("rowBearingDeg", derived.data!.rowBearingDeg!.toFixed(1), {
+                    shouldValidate: true,
+                    shouldDirty: true,
+                  })
+                }
+              >
                 Take from the as-planted records
               </button>
             ) : null}
           </div>
         </FieldRow>
         <div className="grid gap-x-6 md:grid-cols-3">
-          {([
-            ["bedSpacingM", "Bed spacing (m)", "Centre of one bed to the next, e.g. 3.0"],
-            ["rowsPerBed", "Rows per bed", "e.g. 5"],
-            ["rowSpacingM", "Row spacing (m)", "Between rows of one bed, e.g. 0.5"],
-          ] as const).map(([name, label, hint]) => (
+          {(
+            [
+              ["bedSpacingM", "Bed spacing (m)", "Centre of one bed to the next, e.g. 3.0"],
+              ["rowsPerBed", "Rows per bed", "e.g. 5"],
+              ["rowSpacingM", "Row spacing (m)", "Between rows of one bed, e.g. 0.5"],
+            ] as const
+          ).map(([name, label, hint]) => (
             <FieldRow key={name} id={name} label={label} error={errors[name]?.message} hint={hint}>
-              <input id={name} type="text" inputMode={name === "rowsPerBed" ? "numeric" : "decimal"} autoComplete="off" {...register(name)}
-                aria-invalid={errors[name] ? true : undefined} aria-describedby={describedBy(name, { error: errors[name]?.message, hint })}
-                className={inputClass(!!errors[name])} />
+              <input
+                id={name}
+                type="text"
+                inputMode={name === "rowsPerBed" ? "numeric" : "decimal"}
+                autoComplete="off"
+                {...register(name)}
+                aria-invalid={errors[name] ? true : undefined}
+                aria-describedby={describedBy(name, { error: errors[name]?.message, hint })}
+                className={inputClass(!!errors[name])}
+              />
             </FieldRow>
           ))}
         </div>
@@ -224,28 +339,64 @@ export function FieldForm(props: FieldFormProps) {
           <legend className="sr-only">Where the boundary comes from</legend>
           <div className="space-y-2 text-sm">
             <BoundaryChoice value="none" current={boundarySource} onChoose={chooseBoundary} label="No boundary" />
-            {editing?.boundary ? <BoundaryChoice value="current" current={boundarySource} onChoose={chooseBoundary} label="Keep the current boundary" /> : null}
-            <BoundaryChoice value="records" current={boundarySource} onChoose={chooseBoundary}
+            {editing?.boundary ? (
+              <BoundaryChoice
+                value="current"
+                current={boundarySource}
+                onChoose={chooseBoundary}
+                label="Keep the current boundary"
+              />
+            ) : null}
+            <BoundaryChoice
+              value="records"
+              current={boundarySource}
+              onChoose={chooseBoundary}
               disabled={!derived.data?.boundary}
               label="Outline of the as-planted records"
-              note={!editing ? "available once as-planted records are uploaded"
-                : derived.isLoading ? "looking at the records…"
-                  : derived.error ? "the records could not be read for suggestions just now"
-                    : !derived.data?.boundary ? "no as-planted records yet" : undefined} />
-            <BoundaryChoice value="file" current={boundarySource} onChoose={chooseBoundary} label="From a GeoJSON file (WGS 84 longitude/latitude)" />
+              note={
+                !editing
+                  ? "available once as-planted records are uploaded"
+                  : derived.isLoading
+                    ? "looking at the records…"
+                    : derived.error
+                      ? "the records could not be read for suggestions just now"
+                      : !derived.data?.boundary
+                        ? "no as-planted records yet"
+                        : undefined
+              }
+            />
+            <BoundaryChoice
+              value="file"
+              current={boundarySource}
+              onChoose={chooseBoundary}
+              label="From a GeoJSON file (WGS 84 longitude/latitude)"
+            />
           </div>
         </fieldset>
         {boundarySource === "file" ? (
-          <FieldRow id="boundaryFile" label="Boundary file (.geojson or .json)" className="mt-4"
-            error={boundaryFileError ?? undefined} hint="A Polygon, or a Feature or FeatureCollection holding exactly one polygon.">
-            <input id="boundaryFile" type="file" accept=".geojson,.json,application/geo+json,application/json"
+          <FieldRow
+            id="boundaryFile"
+            label="Boundary file (.geojson or .json)"
+            className="mt-4"
+            error={boundaryFileError ?? undefined}
+            hint="A Polygon, or a Feature or FeatureCollection holding exactly one polygon."
+          >
+            <input
+              id="boundaryFile"
+              type="file"
+              accept=".geojson,.json,application/geo+json,application/json"
               onChange={(e) => void readBoundaryFile(e.target.files?.[0])}
               aria-invalid={boundaryFileError ? true : undefined}
               aria-describedby={describedBy("boundaryFile", { error: boundaryFileError ?? undefined, hint: 1 })}
-              className="block text-sm file:mr-3 file:rounded-plot file:border file:border-chalk-line file:bg-white file:px-3 file:py-1.5 file:font-medium" />
+              className="block text-sm file:mr-3 file:rounded-plot file:border file:border-chalk-line file:bg-white file:px-3 file:py-1.5 file:font-medium"
+            />
           </FieldRow>
         ) : null}
-        {errors.boundary?.message ? <p id="boundary-error" className="mt-2 text-sm text-alarm" data-field-error="boundary">{errors.boundary.message}</p> : null}
+        {errors.boundary?.message ? (
+          <p id="boundary-error" className="mt-2 text-sm text-alarm" data-field-error="boundary">
+            {errors.boundary.message}
+          </p>
+        ) : null}
         <BoundaryShown source={boundarySource} editing={editing} derived={derived.data} file={boundaryFile} />
       </Section>
 
@@ -253,34 +404,71 @@ export function FieldForm(props: FieldFormProps) {
         <button type="submit" disabled={isSubmitting} className={buttonClass.primary}>
           {isSubmitting ? "Saving…" : editing ? "Save changes" : "Create field"}
         </button>
-        <Link href={editing ? `/fields/${editing.id}` : "/fields"} className={buttonClass.quiet}>Cancel</Link>
+        <Link href={editing ? `/fields/${editing.id}` : "/fields"} className={buttonClass.quiet}>
+          Cancel
+        </Link>
       </div>
     </form>
   );
 }
 
-function BoundaryChoice({ value, current, onChoose, label, disabled, note }: {
-  value: BoundarySource; current: BoundarySource; onChoose: (v: BoundarySource) => void; label: string; disabled?: boolean; note?: string;
+function BoundaryChoice({
+  value,
+  current,
+  onChoose,
+  label,
+  disabled,
+  note,
+}: {
+  value: BoundarySource;
+  current: BoundarySource;
+  onChoose: (v: BoundarySource) => void;
+  label: string;
+  disabled?: boolean;
+  note?: string;
 }) {
   return (
     <label className={`flex items-center gap-2 ${disabled ? "text-ink-faint" : ""}`}>
-      <input type="radio" name="boundarySource" value={value} checked={current === value} disabled={disabled}
-        onChange={() => onChoose(value)} className="accent-leaf" />
-      {label}{note ? <span className="text-xs text-ink-faint">({note})</span> : null}
+      <input
+        type="radio"
+        name="boundarySource"
+        value={value}
+        checked={current === value}
+        disabled={disabled}
+        onChange={() => onChoose(value)}
+        className="accent-leaf"
+      />
+      {label}
+      {note ? <span className="text-xs text-ink-faint">({note})</span> : null}
     </label>
   );
 }
 
-function BoundaryShown({ source, editing, derived, file }: {
-  source: BoundarySource; editing: FieldDto | null; derived?: FieldDerivedDto; file: { name: string; polygon: BoundaryPolygon } | null;
+function BoundaryShown({
+  source,
+  editing,
+  derived,
+  file,
+}: {
+  source: BoundarySource;
+  editing: FieldDto | null;
+  derived?: FieldDerivedDto;
+  file: { name: string; polygon: BoundaryPolygon } | null;
 }) {
   const shown =
-    source === "current" && editing?.boundary ? { polygon: editing.boundary as BoundaryPolygon, label: "Current boundary" }
-      : source === "records" && derived?.boundary ? { polygon: derived.boundary as BoundaryPolygon, label: "Outline of the latest as-planted records" }
-        : source === "file" && file ? { polygon: file.polygon, label: `From ${file.name}` }
+    source === "current" && editing?.boundary
+      ? { polygon: editing.boundary as BoundaryPolygon, label: "Current boundary" }
+      : source === "records" && derived?.boundary
+        ? { polygon: derived.boundary as BoundaryPolygon, label: "Outline of the latest as-planted records" }
+        : source === "file" && file
+          ? { polygon: file.polygon, label: `From ${file.name}` }
           : null;
   if (!shown) return null;
-  return <div className="mt-4"><BoundaryPreview polygon={shown.polygon} source={shown.label} /></div>;
+  return (
+    <div className="mt-4">
+      <BoundaryPreview polygon={shown.polygon} source={shown.label} />
+    </div>
+  );
 }
 
 /** Puts the API's 422 issues (`{ path, message }`) next to their inputs; true when at least one was placed. */
@@ -299,4 +487,3 @@ function placeIssues(
   }
   return placed;
 }
-

@@ -13,7 +13,8 @@ const mm = (m: number | null) => (m === null ? "–" : (m * 1000).toFixed(1));
 
 /** Per-bed statistics with the one-line guidance of each bed. Works on the server and in the browser. */
 export function BedTable({ beds, guidance, caption }: { beds: BedStats[]; guidance: BedGuidance[]; caption: string }) {
-  if (beds.length === 0) return <p className="text-sm text-ink-faint">No checkpoints, so nothing to summarise per bed.</p>;
+  if (beds.length === 0)
+    return <p className="text-sm text-ink-faint">No checkpoints, so nothing to summarise per bed.</p>;
   const byBed = new Map(guidance.map((g) => [g.bed, g]));
   return (
     <div className="overflow-x-auto">
@@ -25,7 +26,9 @@ export function BedTable({ beds, guidance, caption }: { beds: BedStats[]; guidan
             <th className="font-medium">Checkpoints</th>
             <th className="font-medium">Out of tolerance</th>
             <th className="font-medium">Mean radial mm</th>
-            <th className="font-medium" title="95th percentile of the radial error">95 % radial mm</th>
+            <th className="font-medium" title="95th percentile of the radial error">
+              95 % radial mm
+            </th>
             <th className="font-medium">Records</th>
           </tr>
         </thead>
@@ -37,7 +40,9 @@ export function BedTable({ beds, guidance, caption }: { beds: BedStats[]; guidan
               <tr key={s.bed} data-testid="bed-row" data-bed={s.bed} data-state={g?.state}>
                 <td className="py-2 pr-2 font-medium">{bedName(s.bed).replace(/^Bed /, "")}</td>
                 <td>{s.n}</td>
-                <td className={s.out > 0 ? "text-alarm" : undefined}>{s.known ? `${s.out} (${((s.out / s.known) * 100).toFixed(1)} %)` : "–"}</td>
+                <td className={s.out > 0 ? "text-alarm" : undefined}>
+                  {s.known ? `${s.out} (${((s.out / s.known) * 100).toFixed(1)} %)` : "–"}
+                </td>
                 <td>{mm(s.meanRadial)}</td>
                 <td>{mm(s.p95Radial)}</td>
                 <td className={mark?.cls}>{mark?.text ?? "–"}</td>
@@ -47,7 +52,11 @@ export function BedTable({ beds, guidance, caption }: { beds: BedStats[]; guidan
         </tbody>
       </table>
       <ul className="mt-3 grid gap-1 text-sm" data-testid="bed-guidance">
-        {guidance.map((g) => <li key={g.bed} data-bed={g.bed} data-state={g.state}>{g.line}</li>)}
+        {guidance.map((g) => (
+          <li key={g.bed} data-bed={g.bed} data-state={g.state}>
+            {g.line}
+          </li>
+        ))}
       </ul>
     </div>
   );

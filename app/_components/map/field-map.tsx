@@ -12,7 +12,15 @@ import { errorDomain, mmLabel, viridis } from "@/lib/map/colour-scale";
 import { bedLayout, boundsOf, type Pt } from "@/lib/map/geometry";
 import { bedGuidance, bedStats, overallGuidance } from "@/lib/map/guidance";
 import {
-  isOut, metricValues, pairBuffers, selectPairs, selectUnpaired, unpairedBuffers, vectorBuffers, codeText, type ErrorMetric,
+  isOut,
+  metricValues,
+  pairBuffers,
+  selectPairs,
+  selectUnpaired,
+  unpairedBuffers,
+  vectorBuffers,
+  codeText,
+  type ErrorMetric,
 } from "@/lib/map/select";
 import { fitBounds } from "@/lib/map/view";
 import { PAIR_FLAG, type MapData } from "@/lib/map/types";
@@ -53,7 +61,9 @@ export function FieldMap({ auditId, mode }: { auditId: string; mode: MapMode }) 
   });
   const computing = status?.audit.state === "computing";
   const { data, error } = useSWR<MapData>(status && !computing ? mapKeys.auditMapData(auditId) : null, fetchMapData, {
-    revalidateOnFocus: false, revalidateIfStale: false, revalidateOnReconnect: false,
+    revalidateOnFocus: false,
+    revalidateIfStale: false,
+    revalidateOnReconnect: false,
   });
   if (computing) {
     return (
@@ -66,12 +76,22 @@ export function FieldMap({ auditId, mode }: { auditId: string; mode: MapMode }) 
   if (error) {
     const e = error as ApiError;
     return (
-      <div role="alert" className="rounded-plot border-l-4 border-alarm bg-alarm-pale p-4 text-sm" data-testid="map-error" data-status={e.status ?? ""}>
+      <div
+        role="alert"
+        className="rounded-plot border-l-4 border-alarm bg-alarm-pale p-4 text-sm"
+        data-testid="map-error"
+        data-status={e.status ?? ""}
+      >
         {e.status === 409 ? e.message : `The map could not be loaded: ${e.message}`}
       </div>
     );
   }
-  if (!data) return <p className="text-sm text-ink-faint" aria-busy="true" data-testid="map-loading">Loading the map data…</p>;
+  if (!data)
+    return (
+      <p className="text-sm text-ink-faint" aria-busy="true" data-testid="map-loading">
+        Loading the map data…
+      </p>
+    );
   return <LoadedMap data={data} auditId={auditId} mode={mode} />;
 }
 
@@ -94,7 +114,10 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   const domain = useMemo(() => errorDomain(values, limit), [values, limit]);
   const pairsShown = useMemo(() => selectPairs(arrays, settings.filter), [arrays, settings.filter]);
   const unpairedShown = useMemo(
-    () => (settings.showUnpaired && settings.layer === "points" ? selectUnpaired(arrays, settings.filter) : new Uint32Array(0)),
+    () =>
+      settings.showUnpaired && settings.layer === "points"
+        ? selectUnpaired(arrays, settings.filter)
+        : new Uint32Array(0),
     [arrays, settings.filter, settings.showUnpaired, settings.layer],
   );
   const layout = useMemo(() => {
@@ -104,12 +127,19 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
     const n = arrays.pairFlags.length;
     const xy = new Float32Array(2 * (n + planted.length));
     xy.set(arrays.pairXY, 0);
-    planted.forEach((i, k) => { xy[2 * (n + k)] = arrays.unpairedXY[2 * i]; xy[2 * (n + k) + 1] = arrays.unpairedXY[2 * i + 1]; });
-    const label = (name: "bed" | "row") => (i: number) => (i < n
-      ? codeText(meta.dict[name], arrays.pairCodes[name], i)
-      : codeText(meta.dict[name], arrays.unpairedCodes[name], planted[i - n]));
+    planted.forEach((i, k) => {
+      xy[2 * (n + k)] = arrays.unpairedXY[2 * i];
+      xy[2 * (n + k) + 1] = arrays.unpairedXY[2 * i + 1];
+    });
+    const label = (name: "bed" | "row") => (i: number) =>
+      i < n
+        ? codeText(meta.dict[name], arrays.pairCodes[name], i)
+        : codeText(meta.dict[name], arrays.unpairedCodes[name], planted[i - n]);
     return bedLayout({
-      bearingDeg: meta.rowBearingDeg, bedSpacingM: meta.field.bedSpacingM, rowsPerBed: meta.field.rowsPerBed, rowSpacingM: meta.field.rowSpacingM,
+      bearingDeg: meta.rowBearingDeg,
+      bedSpacingM: meta.field.bedSpacingM,
+      rowsPerBed: meta.field.rowsPerBed,
+      rowSpacingM: meta.field.rowSpacingM,
       points: { xy, bed: label("bed"), row: label("row") },
     });
   }, [arrays, meta]);
@@ -124,10 +154,23 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
 
   const cells = useMemo<Cell[] | null>(() => {
     if (settings.layer !== "cells") return null;
-    const beds = layout.anchoredBy && layout.beds.length
-      ? { centres: layout.beds.map((b) => ({ label: b.label, centre: b.centre })), spacingM: layout.bedSpacingM!, halfWidth: layout.halfWidth! }
-      : null;
-    return aggregateCells({ xy: arrays.pairXY, values, flags: arrays.pairFlags, indices: pairsShown, bearingDeg: meta.rowBearingDeg, lengthM: settings.cellLengthM, beds });
+    const beds =
+      layout.anchoredBy && layout.beds.length
+        ? {
+            centres: layout.beds.map((b) => ({ label: b.label, centre: b.centre })),
+            spacingM: layout.bedSpacingM!,
+            halfWidth: layout.halfWidth!,
+          }
+        : null;
+    return aggregateCells({
+      xy: arrays.pairXY,
+      values,
+      flags: arrays.pairFlags,
+      indices: pairsShown,
+      bearingDeg: meta.rowBearingDeg,
+      lengthM: settings.cellLengthM,
+      beds,
+    });
   }, [settings.layer, settings.cellLengthM, layout, arrays, values, pairsShown, meta.rowBearingDeg]);
   const cellValue = settings.cellValue === "share-out" && hasVerdict ? "share-out" : "mean";
 
@@ -140,7 +183,10 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
       return [xy[2 * t.seq], xy[2 * t.seq + 1]];
     };
     return {
-      boundary, layout, rest, out,
+      boundary,
+      layout,
+      rest,
+      out,
       vectors: points && settings.vectors ? vectorBuffers(arrays, pairsShown, settings.exaggeration) : null,
       unpaired: points ? unpairedBuffers(arrays, unpairedShown) : null,
       cells,
@@ -160,18 +206,27 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   }, [settings, arrays, pairsShown, unpairedShown, values, domain, boundary, layout, cells, cellValue, selected]);
 
   // A key of what the layers show, so tests and measurements can tell when the canvas shows the current settings.
-  const layersKey = useMemo(() => JSON.stringify([settings, pairsShown.length, unpairedShown.length]), [settings, pairsShown, unpairedShown]);
+  const layersKey = useMemo(
+    () => JSON.stringify([settings, pairsShown.length, unpairedShown.length]),
+    [settings, pairsShown, unpairedShown],
+  );
   const layersKeyRef = useRef(layersKey);
   // Updated after the commit that hands the new layers to deck.gl, so a frame drawn before it never claims them.
-  useLayoutEffect(() => { layersKeyRef.current = layersKey; }, [layersKey]);
+  useLayoutEffect(() => {
+    layersKeyRef.current = layersKey;
+  }, [layersKey]);
 
   // Marks for measuring where the time to first draw goes (read by lib/map/bench-first-draw.ts).
-  useEffect(() => { performance.mark("plotproof:map-prepared"); }, []);
+  useEffect(() => {
+    performance.mark("plotproof:map-prepared");
+  }, []);
 
   useEffect(() => {
     const el = frameRef.current;
     if (!el) return;
-    const ro = new ResizeObserver(([entry]) => setSize({ width: entry.contentRect.width, height: entry.contentRect.height }));
+    const ro = new ResizeObserver(([entry]) =>
+      setSize({ width: entry.contentRect.width, height: entry.contentRect.height }),
+    );
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
@@ -208,22 +263,38 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
     const next = worstFirst[(current + dir + worstFirst.length) % worstFirst.length];
     setSelected({ kind: "pair", seq: next });
     setSettings((s) => (s.layer === "points" ? s : { ...s, layer: "points" }));
-    setViewState((v) => ({ target: [arrays.pairXY[2 * next], arrays.pairXY[2 * next + 1]], zoom: Math.max(v?.zoom ?? 0, 4) }));
+    setViewState((v) => ({
+      target: [arrays.pairXY[2 * next], arrays.pairXY[2 * next + 1]],
+      zoom: Math.max(v?.zoom ?? 0, 4),
+    }));
   };
 
   const stats = useMemo(() => {
     const n = arrays.pairFlags.length;
-    const within = Int8Array.from(arrays.pairFlags, (f) => (f & PAIR_FLAG.WITHIN_KNOWN ? (f & PAIR_FLAG.WITHIN ? 1 : 0) : -1));
+    const within = Int8Array.from(arrays.pairFlags, (f) =>
+      f & PAIR_FLAG.WITHIN_KNOWN ? (f & PAIR_FLAG.WITHIN ? 1 : 0) : -1,
+    );
     const radial = metricValues(arrays, "radial");
     const bed = Array.from({ length: n }, (_, i) => codeText(meta.dict.bed, arrays.pairCodes.bed, i));
-    const s = bedStats({ bed, radial, cross: arrays.pairCross, along: arrays.pairAlong, within, confidence: meta.profile?.confidence ?? 0.95 });
+    const s = bedStats({
+      bed,
+      radial,
+      cross: arrays.pairCross,
+      along: arrays.pairAlong,
+      within,
+      confidence: meta.profile?.confidence ?? 0.95,
+    });
     const g = s.map((b) => bedGuidance(b, meta.profile));
     return { beds: s, guidance: g, summary: overallGuidance(g, meta.profile) };
   }, [arrays, meta]);
 
   const outShown = layers.out.length;
   const unpairedCounts = layers.unpaired
-    ? { planted: layers.unpaired["planted-not-found"].length, survey: layers.unpaired["surveyed-not-planted"].length, ambiguous: layers.unpaired.ambiguous.length }
+    ? {
+        planted: layers.unpaired["planted-not-found"].length,
+        survey: layers.unpaired["surveyed-not-planted"].length,
+        ambiguous: layers.unpaired.ambiguous.length,
+      }
     : null;
   const label = `Map of ${meta.audit.fieldName}: ${pairsShown.length} checkpoints shown. Arrow keys pan, plus and minus zoom.`;
   const zoomBy = (dz: number) => setViewState((v) => (v ? { ...v, zoom: v.zoom + dz } : v));
@@ -231,65 +302,169 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
 
   return (
     <div
-      ref={rootRef} className="grid gap-4" data-testid="field-map" data-mode={mode} data-layer={settings.layer}
-      data-pairs-total={arrays.pairFlags.length} data-pairs-shown={settings.layer === "points" ? pairsShown.length : 0} data-out-shown={outShown}
-      data-unpaired-shown={unpairedShown.length} data-layers-key={layersKey} data-draws="0"
+      ref={rootRef}
+      className="grid gap-4"
+      data-testid="field-map"
+      data-mode={mode}
+      data-layer={settings.layer}
+      data-pairs-total={arrays.pairFlags.length}
+      data-pairs-shown={settings.layer === "points" ? pairsShown.length : 0}
+      data-out-shown={outShown}
+      data-unpaired-shown={unpairedShown.length}
+      data-layers-key={layersKey}
+      data-draws="0"
     >
       <div className="grid gap-4 lg:grid-cols-[15rem_1fr]">
         <MapControls mode={mode} meta={meta} settings={settings} onChange={setSettings} hasAlong={hasAlong} />
         <div className="grid gap-2">
-          <div ref={frameRef} className="relative h-[62vh] min-h-[420px] overflow-hidden rounded-plot border border-chalk-line bg-chalk-deep" data-testid="map-frame">
+          <div
+            ref={frameRef}
+            className="relative h-[62vh] min-h-[420px] overflow-hidden rounded-plot border border-chalk-line bg-chalk-deep"
+            data-testid="map-frame"
+          >
             {viewState ? (
               <DeckView
-                layers={layers} viewState={viewState} onViewStateChange={setViewState} label={label} onDrawn={onDrawn}
+                layers={layers}
+                viewState={viewState}
+                onViewStateChange={setViewState}
+                label={label}
+                onDrawn={onDrawn}
                 onHover={(target, x, y) => setHover(target ? { target, x, y } : null)}
                 onSelect={(t) => setSelected(t)}
               />
             ) : null}
-            <div className="pointer-events-none absolute left-2 top-2"><NorthArrow crs={meta.crs} convergenceDeg={meta.gridConvergenceDeg} /></div>
-            <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
-              <button type="button" onClick={fit} className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm hover:bg-chalk" data-testid="map-fit">Fit to field</button>
-              <button type="button" onClick={() => zoomBy(1)} aria-label="Zoom in" className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk">+</button>
-              <button type="button" onClick={() => zoomBy(-1)} aria-label="Zoom out" className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk">−</button>
+            <div className="pointer-events-none absolute left-2 top-2">
+              <NorthArrow crs={meta.crs} convergenceDeg={meta.gridConvergenceDeg} />
             </div>
-            {viewState ? <div className="pointer-events-none absolute bottom-2 right-2"><ScaleBar zoom={viewState.zoom} /></div> : null}
+            <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
+              <button
+                type="button"
+                onClick={fit}
+                className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm hover:bg-chalk"
+                data-testid="map-fit"
+              >
+                Fit to field
+              </button>
+              <button
+                type="button"
+                onClick={() => zoomBy(1)}
+                aria-label="Zoom in"
+                className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk"
+              >
+                +
+              </button>
+              <button
+                type="button"
+                onClick={() => zoomBy(-1)}
+                aria-label="Zoom out"
+                className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk"
+              >
+                −
+              </button>
+            </div>
+            {viewState ? (
+              <div className="pointer-events-none absolute bottom-2 right-2">
+                <ScaleBar zoom={viewState.zoom} />
+              </div>
+            ) : null}
             {hover && !selected ? (
               <div
-                role="tooltip" data-testid="map-tooltip"
+                role="tooltip"
+                data-testid="map-tooltip"
                 className="pointer-events-none absolute z-20 max-w-xs rounded-plot bg-ink px-2 py-1 text-xs text-white"
                 style={{ left: Math.min(hover.x + 12, (size?.width ?? 0) - 220), top: hover.y + 12 }}
               >
                 {tooltipText(data, hover.target, (i) => values[i])}
               </div>
             ) : null}
-            {selected ? <DetailsPanel auditId={auditId} crs={meta.crs} target={selected} onClose={() => setSelected(null)} /> : null}
+            {selected ? (
+              <DetailsPanel auditId={auditId} crs={meta.crs} target={selected} onClose={() => setSelected(null)} />
+            ) : null}
           </div>
           <div className="flex flex-wrap items-start gap-6">
             {settings.layer === "cells" && cellValue === "share-out" ? (
-              <ColourLegend testId="legend-share" title={`Share of checkpoints out of tolerance per cell (${settings.cellLengthM} m of bed)`} max={1} format={(v) => `${Math.round(v * 100)} %`} />
+              <ColourLegend
+                testId="legend-share"
+                title={`Share of checkpoints out of tolerance per cell (${settings.cellLengthM} m of bed)`}
+                max={1}
+                format={(v) => `${Math.round(v * 100)} %`}
+              />
             ) : (
               <ColourLegend
-                testId="legend-error" max={domain[1]} format={mmLabel} limit={limit}
-                title={settings.layer === "cells" ? `Mean ${metricWords} per cell (${settings.cellLengthM} m of bed), mm` : `${METRIC_LABEL[settings.metric]}, mm`}
+                testId="legend-error"
+                max={domain[1]}
+                format={mmLabel}
+                limit={limit}
+                title={
+                  settings.layer === "cells"
+                    ? `Mean ${metricWords} per cell (${settings.cellLengthM} m of bed), mm`
+                    : `${METRIC_LABEL[settings.metric]}, mm`
+                }
                 limitLabel={limit !== null ? `limit of the profile: ${mmLabel(limit)}` : undefined}
               />
             )}
-            {settings.layer === "points" ? <SymbolKey exaggeration={settings.exaggeration} vectors={settings.vectors} showUnpaired={settings.showUnpaired} /> : null}
+            {settings.layer === "points" ? (
+              <SymbolKey
+                exaggeration={settings.exaggeration}
+                vectors={settings.vectors}
+                showUnpaired={settings.showUnpaired}
+              />
+            ) : null}
             <p className="max-w-sm text-[11px] text-ink-soft" data-testid="layout-note">
-              {layout.note}{meta.boundary.source === "records" ? " The outline is the hull of the records: the field has no boundary set." : ""}
+              {layout.note}
+              {meta.boundary.source === "records"
+                ? " The outline is the hull of the records: the field has no boundary set."
+                : ""}
             </p>
           </div>
           <div className="flex flex-wrap items-center justify-between gap-3">
             <p className="text-sm text-ink-soft" aria-live="polite" data-testid="map-status">
-              {settings.layer === "points"
-                ? <>Showing {formatCount(pairsShown.length)} of {formatCount(arrays.pairFlags.length)} checkpoints{hasVerdict ? <>, <span className="text-alarm">{formatCount(outShown)} out of tolerance</span></> : null}
-                  {unpairedCounts ? <> · {formatCount(unpairedCounts.planted)} records without a checkpoint · {formatCount(unpairedCounts.survey + unpairedCounts.ambiguous)} survey points without a record</> : null}.</>
-                : <>{formatCount(cells?.length ?? 0)} cells from {formatCount(pairsShown.length)} checkpoints.</>}
+              {settings.layer === "points" ? (
+                <>
+                  Showing {formatCount(pairsShown.length)} of {formatCount(arrays.pairFlags.length)} checkpoints
+                  {hasVerdict ? (
+                    <>
+                      , <span className="text-alarm">{formatCount(outShown)} out of tolerance</span>
+                    </>
+                  ) : null}
+                  {unpairedCounts ? (
+                    <>
+                      {" "}
+                      · {formatCount(unpairedCounts.planted)} records without a checkpoint ·{" "}
+                      {formatCount(unpairedCounts.survey + unpairedCounts.ambiguous)} survey points without a record
+                    </>
+                  ) : null}
+                  .
+                </>
+              ) : (
+                <>
+                  {formatCount(cells?.length ?? 0)} cells from {formatCount(pairsShown.length)} checkpoints.
+                </>
+              )}
             </p>
             {hasVerdict ? (
-              <div className="flex items-center gap-1" role="group" aria-label="Step through plants out of tolerance, largest error first">
-                <button type="button" disabled={!worstFirst.length} onClick={() => step(-1)} className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint">◀ Previous</button>
-                <button type="button" disabled={!worstFirst.length} onClick={() => step(1)} className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint" data-testid="next-out">Next out of tolerance ▶</button>
+              <div
+                className="flex items-center gap-1"
+                role="group"
+                aria-label="Step through plants out of tolerance, largest error first"
+              >
+                <button
+                  type="button"
+                  disabled={!worstFirst.length}
+                  onClick={() => step(-1)}
+                  className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint"
+                >
+                  ◀ Previous
+                </button>
+                <button
+                  type="button"
+                  disabled={!worstFirst.length}
+                  onClick={() => step(1)}
+                  className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint"
+                  data-testid="next-out"
+                >
+                  Next out of tolerance ▶
+                </button>
               </div>
             ) : null}
           </div>
@@ -298,7 +473,9 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
       {mode === "audit" ? (
         <section className="rounded-plot border border-chalk-line bg-white p-5" aria-label="Per bed">
           <h2 className="mb-2 text-base font-semibold">Per bed at this audit&apos;s tolerance</h2>
-          <p className="mb-3 text-sm" data-testid="map-guidance">{stats.summary}</p>
+          <p className="mb-3 text-sm" data-testid="map-guidance">
+            {stats.summary}
+          </p>
           <BedTable beds={stats.beds} guidance={stats.guidance} caption="Checkpoints per bed" />
         </section>
       ) : null}

@@ -19,7 +19,8 @@ const side = (cross: number) => (cross > 0 ? "right of the row" : cross < 0 ? "l
 
 /** One line about whatever the pointer is over, from the binary payload (no request). */
 export function tooltipText(data: MapData, target: MapTarget, metricValue: (seq: number) => number): string {
-  const a = data.arrays, dict = data.meta.dict;
+  const a = data.arrays,
+    dict = data.meta.dict;
   if (target.kind === "cell") {
     const c = target.cell;
     const where = c.bed ? `Bed ${c.bed}, ` : "";
@@ -29,12 +30,14 @@ export function tooltipText(data: MapData, target: MapTarget, metricValue: (seq:
   if (target.kind === "unpaired") {
     const i = target.seq;
     const kind = UNPAIRED_KINDS[a.unpairedKind[i]];
-    const bed = codeText(dict.bed, a.unpairedCodes.bed, i), row = codeText(dict.row, a.unpairedCodes.row, i);
+    const bed = codeText(dict.bed, a.unpairedCodes.bed, i),
+      row = codeText(dict.row, a.unpairedCodes.row, i);
     return `${KIND_WORDS[kind]}${bed ? ` · bed ${bed}` : ""}${row ? ` row ${row}` : ""} · click for details`;
   }
   const i = target.seq;
   const id = a.pairIds[i] || "plant without id";
-  const bed = codeText(dict.bed, a.pairCodes.bed, i), row = codeText(dict.row, a.pairCodes.row, i);
+  const bed = codeText(dict.bed, a.pairCodes.bed, i),
+    row = codeText(dict.row, a.pairCodes.row, i);
   const flags = a.pairFlags[i];
   const verdict = !(flags & PAIR_FLAG.WITHIN_KNOWN) ? "" : isOut(flags) ? " · out of tolerance" : " · within tolerance";
   return `${id}${bed ? ` · bed ${bed}` : ""}${row ? ` row ${row}` : ""} · ${formatMm(metricValue(i))}${verdict}`;
@@ -52,10 +55,27 @@ function Row({ label, children }: { label: string; children: React.ReactNode }) 
 const metres = (v: number) => v.toFixed(3);
 
 /** Side panel with the full record of the selected point, fetched as JSON when opened. */
-export function DetailsPanel({ auditId, crs, target, onClose }: { auditId: string; crs: string; target: MapTarget; onClose: () => void }) {
+export function DetailsPanel({
+  auditId,
+  crs,
+  target,
+  onClose,
+}: {
+  auditId: string;
+  crs: string;
+  target: MapTarget;
+  onClose: () => void;
+}) {
   const heading = useRef<HTMLHeadingElement>(null);
-  const key = target.kind === "pair" ? mapKeys.mapPair(auditId, target.seq) : target.kind === "unpaired" ? mapKeys.mapUnpaired(auditId, target.seq) : null;
-  const { data, error } = useSWR<{ pair?: ResidualRowDto; unpaired?: UnpairedRowDto }>(key, fetcher, { revalidateOnFocus: false });
+  const key =
+    target.kind === "pair"
+      ? mapKeys.mapPair(auditId, target.seq)
+      : target.kind === "unpaired"
+        ? mapKeys.mapUnpaired(auditId, target.seq)
+        : null;
+  const { data, error } = useSWR<{ pair?: ResidualRowDto; unpaired?: UnpairedRowDto }>(key, fetcher, {
+    revalidateOnFocus: false,
+  });
   useEffect(() => heading.current?.focus(), [key]);
 
   let body: React.ReactNode;
@@ -67,11 +87,23 @@ export function DetailsPanel({ auditId, crs, target, onClose }: { auditId: strin
         <Row label="Along the row">{`${c.from.toFixed(1)}–${c.to.toFixed(1)} m`}</Row>
         <Row label="Checkpoints">{c.n}</Row>
         <Row label="Mean error">{formatMm(c.mean)}</Row>
-        <Row label="Out of tolerance">{c.shareOut === null ? "–" : `${c.out} of ${c.known} (${(c.shareOut * 100).toFixed(0)} %)`}</Row>
+        <Row label="Out of tolerance">
+          {c.shareOut === null ? "–" : `${c.out} of ${c.known} (${(c.shareOut * 100).toFixed(0)} %)`}
+        </Row>
       </dl>
     );
-  } else if (error) body = <p role="alert" className="text-sm text-alarm">{(error as Error).message}</p>;
-  else if (!data) body = <p className="text-sm text-ink-faint" aria-busy="true">Loading…</p>;
+  } else if (error)
+    body = (
+      <p role="alert" className="text-sm text-alarm">
+        {(error as Error).message}
+      </p>
+    );
+  else if (!data)
+    body = (
+      <p className="text-sm text-ink-faint" aria-busy="true">
+        Loading…
+      </p>
+    );
   else if (data.pair) {
     const p = data.pair;
     body = (
@@ -95,18 +127,29 @@ export function DetailsPanel({ auditId, crs, target, onClose }: { auditId: strin
             <Row label="Survey id">{p.surveyId ?? "–"}</Row>
             <Row label="Easting">{metres(p.surveyE)}</Row>
             <Row label="Northing">{metres(p.surveyN)}</Row>
-            <Row label="Paired by">{p.pairedBy === "id" ? "plant id" : "position"}{p.beyondMaxDistance ? " (beyond the maximum distance)" : ""}</Row>
+            <Row label="Paired by">
+              {p.pairedBy === "id" ? "plant id" : "position"}
+              {p.beyondMaxDistance ? " (beyond the maximum distance)" : ""}
+            </Row>
           </dl>
         </section>
         <section>
-          <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-faint">Residual (survey − record)</h3>
+          <h3 className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-faint">
+            Residual (survey − record)
+          </h3>
           <dl>
             <Row label="East · north">{`${formatSignedMm(p.dE)} · ${formatSignedMm(p.dN)}`}</Row>
             <Row label="Along the row">{formatSignedMm(p.along)}</Row>
             <Row label="Across the row">{p.cross === null ? "–" : `${formatSignedMm(p.cross)} (${side(p.cross)})`}</Row>
             <Row label="Radial">{formatMm(p.radial)}</Row>
             <Row label="Tolerance">
-              {p.within === null ? "no limits" : p.within ? <span className="text-leaf">within</span> : <span className="text-alarm">out of tolerance</span>}
+              {p.within === null ? (
+                "no limits"
+              ) : p.within ? (
+                <span className="text-leaf">within</span>
+              ) : (
+                <span className="text-alarm">out of tolerance</span>
+              )}
             </Row>
             {p.outlier ? <Row label="Outlier rule">flagged</Row> : null}
           </dl>
@@ -131,12 +174,23 @@ export function DetailsPanel({ auditId, crs, target, onClose }: { auditId: strin
   return (
     <aside
       className="absolute bottom-2 right-2 top-12 z-10 w-80 overflow-y-auto rounded-plot border border-chalk-line bg-white p-4 shadow-sm"
-      aria-label={`${title} details`} data-testid="map-details"
-      onKeyDown={(e) => { if (e.key === "Escape") onClose(); }}
+      aria-label={`${title} details`}
+      data-testid="map-details"
+      onKeyDown={(e) => {
+        if (e.key === "Escape") onClose();
+      }}
     >
       <div className="mb-3 flex items-start justify-between gap-2">
-        <h2 ref={heading} tabIndex={-1} className="text-base font-semibold">{title}</h2>
-        <button type="button" onClick={onClose} className="rounded-plot border border-chalk-line px-2 py-0.5 text-sm hover:bg-chalk">Close</button>
+        <h2 ref={heading} tabIndex={-1} className="text-base font-semibold">
+          {title}
+        </h2>
+        <button
+          type="button"
+          onClick={onClose}
+          className="rounded-plot border border-chalk-line px-2 py-0.5 text-sm hover:bg-chalk"
+        >
+          Close
+        </button>
       </div>
       {body}
     </aside>

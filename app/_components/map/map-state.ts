@@ -29,7 +29,12 @@ export const METRIC_LABEL: Record<ErrorMetric, string> = {
 };
 
 export const FILTER_LABEL: Record<DictName, string> = {
-  crop: "Crop", arm: "Tool arm", bed: "Bed", row: "Row", fix: "GNSS fix", day: "Planting day",
+  crop: "Crop",
+  arm: "Tool arm",
+  bed: "Bed",
+  row: "Row",
+  fix: "GNSS fix",
+  day: "Planting day",
 };
 
 /** Filters offered in the controls (row is implied by bed and arm). */

@@ -21,7 +21,12 @@ export const COLOURS = {
 
 /** Hex forms for the HTML legend. */
 export const HEX = {
-  ink: "#1d2a24", inkFaint: "#7b8781", loam: "#7a4b2a", stake: "#d99a1e", alarm: "#b3362b", bed: "#f1e4d8",
+  ink: "#1d2a24",
+  inkFaint: "#7b8781",
+  loam: "#7a4b2a",
+  stake: "#d99a1e",
+  alarm: "#b3362b",
+  bed: "#f1e4d8",
 };
 
 /** Pixel sizes of the point symbols. */
@@ -37,7 +42,10 @@ export const SIZES = {
  * Icon atlas for deck.gl's IconLayer, drawn on a canvas (no image files, no network): a diamond for surveyed points
  * with no record, a triangle for survey points left ambiguous. Masks, tinted by the layer's colour.
  */
-export function shapeAtlas(): { url: string; mapping: Record<"diamond" | "triangle", { x: number; y: number; width: number; height: number; mask: boolean }> } {
+export function shapeAtlas(): {
+  url: string;
+  mapping: Record<"diamond" | "triangle", { x: number; y: number; width: number; height: number; mask: boolean }>;
+} {
   const s = 64;
   const canvas = document.createElement("canvas");
   canvas.width = 2 * s;

@@ -23,7 +23,12 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
   const [busy, setBusy] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
 
-  if (error) return <p className="text-sm text-alarm" role="alert">The review state could not be loaded: {(error as Error).message}</p>;
+  if (error)
+    return (
+      <p className="text-sm text-alarm" role="alert">
+        The review state could not be loaded: {(error as Error).message}
+      </p>
+    );
   if (!data) return <div className="h-10" aria-busy="true" />;
   const r = data.review;
   const reviewHref = `/audits/${auditId}/review`;
@@ -32,7 +37,9 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
     setBusy(true);
     setProblem(null);
     try {
-      const res = await sendJson<{ review: ReviewDto }>(`/api/audits/${auditId}/submit`, "POST", { note: note.trim() || null });
+      const res = await sendJson<{ review: ReviewDto }>(`/api/audits/${auditId}/submit`, "POST", {
+        note: note.trim() || null,
+      });
       await mutate(res, { revalidate: false });
       await mutateOther(reviewKeys.audit(auditId));
       await mutateOther(reviewKeys.activity(auditId));
@@ -45,39 +52,109 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
   }
 
   return (
-    <section aria-label="Review" className="rounded-plot border border-chalk-line bg-white px-4 py-3 print:hidden" data-testid="review-bar" data-state={r.state}>
+    <section
+      aria-label="Review"
+      className="rounded-plot border border-chalk-line bg-white px-4 py-3 print:hidden"
+      data-testid="review-bar"
+      data-state={r.state}
+    >
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
         <StateBadge state={r.state} />
         <span className="text-sm text-ink-soft">
           Revision {r.revision}
-          {r.state === "submitted" && r.submitted ? <> · submitted by {r.submitted.by}, {formatDate(r.submitted.at)}</> : null}
-          {r.state === "signed_off" && r.signoff ? <> · signed off by {r.signoff.signerName}, {formatDate(r.signoff.signedAt)}{r.signoff.deviation ? " (with deviation)" : ""}</> : null}
-          {r.state === "returned" && r.returned ? <> · returned by {r.returned.by}, {formatDate(r.returned.at)}</> : null}
+          {r.state === "submitted" && r.submitted ? (
+            <>
+              {" "}
+              · submitted by {r.submitted.by}, {formatDate(r.submitted.at)}
+            </>
+          ) : null}
+          {r.state === "signed_off" && r.signoff ? (
+            <>
+              {" "}
+              · signed off by {r.signoff.signerName}, {formatDate(r.signoff.signedAt)}
+              {r.signoff.deviation ? " (with deviation)" : ""}
+            </>
+          ) : null}
+          {r.state === "returned" && r.returned ? (
+            <>
+              {" "}
+              · returned by {r.returned.by}, {formatDate(r.returned.at)}
+            </>
+          ) : null}
         </span>
-        {r.revisedBy ? <Link className={link} href={`/audits/${r.revisedBy}`}>Go to the corrected revision</Link> : null}
+        {r.revisedBy ? (
+          <Link className={link} href={`/audits/${r.revisedBy}`}>
+            Go to the corrected revision
+          </Link>
+        ) : null}
         <div className="ml-auto flex flex-wrap items-center gap-3">
           {r.allowed.includes("submit") && !submitting ? (
-            <button type="button" className={button} onClick={() => setSubmitting(true)} data-testid="review-bar-submit">Submit for sign-off</button>
+            <button
+              type="button"
+              className={button}
+              onClick={() => setSubmitting(true)}
+              data-testid="review-bar-submit"
+            >
+              Submit for sign-off
+            </button>
           ) : null}
-          {r.allowed.includes("sign_off") ? <Link className={button} href={`${reviewHref}#decide`} data-testid="review-bar-decide">Review and decide</Link> : null}
-          {r.allowed.includes("revise") ? <Link className={button} href={`${reviewHref}#revise`}>Correct and re-run</Link> : null}
-          {r.state === "signed_off" ? <Link className={link} href={`/audits/${auditId}/report`} data-testid="review-bar-report">Printable sign-off report</Link> : null}
-          {showReviewLink ? <Link className={link} href={reviewHref} data-testid="review-bar-link">Review page</Link> : null}
+          {r.allowed.includes("sign_off") ? (
+            <Link className={button} href={`${reviewHref}#decide`} data-testid="review-bar-decide">
+              Review and decide
+            </Link>
+          ) : null}
+          {r.allowed.includes("revise") ? (
+            <Link className={button} href={`${reviewHref}#revise`}>
+              Correct and re-run
+            </Link>
+          ) : null}
+          {r.state === "signed_off" ? (
+            <Link className={link} href={`/audits/${auditId}/report`} data-testid="review-bar-report">
+              Printable sign-off report
+            </Link>
+          ) : null}
+          {showReviewLink ? (
+            <Link className={link} href={reviewHref} data-testid="review-bar-link">
+              Review page
+            </Link>
+          ) : null}
         </div>
       </div>
       {submitting ? (
-        <form className="mt-3 flex flex-wrap items-end gap-3 border-t border-chalk-deep pt-3" onSubmit={(e) => { e.preventDefault(); void submit(); }} aria-label="Submit for sign-off">
+        <form
+          className="mt-3 flex flex-wrap items-end gap-3 border-t border-chalk-deep pt-3"
+          onSubmit={(e) => {
+            e.preventDefault();
+            void submit();
+          }}
+          aria-label="Submit for sign-off"
+        >
           <label className="min-w-64 flex-1 text-sm">
             <span className="mb-1 block font-medium">Note for the QA lead (optional)</span>
-            <input value={note} onChange={(e) => setNote(e.target.value)} maxLength={1000} name="note"
-              className="w-full rounded-plot border border-chalk-line px-3 py-1.5 outline-none focus:border-leaf" />
+            <input
+              value={note}
+              onChange={(e) => setNote(e.target.value)}
+              maxLength={1000}
+              name="note"
+              className="w-full rounded-plot border border-chalk-line px-3 py-1.5 outline-none focus:border-leaf"
+            />
           </label>
-          <button type="submit" className={button} disabled={busy}>{busy ? "Submitting…" : "Submit"}</button>
-          <button type="button" className={link} onClick={() => setSubmitting(false)}>Cancel</button>
-          <p className="w-full text-xs text-ink-faint">The QA leads get an e-mail. You can no longer change the audit while it waits.</p>
+          <button type="submit" className={button} disabled={busy}>
+            {busy ? "Submitting…" : "Submit"}
+          </button>
+          <button type="button" className={link} onClick={() => setSubmitting(false)}>
+            Cancel
+          </button>
+          <p className="w-full text-xs text-ink-faint">
+            The QA leads get an e-mail. You can no longer change the audit while it waits.
+          </p>
         </form>
       ) : null}
-      {problem ? <p role="alert" className="mt-2 text-sm text-alarm">{problem}</p> : null}
+      {problem ? (
+        <p role="alert" className="mt-2 text-sm text-alarm">
+          {problem}
+        </p>
+      ) : null}
     </section>
   );
 }

@@ -15,7 +15,8 @@ export function StateBadge({ state, size = "sm" }: { state: string; size?: "sm" 
   return (
     <span
       className={`inline-flex items-center gap-1 rounded-plot border font-medium ${size === "lg" ? "px-3 py-1 text-base" : "px-2 py-0.5 text-xs"} ${TONE[state] ?? TONE.computed}`}
-      data-testid="state-badge" data-state={state}
+      data-testid="state-badge"
+      data-state={state}
     >
       {state === "signed_off" ? <span aria-hidden>✓</span> : state === "returned" ? <span aria-hidden>↩</span> : null}
       {name}

@@ -10,7 +10,8 @@ export function fileProblem(file: File, maxBytes: number): string | null {
     return `“${file.name}” is not a file Plotproof reads. Choose a .csv, .txt or .tsv export, or a .geojson/.json FeatureCollection${/\.(xlsx?|ods)$/i.test(file.name) ? " (save the spreadsheet as CSV first)" : ""}.`;
   }
   if (file.size === 0) return `“${file.name}” is empty.`;
-  if (file.size > maxBytes) return `“${file.name}” is ${(file.size / 1024 / 1024).toFixed(0)} MB; files up to ${maxBytes / 1024 / 1024} MB can be uploaded.`;
+  if (file.size > maxBytes)
+    return `“${file.name}” is ${(file.size / 1024 / 1024).toFixed(0)} MB; files up to ${maxBytes / 1024 / 1024} MB can be uploaded.`;
   return null;
 }
 
@@ -18,14 +19,30 @@ export function fileProblem(file: File, maxBytes: number): string | null {
  * Drop a file here, or choose it: a real file input (focusable, opens the picker with Enter or Space)
  * under a label that is also the drop target.
  */
-export function DropZone({ id, onFile, disabled, error, chosen }: {
-  id: string; onFile: (file: File) => void; disabled?: boolean; error?: string | null; chosen?: File | null;
+export function DropZone({
+  id,
+  onFile,
+  disabled,
+  error,
+  chosen,
+}: {
+  id: string;
+  onFile: (file: File) => void;
+  disabled?: boolean;
+  error?: string | null;
+  chosen?: File | null;
 }) {
   const [over, setOver] = useState(false);
-  const hintId = `${id}-hint`, errId = `${id}-error`;
+  const hintId = `${id}-hint`,
+    errId = `${id}-error`;
   return (
     <div
-      onDragOver={(e) => { if (disabled) return; e.preventDefault(); e.dataTransfer.dropEffect = "copy"; setOver(true); }}
+      onDragOver={(e) => {
+        if (disabled) return;
+        e.preventDefault();
+        e.dataTransfer.dropEffect = "copy";
+        setOver(true);
+      }}
       onDragLeave={() => setOver(false)}
       onDrop={(e) => {
         e.preventDefault();
@@ -53,16 +70,29 @@ export function DropZone({ id, onFile, disabled, error, chosen }: {
       <label
         htmlFor={id}
         className={`block cursor-pointer rounded-plot border-2 border-dashed px-6 py-8 text-center transition-colors peer-focus-visible:outline-2 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-stake peer-disabled:cursor-not-allowed peer-disabled:opacity-60 ${
-          over ? "border-leaf bg-leaf-pale" : error ? "border-alarm bg-white" : "border-chalk-line bg-white hover:border-leaf"
+          over
+            ? "border-leaf bg-leaf-pale"
+            : error
+              ? "border-alarm bg-white"
+              : "border-chalk-line bg-white hover:border-leaf"
         }`}
       >
         <span className="block text-base font-medium">Choose a file or drop it here</span>
-        <span className="mt-1 block text-sm text-ink-soft">{chosen ? `Chosen: ${chosen.name} — choose again to replace it` : "Click, or press Enter or Space, to open the file picker"}</span>
+        <span className="mt-1 block text-sm text-ink-soft">
+          {chosen
+            ? `Chosen: ${chosen.name} — choose again to replace it`
+            : "Click, or press Enter or Space, to open the file picker"}
+        </span>
       </label>
       <p id={hintId} className="mt-2 text-xs text-ink-faint">
-        CSV (.csv, .txt, .tsv — comma, semicolon, tab or pipe separated) or GeoJSON (.geojson, .json) with one point per plant. The file is read in this browser first; nothing is sent until you save.
+        CSV (.csv, .txt, .tsv — comma, semicolon, tab or pipe separated) or GeoJSON (.geojson, .json) with one point per
+        plant. The file is read in this browser first; nothing is sent until you save.
       </p>
-      {error ? <p id={errId} role="alert" className="mt-1 text-sm text-alarm" data-field-error={id}>{error}</p> : null}
+      {error ? (
+        <p id={errId} role="alert" className="mt-1 text-sm text-alarm" data-field-error={id}>
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }

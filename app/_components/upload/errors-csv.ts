@@ -18,13 +18,21 @@ export const ISSUE_CSV_COLUMNS = ["severity", "file", "line", "column", "value",
 
 /** The issues of a refused upload as CSV text (header first, LF line ends). */
 export function issuesCsv(issues: readonly InputIssue[]): string {
-  const rows = issues.map((i) => [i.severity, i.file, i.line, i.column, i.value, i.message, i.code].map(csvCell).join(","));
+  const rows = issues.map((i) =>
+    [i.severity, i.file, i.line, i.column, i.value, i.message, i.code].map(csvCell).join(","),
+  );
   return [ISSUE_CSV_COLUMNS.join(","), ...rows].join("\n") + "\n";
 }
 
 /** A file name made of safe characters, e.g. "reed-margin-as-planted-problems.csv". */
 export function safeFileName(...parts: string[]): string {
-  return parts.join("-").toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "") + ".csv";
+  return (
+    parts
+      .join("-")
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "") + ".csv"
+  );
 }
 
 /** Offers `text` as a download in the browser. */

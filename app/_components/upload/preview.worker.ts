@@ -18,7 +18,13 @@ const scope = self as unknown as WorkerScope;
 scope.addEventListener("message", (event) => {
   const { id, file, rows } = event.data;
   preview(id, file, rows)
-    .catch((err: unknown): PreviewFailure => ({ id, ok: false, message: `The file could not be read in the browser (${err instanceof Error ? err.message : String(err)}).` }))
+    .catch(
+      (err: unknown): PreviewFailure => ({
+        id,
+        ok: false,
+        message: `The file could not be read in the browser (${err instanceof Error ? err.message : String(err)}).`,
+      }),
+    )
     .then((result) => scope.postMessage(result));
 });
 
@@ -30,11 +36,13 @@ function binaryProblem(b: Uint8Array): string | null {
   if (b.length >= 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04) {
     return "This is a zip archive or a spreadsheet (.xlsx/.ods), not a text file. Export the sheet as CSV and choose that file.";
   }
-  if (b.length >= 2 && b[0] === 0x1f && b[1] === 0x8b) return "This file is gzip-compressed. Unpack it first and choose the .csv inside.";
+  if (b.length >= 2 && b[0] === 0x1f && b[1] === 0x8b)
+    return "This file is gzip-compressed. Unpack it first and choose the .csv inside.";
   if (b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff))) {
-    return "This file is UTF-16 text. Save it as UTF-8 (\"CSV UTF-8\" in most spreadsheet programs) and choose it again.";
+    return 'This file is UTF-16 text. Save it as UTF-8 ("CSV UTF-8" in most spreadsheet programs) and choose it again.';
   }
-  if (b.subarray(0, 4096).includes(0)) return "This file contains binary data, not text. Choose the CSV or GeoJSON export of the machine.";
+  if (b.subarray(0, 4096).includes(0))
+    return "This file contains binary data, not text. Choose the CSV or GeoJSON export of the machine.";
   return null;
 }
 
@@ -52,7 +60,8 @@ function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): Cs
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const nl = text.indexOf("\n");
   const cr = text.indexOf("\r");
-  const lineEnding: CsvPreview["lineEnding"] = nl >= 0 ? (nl > 0 && text[nl - 1] === "\r" ? "CRLF" : "LF") : cr >= 0 ? "CR" : "LF";
+  const lineEnding: CsvPreview["lineEnding"] =
+    nl >= 0 ? (nl > 0 && text[nl - 1] === "\r" ? "CRLF" : "LF") : cr >= 0 ? "CR" : "LF";
   const newline = lineEnding === "CRLF" ? "\r\n" : lineEnding === "CR" ? "\r" : "\n";
   const breakChar = lineEnding === "CR" ? "\r" : "\n";
   // Without the whole file, drop the last (probably cut) line.
@@ -65,7 +74,11 @@ function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): Cs
   for (let i = 0; i < text.length; ) {
     let end = text.indexOf(breakChar, i);
     if (end < 0) end = text.length;
-    for (let k = i; k < end; k++) if (text.charCodeAt(k) > 32) { nonBlank++; break; }
+    for (let k = i; k < end; k++)
+      if (text.charCodeAt(k) > 32) {
+        nonBlank++;
+        break;
+      }
     i = end + 1;
   }
   const lines = Math.max(0, nonBlank - 1);
@@ -77,7 +90,10 @@ function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): Cs
     const end = text.indexOf(breakChar, start);
     const candidate = end < 0 ? text.slice(start) : text.slice(start, end);
     if (candidate.trim() !== "") break;
-    if (end < 0) { start = text.length; break; }
+    if (end < 0) {
+      start = text.length;
+      break;
+    }
     start = end + 1;
     line++;
   }
@@ -86,7 +102,12 @@ function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): Cs
   const headerEnd = body.indexOf(breakChar);
   const delimiter = detectDelimiter(headerEnd < 0 ? body : body.slice(0, headerEnd));
 
-  const parsed = Papa.parse<string[]>(body, { delimiter, newline: newline as "\n", quoteChar: '"', preview: rows * 3 + 10 });
+  const parsed = Papa.parse<string[]>(body, {
+    delimiter,
+    newline: newline as "\n",
+    quoteChar: '"',
+    preview: rows * 3 + 10,
+  });
   const [header = [], ...rest] = parsed.data;
   const out: CsvPreview["rows"] = [];
   const breaksIn = (cells: string[]) => cells.reduce((n, c) => n + (c.split(breakChar).length - 1), 0);
@@ -102,10 +123,15 @@ function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): Cs
   const decimalCommaSeen = decimalCommaAccepted && out.some((r) => r.cells.some((c) => /^\s*[+-]?\d+,\d+\s*$/.test(c)));
   const bytesRead = Math.max(1, new TextEncoder().encode(text).length);
   return {
-    id, ok: true, format: "csv",
+    id,
+    ok: true,
+    format: "csv",
     header: header.map((h) => h.replace(/^\uFEFF/, "").trim()),
     rows: out,
-    delimiter, decimalCommaAccepted, decimalCommaSeen, lineEnding,
+    delimiter,
+    decimalCommaAccepted,
+    decimalCommaSeen,
+    lineEnding,
     rowCount: whole ? lines : Math.round((lines * file.size) / bytesRead),
     rowCountExact: whole,
   };
@@ -130,11 +156,19 @@ async function previewGeoJson(id: number, file: File, rows: number): Promise<Geo
   try {
     doc = JSON.parse((await file.text()).replace(/^\uFEFF/, ""));
   } catch (err) {
-    return { id, ok: false, message: `“${file.name}” is not valid JSON: ${err instanceof Error ? err.message : "it cannot be parsed"}.` };
+    return {
+      id,
+      ok: false,
+      message: `“${file.name}” is not valid JSON: ${err instanceof Error ? err.message : "it cannot be parsed"}.`,
+    };
   }
   const fc = doc as { type?: unknown; features?: unknown; crs?: { properties?: { name?: unknown } } } | null;
   if (!fc || typeof fc !== "object" || fc.type !== "FeatureCollection" || !Array.isArray(fc.features)) {
-    return { id, ok: false, message: `“${file.name}” is JSON but not a GeoJSON FeatureCollection; expected {"type": "FeatureCollection", "features": [...]} with one Point feature per plant.` };
+    return {
+      id,
+      ok: false,
+      message: `“${file.name}” is JSON but not a GeoJSON FeatureCollection; expected {"type": "FeatureCollection", "features": [...]} with one Point feature per plant.`,
+    };
   }
   const features = fc.features as (FeatureLike | null)[];
   const keys: string[] = [];
@@ -145,11 +179,22 @@ async function previewGeoJson(id: number, file: File, rows: number): Promise<Geo
   for (const f of features) {
     if (f && f.id !== undefined && f.id !== null) featureIds = true;
     const p = f?.properties;
-    if (p && typeof p === "object") for (const k of Object.keys(p)) if (!seen.has(k)) { seen.add(k); keys.push(k); }
+    if (p && typeof p === "object")
+      for (const k of Object.keys(p))
+        if (!seen.has(k)) {
+          seen.add(k);
+          keys.push(k);
+        }
     const g = f?.geometry;
     if (g && g.type !== "Point") otherGeometries[String(g.type)] = (otherGeometries[String(g.type)] ?? 0) + 1;
     const c = g?.coordinates;
-    if (Array.isArray(c) && typeof c[0] === "number" && typeof c[1] === "number" && (Math.abs(c[0]) > 180 || Math.abs(c[1]) > 90)) projected = true;
+    if (
+      Array.isArray(c) &&
+      typeof c[0] === "number" &&
+      typeof c[1] === "number" &&
+      (Math.abs(c[0]) > 180 || Math.abs(c[1]) > 90)
+    )
+      projected = true;
   }
   let crsHint: string | null = null;
   const crsName = fc.crs?.properties?.name;
@@ -158,19 +203,31 @@ async function previewGeoJson(id: number, file: File, rows: number): Promise<Geo
     if (m) crsHint = `EPSG:${m[1]}`;
     else if (/CRS84/i.test(crsName)) crsHint = "EPSG:4326";
   }
-  const kindFromHint = crsHint && crsHint !== "EPSG:4326" && crsHint !== "EPSG:4258"
-    ? (/^EPSG:(4\d{3})$/.test(crsHint) ? "geographic" : "projected") : null;
+  const kindFromHint =
+    crsHint && crsHint !== "EPSG:4326" && crsHint !== "EPSG:4258"
+      ? /^EPSG:(4\d{3})$/.test(crsHint)
+        ? "geographic"
+        : "projected"
+      : null;
   const shown = features.slice(0, rows);
   return {
-    id, ok: true, format: "geojson",
+    id,
+    ok: true,
+    format: "geojson",
     header: keys,
     rows: shown.map((f, i) => ({ line: i + 1, cells: keys.map((k) => cellText(f?.properties?.[k])) })),
     positions: shown.map((f) => {
       const c = f?.geometry?.coordinates;
-      return Array.isArray(c) ? c.slice(0, 2).map(String).join(", ") : f?.geometry ? String(f.geometry.type) : "no geometry";
+      return Array.isArray(c)
+        ? c.slice(0, 2).map(String).join(", ")
+        : f?.geometry
+          ? String(f.geometry.type)
+          : "no geometry";
     }),
     featureCount: features.length,
     coordinateKind: kindFromHint ?? (projected ? "projected" : "geographic"),
-    crsHint, featureIds, otherGeometries,
+    crsHint,
+    featureIds,
+    otherGeometries,
   };
 }

@@ -1,11 +1,26 @@
 /** A labelled progress bar; `value` null = the browser cannot tell how far it is. */
-export function ProgressBar({ id, label, value, detail }: { id: string; label: string; value: number | null; detail?: string }) {
+export function ProgressBar({
+  id,
+  label,
+  value,
+  detail,
+}: {
+  id: string;
+  label: string;
+  value: number | null;
+  detail?: string;
+}) {
   const pct = value === null ? null : Math.max(0, Math.min(100, Math.round(value * 100)));
   return (
     <div className="mb-3">
       <div className="mb-1 flex justify-between text-sm">
-        <span id={`${id}-label`} className="font-medium">{label}</span>
-        <span className="text-ink-soft" aria-hidden="true">{pct === null ? "…" : `${pct} %`}{detail ? ` · ${detail}` : ""}</span>
+        <span id={`${id}-label`} className="font-medium">
+          {label}
+        </span>
+        <span className="text-ink-soft" aria-hidden="true">
+          {pct === null ? "…" : `${pct} %`}
+          {detail ? ` · ${detail}` : ""}
+        </span>
       </div>
       <div
         role="progressbar"
@@ -17,7 +32,10 @@ export function ProgressBar({ id, label, value, detail }: { id: string; label: s
         data-testid={id}
         className="h-3 overflow-hidden rounded-plot bg-chalk-deep"
       >
-        <div className={`h-full bg-leaf transition-[width] duration-150 ${pct === null ? "w-1/3 animate-pulse" : ""}`} style={pct === null ? undefined : { width: `${pct}%` }} />
+        <div
+          className={`h-full bg-leaf transition-[width] duration-150 ${pct === null ? "w-1/3 animate-pulse" : ""}`}
+          style={pct === null ? undefined : { width: `${pct}%` }}
+        />
       </div>
     </div>
   );

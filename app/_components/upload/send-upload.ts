@@ -58,7 +58,11 @@ function fromBody(status: number, body: unknown): UploadOutcome {
  * for the NDJSON progress stream; the outcome is the stream's final `done` line, or the plain JSON answer
  * when the server refused before streaming (401, 403, 404, 413…).
  */
-export function sendUpload(url: string, form: FormData, handlers: UploadHandlers): { done: Promise<UploadOutcome>; abort: () => void } {
+export function sendUpload(
+  url: string,
+  form: FormData,
+  handlers: UploadHandlers,
+): { done: Promise<UploadOutcome>; abort: () => void } {
   const xhr = new XMLHttpRequest();
   const lines = new NdjsonLines();
   let finalLine: Extract<UploadStreamLine, { type: "done" }> | null = null;
@@ -88,8 +92,15 @@ export function sendUpload(url: string, form: FormData, handlers: UploadHandlers
       if (isStream()) {
         consume(true);
         const last = finalLine as Extract<UploadStreamLine, { type: "done" }> | null;
-        resolve(last ? fromBody(last.status, last.body)
-          : { kind: "network", message: "The server stopped answering before it said whether the file was saved. Open the field to see whether the file is listed before trying again." });
+        resolve(
+          last
+            ? fromBody(last.status, last.body)
+            : {
+                kind: "network",
+                message:
+                  "The server stopped answering before it said whether the file was saved. Open the field to see whether the file is listed before trying again.",
+              },
+        );
         return;
       }
       let body: unknown = null;
@@ -100,7 +111,12 @@ export function sendUpload(url: string, form: FormData, handlers: UploadHandlers
       }
       resolve(fromBody(xhr.status, body));
     };
-    xhr.onerror = () => resolve({ kind: "network", message: "The connection broke off during the upload. Check the network, then open the field to see whether the file is listed before trying again." });
+    xhr.onerror = () =>
+      resolve({
+        kind: "network",
+        message:
+          "The connection broke off during the upload. Check the network, then open the field to see whether the file is listed before trying again.",
+      });
     xhr.onabort = () => resolve({ kind: "aborted" });
     xhr.send(form);
   });
@@ -109,6 +125,7 @@ export function sendUpload(url: string, form: FormData, handlers: UploadHandlers
 
 /** The issues of a refused upload, keeping only well-formed ones. */
 export function asIssues(list: unknown[]): InputIssue[] {
-  return list.filter((i): i is InputIssue => !!i && typeof i === "object" && typeof (i as InputIssue).message === "string")
+  return list
+    .filter((i): i is InputIssue => !!i && typeof i === "object" && typeof (i as InputIssue).message === "string")
     .map((i) => ({ ...i, severity: i.severity === "warning" ? "warning" : "error" }));
 }

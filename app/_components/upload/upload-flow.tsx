@@ -8,8 +8,10 @@ import type { FileKind } from "./mapping-schema";
 import { usePreview } from "./use-preview";
 
 const INTRO: Record<FileKind, string> = {
-  planted: "The planting machine's export: one row per plant with its recorded position (latitude/longitude or easting/northing), and where available its id, crop, bed, row, tool arm, GNSS fix and planting time.",
-  survey: "The checkpoints measured with the more precise instrument (total station or RTK rover pole): one row per surveyed plant with its position and, where the tag was read, the plant id.",
+  planted:
+    "The planting machine's export: one row per plant with its recorded position (latitude/longitude or easting/northing), and where available its id, crop, bed, row, tool arm, GNSS fix and planting time.",
+  survey:
+    "The checkpoints measured with the more precise instrument (total station or RTK rover pole): one row per surveyed plant with its position and, where the tag was read, the plant id.",
 };
 
 /** Choose a file → preview → columns → save, for one field and one kind of file. */
@@ -35,19 +37,33 @@ export function UploadFlow({ field, kind }: { field: UploadField; kind: FileKind
   return (
     <>
       <section aria-labelledby="step-file" className="mb-6 rounded-plot border border-chalk-line bg-white p-5">
-        <h2 id="step-file" className="mb-1 text-base font-semibold">1. Choose the file</h2>
+        <h2 id="step-file" className="mb-1 text-base font-semibold">
+          1. Choose the file
+        </h2>
         <p className="mb-4 text-sm text-ink-soft">{INTRO[kind]}</p>
         <DropZone id="upload-file" onFile={take} disabled={busy} error={fileError} chosen={file} />
       </section>
 
       {preview.status === "reading" ? (
-        <p role="status" className="mb-6 text-sm text-ink-soft" data-testid="preview-reading">Reading the first rows of {file?.name}…</p>
+        <p role="status" className="mb-6 text-sm text-ink-soft" data-testid="preview-reading">
+          Reading the first rows of {file?.name}…
+        </p>
       ) : null}
       {preview.status === "failed" ? (
-        <div className="mb-6" data-testid="preview-failed"><Notice tone="alarm">{preview.message}</Notice></div>
+        <div className="mb-6" data-testid="preview-failed">
+          <Notice tone="alarm">{preview.message}</Notice>
+        </div>
       ) : null}
       {preview.status === "ready" && file ? (
-        <FileStep key={generation} file={file} preview={preview.preview} field={field} kind={kind} onBusy={setBusy} onReset={reset} />
+        <FileStep
+          key={generation}
+          file={file}
+          preview={preview.preview}
+          field={field}
+          kind={kind}
+          onBusy={setBusy}
+          onReset={reset}
+        />
       ) : null}
     </>
   );

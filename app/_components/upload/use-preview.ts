@@ -37,7 +37,10 @@ export function usePreview(file: File | null): PreviewState {
       setState(e.data.ok ? { status: "ready", preview: e.data } : { status: "failed", message: e.data.message });
     };
     const onError = (e: ErrorEvent) => {
-      setState({ status: "failed", message: `The preview could not be made in this browser (${e.message || "worker failed"}).` });
+      setState({
+        status: "failed",
+        message: `The preview could not be made in this browser (${e.message || "worker failed"}).`,
+      });
     };
     w.addEventListener("message", onMessage);
     w.addEventListener("error", onError);

@@ -4,7 +4,11 @@ import { findCrs, listCrs } from "@/geo";
 import { ANY_ROLE } from "@/lib/roles";
 import type { CrsDto } from "@/lib/api-types";
 
-const Query = z.object({ q: z.string().trim().max(80).default(""), lon: z.coerce.number().min(-180).max(180).optional(), lat: z.coerce.number().min(-90).max(90).optional() });
+const Query = z.object({
+  q: z.string().trim().max(80).default(""),
+  lon: z.coerce.number().min(-180).max(180).optional(),
+  lat: z.coerce.number().min(-90).max(90).optional(),
+});
 
 /** Search the bundled coordinate reference systems by code or name. */
 export const GET = guardedRoute(ANY_ROLE, async ({ req }) => {

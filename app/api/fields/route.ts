@@ -15,7 +15,9 @@ export const POST = guardedRoute(CAN_PREPARE, async ({ req, viewer }) => {
   const input = await parseJsonBody(req, FieldInput);
   const db = await getDb();
   if (await fieldNameTaken(db, { orgId: viewer.orgId, name: input.name })) {
-    throw new AppError("conflict", `A field named "${input.name}" already exists.`, [{ path: ["name"], message: "Name already used" }]);
+    throw new AppError("conflict", `A field named "${input.name}" already exists.`, [
+      { path: ["name"], message: "Name already used" },
+    ]);
   }
   const created = await createField(db, { orgId: viewer.orgId, userId: viewer.userId, input });
   return Response.json({ field: created }, { status: 201 });

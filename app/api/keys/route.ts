@@ -5,9 +5,13 @@ import { insertApiKey, listApiKeys } from "@/db/queries/api-keys";
 import { newApiKey } from "@/lib/api-keys";
 import { parseJsonBody } from "@/lib/validation/request";
 
-const KeyInput = z.object({ name: z.string().trim().min(1, "Name the key after the script or machine that uses it.").max(80) });
+const KeyInput = z.object({
+  name: z.string().trim().min(1, "Name the key after the script or machine that uses it.").max(80),
+});
 
-export const GET = guardedRoute(["owner"], async ({ viewer }) => Response.json({ keys: await listApiKeys(await getDb(), { orgId: viewer.orgId }) }));
+export const GET = guardedRoute(["owner"], async ({ viewer }) =>
+  Response.json({ keys: await listApiKeys(await getDb(), { orgId: viewer.orgId }) }),
+);
 
 /** Create a key for the signed-in owner; the key itself is in this answer only. */
 export const POST = guardedRoute(["owner"], async ({ req, viewer }) => {

@@ -7,11 +7,18 @@ import { parseJsonBody } from "@/lib/validation/request";
 import { ColumnMappingSchema } from "@/lib/validation/upload";
 
 const Query = z.object({ kind: z.enum(["planted", "survey"]).optional() });
-const PresetInput = z.object({ name: z.string().trim().min(1).max(80), kind: z.enum(["planted", "survey"]), crs: z.string().trim().min(1).nullable().default(null), mapping: ColumnMappingSchema });
+const PresetInput = z.object({
+  name: z.string().trim().min(1).max(80),
+  kind: z.enum(["planted", "survey"]),
+  crs: z.string().trim().min(1).nullable().default(null),
+  mapping: ColumnMappingSchema,
+});
 
 export const GET = guardedRoute(ANY_ROLE, async ({ req, viewer }) => {
   const q = Query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-  return Response.json({ presets: await listPresets(await getDb(), { orgId: viewer.orgId, kind: q.success ? q.data.kind : undefined }) });
+  return Response.json({
+    presets: await listPresets(await getDb(), { orgId: viewer.orgId, kind: q.success ? q.data.kind : undefined }),
+  });
 });
 
 export const POST = guardedRoute(CAN_PREPARE, async ({ req, viewer }) => {

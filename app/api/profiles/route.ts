@@ -8,15 +8,25 @@ import { ProfileInput } from "@/lib/validation/profile";
 import { parseJsonBody } from "@/lib/validation/request";
 
 export const GET = guardedRoute(ANY_ROLE, async ({ viewer }) =>
-  Response.json({ profiles: await listProfiles(await getDb(), { orgId: viewer.orgId }) }));
+  Response.json({ profiles: await listProfiles(await getDb(), { orgId: viewer.orgId }) }),
+);
 
 export const POST = guardedRoute(CAN_REVIEW, async ({ req, viewer }) => {
   const input = await parseJsonBody(req, ProfileInput);
   const db = await getDb();
   if (await profileNameTaken(db, { orgId: viewer.orgId, name: input.name })) {
-    throw new AppError("conflict", `A profile named "${input.name}" already exists.`, [{ path: ["name"], message: "Name already used" }]);
+    throw new AppError("conflict", `A profile named "${input.name}" already exists.`, [
+      { path: ["name"], message: "Name already used" },
+    ]);
   }
   const profile = await createProfile(db, { orgId: viewer.orgId, userId: viewer.userId, input });
-  await logActivity(db, { orgId: viewer.orgId, actorId: viewer.userId, action: "profile.created", subjectType: "profile", subjectId: profile.id, detail: { name: profile.name } });
+  await logActivity(db, {
+    orgId: viewer.orgId,
+    actorId: viewer.userId,
+    action: "profile.created",
+    subjectType: "profile",
+    subjectId: profile.id,
+    detail: { name: profile.name },
+  });
   return Response.json({ profile }, { status: 201 });
 });

@@ -5,7 +5,13 @@ import type { ActivityDto } from "../types";
 
 export function toActivityDtos(rows: ActivityRow[]): ActivityDto[] {
   return rows.map((r) => ({
-    id: r.id, at: r.at.toISOString(), action: r.action, actorName: r.actorName, subjectType: r.subjectType, subjectId: r.subjectId,
-    text: activityText(r.action, r.actorName, r.detail), href: activityHref(r.subjectType, r.subjectId),
+    id: r.id,
+    at: r.at.toISOString(),
+    action: r.action,
+    actorName: r.actorName,
+    subjectType: r.subjectType,
+    subjectId: r.subjectId,
+    text: activityText(r.action, r.actorName, r.detail),
+    href: activityHref(r.subjectType, r.subjectId),
   }));
 }

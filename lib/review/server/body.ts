@@ -3,7 +3,11 @@ import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 
 /** Parse a JSON body with zod (422 with the issues); an empty body counts as `{}` when `optional`. */
-export async function readBody<T extends z.ZodType>(req: Request, schema: T, opts: { optional?: boolean } = {}): Promise<z.infer<T>> {
+export async function readBody<T extends z.ZodType>(
+  req: Request,
+  schema: T,
+  opts: { optional?: boolean } = {},
+): Promise<z.infer<T>> {
   const text = await req.text();
   let body: unknown = {};
   if (text.trim() !== "" || !opts.optional) {

@@ -7,17 +7,36 @@ import { startAuditWorker } from "@/lib/audit-job/run-in-worker";
 import { AppError } from "@/lib/errors";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import { sha256Hex } from "../hash";
-import { buildRecord, reportHashes, residualDigest, unpairedDigest, type RecordDataset, type RecordSigner, type SignedRecord } from "../record";
+import {
+  buildRecord,
+  reportHashes,
+  residualDigest,
+  unpairedDigest,
+  type RecordDataset,
+  type RecordSigner,
+  type SignedRecord,
+} from "../record";
 
 export type RecordBody = Omit<SignedRecord, "schema" | "signoff">;
 
 /** An audit that has results and both inputs, or a 409 saying why not. */
 export function requireResults(a: AuditReviewRow): asserts a is AuditReviewRow & {
-  plantedDatasetId: string; surveyDatasetId: string; summary: NonNullable<AuditReviewRow["summary"]>; verdict: NonNullable<AuditReviewRow["verdict"]>;
-  settings: NonNullable<AuditReviewRow["settings"]>; profile: NonNullable<AuditReviewRow["profile"]>;
+  plantedDatasetId: string;
+  surveyDatasetId: string;
+  summary: NonNullable<AuditReviewRow["summary"]>;
+  verdict: NonNullable<AuditReviewRow["verdict"]>;
+  settings: NonNullable<AuditReviewRow["settings"]>;
+  profile: NonNullable<AuditReviewRow["profile"]>;
 } {
   if (!a.plantedDatasetId || !a.surveyDatasetId || !a.summary || !a.verdict || !a.settings || !a.profile) {
-    throw new AppError("conflict", a.state === "computing" ? "This audit is still computing." : a.state === "failed" ? "This audit failed to compute; it has no results." : "This audit has no results.");
+    throw new AppError(
+      "conflict",
+      a.state === "computing"
+        ? "This audit is still computing."
+        : a.state === "failed"
+          ? "This audit failed to compute; it has no results."
+          : "This audit has no results.",
+    );
   }
 }
 
@@ -28,7 +47,12 @@ function auditPart(a: AuditReviewRow): RecordBody["audit"] {
 /** The record as the database holds it now (the audit row, its datasets, its result rows and reports). */
 export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<RecordBody> {
   requireResults(a);
-  const m = await loadRecordMaterial(db, { auditId: a.id, orgId: a.orgId, plantedDatasetId: a.plantedDatasetId, surveyDatasetId: a.surveyDatasetId });
+  const m = await loadRecordMaterial(db, {
+    auditId: a.id,
+    orgId: a.orgId,
+    plantedDatasetId: a.plantedDatasetId,
+    surveyDatasetId: a.surveyDatasetId,
+  });
   const planted = m.datasets.get(a.plantedDatasetId);
   const survey = m.datasets.get(a.surveyDatasetId);
   if (!planted || !survey) throw new AppError("conflict", "An input file of this audit is missing.");
@@ -36,7 +60,11 @@ export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<Recor
     audit: auditPart(a),
     inputs: { planted, survey, settings: a.settings, profile: a.profile },
     results: {
-      summary: a.summary, verdict: a.verdict, residuals: residualDigest(m.residuals), unpaired: unpairedDigest(m.unpaired), reports: reportHashes(m.reports),
+      summary: a.summary,
+      verdict: a.verdict,
+      residuals: residualDigest(m.residuals),
+      unpaired: unpairedDigest(m.unpaired),
+      reports: reportHashes(m.reports),
     },
   };
 }
@@ -44,7 +72,14 @@ export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<Recor
 export interface Recomputation {
   body: RecordBody | null;
   /** Per input: is the raw file still the one uploaded, and do the stored parsed points match it? */
-  files: { kind: "planted" | "survey"; fileName: string; rawSha256: string | null; storedSha256: string; pointsMatch: boolean | null; problem: string | null }[];
+  files: {
+    kind: "planted" | "survey";
+    fileName: string;
+    rawSha256: string | null;
+    storedSha256: string;
+    pointsMatch: boolean | null;
+    problem: string | null;
+  }[];
   problem: string | null;
 }
 
@@ -56,38 +91,85 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
   requireResults(a);
   const files: Recomputation["files"] = [];
   const tables: Partial<Record<"planted" | "survey", { table: PointTable; meta: RecordDataset }>> = {};
-  for (const [kind, meta] of [["planted", stored.inputs.planted], ["survey", stored.inputs.survey]] as const) {
+  for (const [kind, meta] of [
+    ["planted", stored.inputs.planted],
+    ["survey", stored.inputs.survey],
+  ] as const) {
     const bytes = await getRawFile(db, { datasetId: meta.datasetId, orgId: a.orgId });
     if (!bytes) {
-      files.push({ kind, fileName: meta.fileName, rawSha256: null, storedSha256: meta.sha256, pointsMatch: null, problem: "the raw file is missing" });
+      files.push({
+        kind,
+        fileName: meta.fileName,
+        rawSha256: null,
+        storedSha256: meta.sha256,
+        pointsMatch: null,
+        problem: "the raw file is missing",
+      });
       continue;
     }
     const rawSha256 = sha256Hex(bytes);
     const read = await readPoints([bytes], {
-      source: meta.fileName, role: kind, mapping: (meta.mapping as ColumnMapping | null) ?? undefined, timeZone: a.settings.timeZone,
+      source: meta.fileName,
+      role: kind,
+      mapping: (meta.mapping as ColumnMapping | null) ?? undefined,
+      timeZone: a.settings.timeZone,
       format: (meta.format as PointFileFormat) ?? formatFromName(meta.fileName),
     });
     if (!read.table) {
-      files.push({ kind, fileName: meta.fileName, rawSha256, storedSha256: meta.sha256, pointsMatch: null, problem: `the raw file can no longer be read: ${read.issues.find((i) => i.severity === "error")?.message ?? "unknown error"}` });
+      files.push({
+        kind,
+        fileName: meta.fileName,
+        rawSha256,
+        storedSha256: meta.sha256,
+        pointsMatch: null,
+        problem: `the raw file can no longer be read: ${read.issues.find((i) => i.severity === "error")?.message ?? "unknown error"}`,
+      });
       continue;
     }
     const storedPoints = await loadDatasetPoints(db, { id: meta.datasetId, orgId: a.orgId });
-    files.push({ kind, fileName: meta.fileName, rawSha256, storedSha256: meta.sha256, pointsMatch: storedPoints ? sameCoordinates(read.table, storedPoints.table) : false, problem: null });
-    tables[kind] = { table: read.table, meta: { ...meta, sha256: rawSha256, sizeBytes: bytes.byteLength, rowCount: read.table.length } };
+    files.push({
+      kind,
+      fileName: meta.fileName,
+      rawSha256,
+      storedSha256: meta.sha256,
+      pointsMatch: storedPoints ? sameCoordinates(read.table, storedPoints.table) : false,
+      problem: null,
+    });
+    tables[kind] = {
+      table: read.table,
+      meta: { ...meta, sha256: rawSha256, sizeBytes: bytes.byteLength, rowCount: read.table.length },
+    };
   }
-  if (!tables.planted || !tables.survey) return { body: null, files, problem: "Both raw files are needed to re-compute the audit." };
+  if (!tables.planted || !tables.survey)
+    return { body: null, files, problem: "Both raw files are needed to re-compute the audit." };
 
   // A bearing the engine derived itself is derived again, not passed in as if it had been given.
-  const settings: AuditSettingsDto = { ...a.settings, rowBearingDeg: a.summary.rowBearingSource === "derived" ? null : a.settings.rowBearingDeg };
+  const settings: AuditSettingsDto = {
+    ...a.settings,
+    rowBearingDeg: a.summary.rowBearingSource === "derived" ? null : a.settings.rowBearingDeg,
+  };
   // The engine runs on the audit worker thread (lib/audit-job), which sends digests rather than rows.
   const job = await startAuditWorker({
-    planted: tables.planted.table, plantedCrs: tables.planted.meta.crs, survey: tables.survey.table, surveyCrs: tables.survey.meta.crs,
-    settings, profile: a.profile, digestsOnly: true,
+    planted: tables.planted.table,
+    plantedCrs: tables.planted.meta.crs,
+    survey: tables.survey.table,
+    surveyCrs: tables.survey.meta.crs,
+    settings,
+    profile: a.profile,
+    digestsOnly: true,
   });
   try {
     for await (const m of job.messages) {
       if (m.type === "stage") continue;
-      if (m.type === "refused") return { body: null, files, problem: `Re-computing failed: ${m.errors.map((e) => e.message).slice(0, 3).join("; ")}` };
+      if (m.type === "refused")
+        return {
+          body: null,
+          files,
+          problem: `Re-computing failed: ${m.errors
+            .map((e) => e.message)
+            .slice(0, 3)
+            .join("; ")}`,
+        };
       if (m.type === "error") return { body: null, files, problem: `Re-computing failed: ${m.message}` };
       if (m.type !== "computed" || !m.digests) break;
       return {
@@ -95,10 +177,23 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
         problem: null,
         body: {
           audit: auditPart(a),
-          inputs: { planted: tables.planted.meta, survey: tables.survey.meta, settings: m.settings, profile: a.profile },
+          inputs: {
+            planted: tables.planted.meta,
+            survey: tables.survey.meta,
+            settings: m.settings,
+            profile: a.profile,
+          },
           results: {
-            summary: m.summary, verdict: m.verdict, residuals: m.digests.residuals, unpaired: m.digests.unpaired,
-            reports: reportHashes(Object.fromEntries(m.reports.map((r) => [r.kind, r.bytes])) as Record<"residuals" | "unpaired" | "summary", Uint8Array>),
+            summary: m.summary,
+            verdict: m.verdict,
+            residuals: m.digests.residuals,
+            unpaired: m.digests.unpaired,
+            reports: reportHashes(
+              Object.fromEntries(m.reports.map((r) => [r.kind, r.bytes])) as Record<
+                "residuals" | "unpaired" | "summary",
+                Uint8Array
+              >,
+            ),
           },
         },
       };

@@ -5,8 +5,16 @@ import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
 import { getProfileById } from "@/db/queries/profiles";
 import { getAuditById } from "@/db/queries/audits";
 import {
-  createRevisionRow, getAuditForReview, getRevisionOf, getSignoff, listReviewEvents, listRevisions, signOffAudit as storeSignoff, transitionAudit,
-  type Actor, type AuditReviewRow,
+  createRevisionRow,
+  getAuditForReview,
+  getRevisionOf,
+  getSignoff,
+  listReviewEvents,
+  listRevisions,
+  signOffAudit as storeSignoff,
+  transitionAudit,
+  type Actor,
+  type AuditReviewRow,
 } from "@/db/queries/review";
 import { computeStoredAudit } from "@/lib/services/run-audit";
 import { notifyDecision, notifySubmitted } from "@/lib/mail/notify";
@@ -18,7 +26,13 @@ import { allowedActions, refusal, STATE_NAME, type ReviewAction } from "../lifec
 import { evaluateChecklist, medianFinite, namesMatch, tightestLimit } from "../checklist";
 import { hashRecord } from "../record";
 import type { ReviewDto } from "../types";
-import { DEVIATION_COMMENT_MIN, type ReturnInput, type ReviseInput, type SignoffInput, type SubmitInput } from "../validation";
+import {
+  DEVIATION_COMMENT_MIN,
+  type ReturnInput,
+  type ReviseInput,
+  type SignoffInput,
+  type SubmitInput,
+} from "../validation";
 import { requireResults, storedRecordBody, withSigner } from "./record-sources";
 
 const HAS_RESULTS = new Set(["computed", "submitted", "signed_off", "returned"]);
@@ -28,7 +42,10 @@ export function actorOf(viewer: Viewer): Actor {
 }
 
 /** The audit of this id in the viewer's organisation, else 404 (also for another organisation's audit). */
-export async function reviewAuditFor(viewer: Viewer, params: { id: string }): Promise<{ db: DB; audit: AuditReviewRow }> {
+export async function reviewAuditFor(
+  viewer: Viewer,
+  params: { id: string },
+): Promise<{ db: DB; audit: AuditReviewRow }> {
   const p = IdParam.safeParse(params);
   if (!p.success) throw notFound("Audit");
   const db = await getDb();
@@ -39,23 +56,32 @@ export async function reviewAuditFor(viewer: Viewer, params: { id: string }): Pr
 
 /** 403 / 409 with the reason when the viewer may not take `action` on the audit now. */
 export async function assertMay(db: DB, viewer: Viewer, audit: AuditReviewRow, action: ReviewAction): Promise<void> {
-  const hasRevision = action === "revise" ? !!(await getRevisionOf(db, { auditId: audit.id, orgId: audit.orgId })) : false;
+  const hasRevision =
+    action === "revise" ? !!(await getRevisionOf(db, { auditId: audit.id, orgId: audit.orgId })) : false;
   const no = refusal(viewer.role, audit.state, action, { hasRevision });
   if (no) throw new AppError(no.status === 403 ? "forbidden" : "conflict", no.message);
 }
 
 /** Where the audit stands in review and what the viewer may do next. */
-export async function buildReview(db: DB, viewer: Viewer, audit: AuditReviewRow, opts: { withCanonical?: boolean } = {}): Promise<ReviewDto> {
+export async function buildReview(
+  db: DB,
+  viewer: Viewer,
+  audit: AuditReviewRow,
+  opts: { withCanonical?: boolean } = {},
+): Promise<ReviewDto> {
   const [events, signoff, revisedBy, revisions] = await Promise.all([
     listReviewEvents(db, { auditId: audit.id, orgId: audit.orgId }),
     getSignoff(db, { auditId: audit.id, orgId: audit.orgId, withCanonical: opts.withCanonical }),
     getRevisionOf(db, { auditId: audit.id, orgId: audit.orgId }),
     listRevisions(db, { orgId: audit.orgId, seriesId: audit.seriesId ?? audit.id }),
   ]);
-  const last = <K extends ReviewDto["events"][number]["kind"]>(kind: K) => [...events].reverse().find((e) => e.kind === kind) ?? null;
+  const last = <K extends ReviewDto["events"][number]["kind"]>(kind: K) =>
+    [...events].reverse().find((e) => e.kind === kind) ?? null;
   const sub = last("submitted");
   const ret = last("returned");
-  const allowed: ReviewDto["allowed"] = allowedActions(viewer.role, audit.state).filter((a) => !(a === "revise" && revisedBy));
+  const allowed: ReviewDto["allowed"] = allowedActions(viewer.role, audit.state).filter(
+    (a) => !(a === "revise" && revisedBy),
+  );
   if (HAS_RESULTS.has(audit.state)) allowed.push("verify");
   let signoffDto: ReviewDto["signoff"] = null;
   if (signoff) {
@@ -63,11 +89,19 @@ export async function buildReview(db: DB, viewer: Viewer, audit: AuditReviewRow,
     signoffDto = rest;
   }
   return {
-    auditId: audit.id, title: audit.title, state: audit.state, revision: audit.revision, revisionOf: audit.revisionOf,
-    revisedBy: revisedBy?.id ?? null, revisions,
+    auditId: audit.id,
+    title: audit.title,
+    state: audit.state,
+    revision: audit.revision,
+    revisionOf: audit.revisionOf,
+    revisedBy: revisedBy?.id ?? null,
+    revisions,
     submitted: sub ? { by: sub.actorName, at: sub.at, note: sub.note } : null,
     returned: ret ? { by: ret.actorName, at: ret.at, reasons: ret.reasons ?? [], comment: ret.note } : null,
-    signoff: signoffDto, events, viewerRole: viewer.role, allowed,
+    signoff: signoffDto,
+    events,
+    viewerRole: viewer.role,
+    allowed,
   };
 }
 
@@ -79,30 +113,62 @@ async function reload(db: DB, viewer: Viewer, id: string): Promise<ReviewDto> {
 
 async function raced(db: DB, viewer: Viewer, id: string, action: ReviewAction): Promise<never> {
   const now = await getAuditForReview(db, { id, orgId: viewer.orgId });
-  throw new AppError("conflict", now
-    ? `Someone else acted first: the audit is now ${STATE_NAME[now.state].toLowerCase()}, so it could not be ${action === "sign_off" ? "signed off" : action === "return" ? "returned" : "submitted"}.`
-    : "The audit no longer exists.");
+  throw new AppError(
+    "conflict",
+    now
+      ? `Someone else acted first: the audit is now ${STATE_NAME[now.state].toLowerCase()}, so it could not be ${action === "sign_off" ? "signed off" : action === "return" ? "returned" : "submitted"}.`
+      : "The audit no longer exists.",
+  );
 }
 
-export async function submitAudit(viewer: Viewer, db: DB, audit: AuditReviewRow, input: SubmitInput): Promise<ReviewDto> {
+export async function submitAudit(
+  viewer: Viewer,
+  db: DB,
+  audit: AuditReviewRow,
+  input: SubmitInput,
+): Promise<ReviewDto> {
   const note = input.note?.trim() || null;
   const ok = await transitionAudit(db, {
-    id: audit.id, orgId: viewer.orgId, revision: audit.revision, from: "computed", to: "submitted", actor: actorOf(viewer),
-    event: { kind: "submitted", note }, activity: { action: "audit.submitted", detail: { revision: audit.revision, note } },
+    id: audit.id,
+    orgId: viewer.orgId,
+    revision: audit.revision,
+    from: "computed",
+    to: "submitted",
+    actor: actorOf(viewer),
+    event: { kind: "submitted", note },
+    activity: { action: "audit.submitted", detail: { revision: audit.revision, note } },
   });
   if (!ok) await raced(db, viewer, audit.id, "submit");
   await notifySubmitted({ auditId: audit.id, orgId: viewer.orgId, submitterName: viewer.name, note });
   return reload(db, viewer, audit.id);
 }
 
-export async function returnAudit(viewer: Viewer, db: DB, audit: AuditReviewRow, input: ReturnInput): Promise<ReviewDto> {
+export async function returnAudit(
+  viewer: Viewer,
+  db: DB,
+  audit: AuditReviewRow,
+  input: ReturnInput,
+): Promise<ReviewDto> {
   const reasons = [...new Set(input.reasons)];
   const ok = await transitionAudit(db, {
-    id: audit.id, orgId: viewer.orgId, revision: audit.revision, from: "submitted", to: "returned", actor: actorOf(viewer),
-    event: { kind: "returned", note: input.comment, reasons }, activity: { action: "audit.returned", detail: { revision: audit.revision, reasons, comment: input.comment } },
+    id: audit.id,
+    orgId: viewer.orgId,
+    revision: audit.revision,
+    from: "submitted",
+    to: "returned",
+    actor: actorOf(viewer),
+    event: { kind: "returned", note: input.comment, reasons },
+    activity: { action: "audit.returned", detail: { revision: audit.revision, reasons, comment: input.comment } },
   });
   if (!ok) await raced(db, viewer, audit.id, "return");
-  await notifyDecision({ auditId: audit.id, orgId: viewer.orgId, decision: "returned", returnerName: viewer.name, reasons, comment: input.comment });
+  await notifyDecision({
+    auditId: audit.id,
+    orgId: viewer.orgId,
+    decision: "returned",
+    returnerName: viewer.name,
+    reasons,
+    comment: input.comment,
+  });
   return reload(db, viewer, audit.id);
 }
 
@@ -116,30 +182,59 @@ export async function surveyPrecision(db: DB, audit: AuditReviewRow): Promise<nu
 export async function signOff(viewer: Viewer, db: DB, audit: AuditReviewRow, input: SignoffInput): Promise<ReviewDto> {
   requireResults(audit);
   const issues: { path: string[]; message: string }[] = [];
-  const checked = evaluateChecklist({
-    pairs: audit.summary.pairs, minCheckpoints: audit.profile.minCheckpoints, tightestLimitM: tightestLimit(audit.profile),
-    filePrecisionM: await surveyPrecision(db, audit), profileName: audit.profile.name, operation: audit.profile.operation,
-  }, input.checklist);
+  const checked = evaluateChecklist(
+    {
+      pairs: audit.summary.pairs,
+      minCheckpoints: audit.profile.minCheckpoints,
+      tightestLimitM: tightestLimit(audit.profile),
+      filePrecisionM: await surveyPrecision(db, audit),
+      profileName: audit.profile.name,
+      operation: audit.profile.operation,
+    },
+    input.checklist,
+  );
   if (!checked.ok) issues.push(...checked.issues);
   const deviation = !audit.verdict.passed;
   const comment = input.comment?.trim() || null;
   if (deviation && (!comment || comment.length < DEVIATION_COMMENT_MIN)) {
-    const failed = audit.verdict.criteria.filter((c) => !c.passed).map((c) => c.id).join(", ");
-    issues.push({ path: ["comment"], message: `Some criteria failed (${failed}). Signing off accepts the audit with deviation: say why (at least ${DEVIATION_COMMENT_MIN} characters).` });
+    const failed = audit.verdict.criteria
+      .filter((c) => !c.passed)
+      .map((c) => c.id)
+      .join(", ");
+    issues.push({
+      path: ["comment"],
+      message: `Some criteria failed (${failed}). Signing off accepts the audit with deviation: say why (at least ${DEVIATION_COMMENT_MIN} characters).`,
+    });
   }
-  if (!namesMatch(input.typedName, viewer.name)) issues.push({ path: ["typedName"], message: `Type your name as it is on your account (${viewer.name}) to sign.` });
+  if (!namesMatch(input.typedName, viewer.name))
+    issues.push({ path: ["typedName"], message: `Type your name as it is on your account (${viewer.name}) to sign.` });
   if (issues.length || !checked.ok) throw new AppError("invalid_input", issues.map((i) => i.message).join(" "), issues);
 
   const signedAt = new Date();
   const body = await storedRecordBody(db, audit);
   const record = withSigner(body, {
-    signerId: viewer.userId, signerName: viewer.name, signerRole: viewer.role, typedName: input.typedName.trim(),
-    checklist: checked.record, comment, deviation, signedAt: signedAt.toISOString(),
+    signerId: viewer.userId,
+    signerName: viewer.name,
+    signerRole: viewer.role,
+    typedName: input.typedName.trim(),
+    checklist: checked.record,
+    comment,
+    deviation,
+    signedAt: signedAt.toISOString(),
   });
   const { canonical, sha256 } = hashRecord(record);
   const ok = await storeSignoff(db, {
-    auditId: audit.id, orgId: viewer.orgId, revision: audit.revision, actor: actorOf(viewer), typedName: input.typedName.trim(),
-    checklist: checked.record, comment, deviation, sha256, canonical, signedAt,
+    auditId: audit.id,
+    orgId: viewer.orgId,
+    revision: audit.revision,
+    actor: actorOf(viewer),
+    typedName: input.typedName.trim(),
+    checklist: checked.record,
+    comment,
+    deviation,
+    sha256,
+    canonical,
+    signedAt,
   });
   if (!ok) await raced(db, viewer, audit.id, "sign_off");
   await notifyDecision({ auditId: audit.id, orgId: viewer.orgId, decision: "signed_off" });
@@ -150,7 +245,13 @@ export async function signOff(viewer: Viewer, db: DB, audit: AuditReviewRow, inp
  * Re-run a returned audit as a new revision with the corrections given (other files of the same field,
  * another profile, other pairing settings). The returned audit stays as it is, readable.
  */
-export async function reviseAudit(viewer: Viewer, db: DB, previous: AuditReviewRow, input: ReviseInput, opts: { wait?: boolean } = {}): Promise<AuditDto> {
+export async function reviseAudit(
+  viewer: Viewer,
+  db: DB,
+  previous: AuditReviewRow,
+  input: ReviseInput,
+  opts: { wait?: boolean } = {},
+): Promise<AuditDto> {
   const orgId = viewer.orgId;
   const issues: { path: string[]; message: string }[] = [];
   const plantedId = input.plantedDatasetId ?? previous.plantedDatasetId;
@@ -161,9 +262,12 @@ export async function reviseAudit(viewer: Viewer, db: DB, previous: AuditReviewR
     surveyId ? getDatasetById(db, { id: surveyId, orgId }) : null,
     profileId ? getProfileById(db, { id: profileId, orgId }) : null,
   ]);
-  if (!planted || planted.fieldId !== previous.fieldId || planted.kind !== "planted") issues.push({ path: ["plantedDatasetId"], message: "Choose as-planted records of this field." });
-  if (!survey || survey.fieldId !== previous.fieldId || survey.kind !== "survey") issues.push({ path: ["surveyDatasetId"], message: "Choose a survey of this field." });
-  if (!profile) issues.push({ path: ["profileId"], message: "Choose a tolerance profile (the one used before no longer exists)." });
+  if (!planted || planted.fieldId !== previous.fieldId || planted.kind !== "planted")
+    issues.push({ path: ["plantedDatasetId"], message: "Choose as-planted records of this field." });
+  if (!survey || survey.fieldId !== previous.fieldId || survey.kind !== "survey")
+    issues.push({ path: ["surveyDatasetId"], message: "Choose a survey of this field." });
+  if (!profile)
+    issues.push({ path: ["profileId"], message: "Choose a tolerance profile (the one used before no longer exists)." });
   if (issues.length) throw new AppError("invalid_input", issues.map((i) => i.message).join(" "), issues);
 
   const before = previous.settings;
@@ -176,21 +280,31 @@ export async function reviseAudit(viewer: Viewer, db: DB, previous: AuditReviewR
   const settings: AuditSettingsDto = {
     match: input.match ?? before?.match ?? "auto",
     maxDistanceM: input.maxDistanceM ?? before?.maxDistanceM ?? 0.1,
-    rowBearingDeg: input.rowBearingDeg !== undefined ? input.rowBearingDeg
-      : previous.summary?.rowBearingSource === "derived" ? null : before?.rowBearingDeg ?? null,
+    rowBearingDeg:
+      input.rowBearingDeg !== undefined
+        ? input.rowBearingDeg
+        : previous.summary?.rowBearingSource === "derived"
+          ? null
+          : (before?.rowBearingDeg ?? null),
     timeZone: before?.timeZone ?? "UTC",
     workCrs,
   };
   const { builtIn: _b, note: _n, updatedAt: _u, ...snapshot } = profile!;
   const title = input.title ?? previous.title;
   const id = await createRevisionRow(db, {
-    previous, actor: actorOf(viewer), plantedDatasetId: planted!.id, surveyDatasetId: survey!.id, profileId: profile!.id,
-    profileSnapshot: snapshot, settings, title,
+    previous,
+    actor: actorOf(viewer),
+    plantedDatasetId: planted!.id,
+    surveyDatasetId: survey!.id,
+    profileId: profile!.id,
+    profileSnapshot: snapshot,
+    settings,
+    title,
   });
-  if (!id) throw new AppError("conflict", "This returned audit already has a corrected revision; continue with that one.");
+  if (!id)
+    throw new AppError("conflict", "This returned audit already has a corrected revision; continue with that one.");
   const run = computeStoredAudit(db, { id, orgId });
   if (opts.wait) await run;
   else void run;
   return (await getAuditById(db, { id, orgId }))!;
 }
-

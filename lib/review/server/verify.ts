@@ -23,8 +23,12 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
     const recordHash = sha256Hex(signoff.canonicalText);
     const intact = recordHash === signoff.sha256;
     checks.push({
-      id: "record", ok: intact, label: "Sign-off record intact",
-      text: intact ? `The stored record hashes to the signed SHA-256 ${short(signoff.sha256)}.` : `The stored record hashes to ${short(recordHash)}, not to the signed ${short(signoff.sha256)}: the record itself was changed.`,
+      id: "record",
+      ok: intact,
+      label: "Sign-off record intact",
+      text: intact
+        ? `The stored record hashes to the signed SHA-256 ${short(signoff.sha256)}.`
+        : `The stored record hashes to ${short(recordHash)}, not to the signed ${short(signoff.sha256)}: the record itself was changed.`,
     });
     try {
       signedRecord = JSON.parse(signoff.canonicalText) as SignedRecord;
@@ -35,22 +39,32 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
   }
 
   const stored = await storedRecordBody(db, audit);
-  const reference: RecordBody = signedRecord ? { audit: signedRecord.audit, inputs: signedRecord.inputs, results: signedRecord.results } : stored;
+  const reference: RecordBody = signedRecord
+    ? { audit: signedRecord.audit, inputs: signedRecord.inputs, results: signedRecord.results }
+    : stored;
   const recomputed = await recomputeRecordBody(db, audit, stored);
 
   for (const f of recomputed.files) {
     const signedSha = signedRecord?.inputs[f.kind].sha256 ?? f.storedSha256;
     const same = f.rawSha256 !== null && f.rawSha256 === f.storedSha256 && f.rawSha256 === signedSha;
     checks.push({
-      id: "raw-files", ok: same && !f.problem, label: `Raw ${f.kind === "planted" ? "as-planted" : "survey"} file unchanged`,
-      text: f.problem ? `${f.fileName}: ${f.problem}.`
-        : same ? `${f.fileName} still hashes to ${short(f.rawSha256!)}.`
-        : `${f.fileName} now hashes to ${short(f.rawSha256 ?? "–")}; the upload recorded ${short(f.storedSha256)}${signedRecord ? ` and the sign-off ${short(signedSha)}` : ""}.`,
+      id: "raw-files",
+      ok: same && !f.problem,
+      label: `Raw ${f.kind === "planted" ? "as-planted" : "survey"} file unchanged`,
+      text: f.problem
+        ? `${f.fileName}: ${f.problem}.`
+        : same
+          ? `${f.fileName} still hashes to ${short(f.rawSha256!)}.`
+          : `${f.fileName} now hashes to ${short(f.rawSha256 ?? "–")}; the upload recorded ${short(f.storedSha256)}${signedRecord ? ` and the sign-off ${short(signedSha)}` : ""}.`,
     });
     if (f.pointsMatch !== null) {
       checks.push({
-        id: "stored-points", ok: f.pointsMatch, label: `Stored ${f.kind === "planted" ? "as-planted" : "survey"} points match the raw file`,
-        text: f.pointsMatch ? "Reading the raw file again gives exactly the stored coordinates." : "The stored coordinates differ from what the raw file holds.",
+        id: "stored-points",
+        ok: f.pointsMatch,
+        label: `Stored ${f.kind === "planted" ? "as-planted" : "survey"} points match the raw file`,
+        text: f.pointsMatch
+          ? "Reading the raw file again gives exactly the stored coordinates."
+          : "The stored coordinates differ from what the raw file holds.",
       });
     }
   }
@@ -58,22 +72,35 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
   if (signedRecord) {
     const diffs = jsonDifferences(reference, stored);
     checks.push({
-      id: "stored-results", ok: diffs.length === 0, label: "Stored results as signed",
-      text: diffs.length === 0 ? "Figures, verdict, per-plant rows and reports in the database are exactly those that were signed."
-        : `The database no longer holds what was signed: ${describe(diffs)}.`,
+      id: "stored-results",
+      ok: diffs.length === 0,
+      label: "Stored results as signed",
+      text:
+        diffs.length === 0
+          ? "Figures, verdict, per-plant rows and reports in the database are exactly those that were signed."
+          : `The database no longer holds what was signed: ${describe(diffs)}.`,
       differences: diffs,
     });
   }
   if (recomputed.body) {
     const diffs = jsonDifferences(reference, recomputed.body);
     checks.push({
-      id: "recomputed-results", ok: diffs.length === 0, label: signedRecord ? "Re-computed results as signed" : "Re-computed results as stored",
-      text: diffs.length === 0 ? "Computing the audit again from the raw files gives exactly the same figures, verdict, per-plant rows and reports."
-        : `Computing again from the raw files gives different results: ${describe(diffs)}.`,
+      id: "recomputed-results",
+      ok: diffs.length === 0,
+      label: signedRecord ? "Re-computed results as signed" : "Re-computed results as stored",
+      text:
+        diffs.length === 0
+          ? "Computing the audit again from the raw files gives exactly the same figures, verdict, per-plant rows and reports."
+          : `Computing again from the raw files gives different results: ${describe(diffs)}.`,
       differences: diffs,
     });
   } else {
-    checks.push({ id: "recomputed-results", ok: false, label: "Re-computed from the raw files", text: recomputed.problem ?? "The audit could not be computed again." });
+    checks.push({
+      id: "recomputed-results",
+      ok: false,
+      label: "Re-computed from the raw files",
+      text: recomputed.problem ?? "The audit could not be computed again.",
+    });
   }
 
   let storedSha256: string | null = null;
@@ -81,14 +108,24 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
   if (signoff && signer) {
     storedSha256 = hashRecord(withSigner(stored, signer)).sha256;
     checks.push({
-      id: "stored-hash", ok: storedSha256 === signoff.sha256, label: "Hash of the stored audit",
-      text: storedSha256 === signoff.sha256 ? `The audit as stored hashes to the signed ${short(signoff.sha256)}.` : `The audit as stored hashes to ${short(storedSha256)}, not to the signed ${short(signoff.sha256)}.`,
+      id: "stored-hash",
+      ok: storedSha256 === signoff.sha256,
+      label: "Hash of the stored audit",
+      text:
+        storedSha256 === signoff.sha256
+          ? `The audit as stored hashes to the signed ${short(signoff.sha256)}.`
+          : `The audit as stored hashes to ${short(storedSha256)}, not to the signed ${short(signoff.sha256)}.`,
     });
     if (recomputed.body) {
       recomputedSha256 = hashRecord(withSigner(recomputed.body, signer)).sha256;
       checks.push({
-        id: "recomputed-hash", ok: recomputedSha256 === signoff.sha256, label: "Hash of the re-computed audit",
-        text: recomputedSha256 === signoff.sha256 ? `Re-computed from the raw files, the audit hashes to the signed ${short(signoff.sha256)}.` : `Re-computed from the raw files, the audit hashes to ${short(recomputedSha256)}, not to the signed ${short(signoff.sha256)}.`,
+        id: "recomputed-hash",
+        ok: recomputedSha256 === signoff.sha256,
+        label: "Hash of the re-computed audit",
+        text:
+          recomputedSha256 === signoff.sha256
+            ? `Re-computed from the raw files, the audit hashes to the signed ${short(signoff.sha256)}.`
+            : `Re-computed from the raw files, the audit hashes to ${short(recomputedSha256)}, not to the signed ${short(signoff.sha256)}.`,
       });
     }
   }
@@ -97,10 +134,25 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
   for (const c of checks) c.text = c.text.replace(/…\.$/, "…");
   const ok = checks.every((c) => c.ok);
   const failed = checks.filter((c) => !c.ok).map((c) => c.label);
-  await recordVerification(db, { auditId: audit.id, orgId: audit.orgId, revision: audit.revision, actor: actorOf(viewer), ok, failed, sha256: signoff?.sha256 ?? null });
+  await recordVerification(db, {
+    auditId: audit.id,
+    orgId: audit.orgId,
+    revision: audit.revision,
+    actor: actorOf(viewer),
+    ok,
+    failed,
+    sha256: signoff?.sha256 ?? null,
+  });
   return {
-    auditId: audit.id, ok, signed: !!signoff, signedSha256: signoff?.sha256 ?? null, storedSha256, recomputedSha256, checks,
-    verifiedAt: new Date().toISOString(), verifiedBy: viewer.name,
+    auditId: audit.id,
+    ok,
+    signed: !!signoff,
+    signedSha256: signoff?.sha256 ?? null,
+    storedSha256,
+    recomputedSha256,
+    checks,
+    verifiedAt: new Date().toISOString(),
+    verifiedBy: viewer.name,
   };
 }
 

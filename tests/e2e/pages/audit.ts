@@ -27,7 +27,12 @@ export class AuditApi {
     const { file, crs } = DEMO_FILES[kind];
     const buffer = await fs.readFile(path.resolve(file));
     const res = await this.page.request.post(`/api/fields/${fieldId}/datasets`, {
-      multipart: { file: { name: path.basename(file), mimeType: "text/csv", buffer }, kind, crs, acceptWarnings: "true" },
+      multipart: {
+        file: { name: path.basename(file), mimeType: "text/csv", buffer },
+        kind,
+        crs,
+        acceptWarnings: "true",
+      },
     });
     expect(res.status(), await res.text()).toBe(201);
     return ((await res.json()) as UploadOkDto).dataset;
@@ -55,7 +60,14 @@ export class NewAuditPage {
     await expect(this.page.getByTestId("new-audit-form")).toBeVisible();
   }
 
-  async fill(o: { title: string; plantedId: string; surveyId: string; profileName: string; match: RegExp; maxDistanceMm: string }) {
+  async fill(o: {
+    title: string;
+    plantedId: string;
+    surveyId: string;
+    profileName: string;
+    match: RegExp;
+    maxDistanceMm: string;
+  }) {
     const p = this.page;
     await p.getByLabel("Title").fill(o.title);
     // Options appear once the datasets and profiles have loaded.
@@ -80,10 +92,18 @@ export class NewAuditPage {
 export class AuditResultPage {
   constructor(private readonly page: Page) {}
 
-  get verdict() { return this.page.getByTestId("verdict"); }
-  get criteria() { return this.page.getByTestId("criterion"); }
-  get residualRows() { return this.page.getByTestId("residual-row"); }
-  get residualStatus() { return this.page.getByTestId("residuals-status"); }
+  get verdict() {
+    return this.page.getByTestId("verdict");
+  }
+  get criteria() {
+    return this.page.getByTestId("criterion");
+  }
+  get residualRows() {
+    return this.page.getByTestId("residual-row");
+  }
+  get residualStatus() {
+    return this.page.getByTestId("residuals-status");
+  }
 
   auditIdFromUrl(): string {
     const m = /\/audits\/([0-9a-f-]{36})$/.exec(new URL(this.page.url()).pathname);
@@ -97,15 +117,24 @@ export class AuditResultPage {
 
   /** Click a sortable heading and wait until the server's answer for that sort is on screen. */
   async sortResidualsBy(header: string, sortKey: string) {
-    const answered = this.page.waitForResponse((r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get("sort") === sortKey);
+    const answered = this.page.waitForResponse(
+      (r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get("sort") === sortKey,
+    );
     await this.page.getByTestId("residuals-table").getByRole("button", { name: header }).click();
     await answered;
     await expect(this.page.getByTestId("residuals-table")).toHaveAttribute("aria-busy", "false");
   }
 
   /** Change one filter control and wait until the server's answer for it is on screen. */
-  async filter(label: "Show" | "Tool arm" | "Bed" | "GNSS fix" | "Planting day" | "Plant id contains", value: string, param: string, expected: string) {
-    const answered = this.page.waitForResponse((r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get(param) === expected);
+  async filter(
+    label: "Show" | "Tool arm" | "Bed" | "GNSS fix" | "Planting day" | "Plant id contains",
+    value: string,
+    param: string,
+    expected: string,
+  ) {
+    const answered = this.page.waitForResponse(
+      (r) => r.url().includes("/residuals?") && new URL(r.url()).searchParams.get(param) === expected,
+    );
     const control = this.page.getByTestId("residuals").getByLabel(label, { exact: true });
     if (label === "Plant id contains") await control.fill(value);
     else await control.selectOption({ label: value });
@@ -120,9 +149,13 @@ export class AuditResultPage {
 
   /** Radial errors (m) and beds of the rows on the current page of the residuals table. */
   async residualRowsData(): Promise<{ radial: number; bed: string; plant: string }[]> {
-    return this.residualRows.evaluateAll((rows) => rows.map((r) => ({
-      radial: Number((r as HTMLElement).dataset.radial), bed: (r as HTMLElement).dataset.bed ?? "", plant: (r as HTMLElement).dataset.plant ?? "",
-    })));
+    return this.residualRows.evaluateAll((rows) =>
+      rows.map((r) => ({
+        radial: Number((r as HTMLElement).dataset.radial),
+        bed: (r as HTMLElement).dataset.bed ?? "",
+        plant: (r as HTMLElement).dataset.plant ?? "",
+      })),
+    );
   }
 
   async download(linkName: string | RegExp): Promise<{ download: Download; text: string }> {
@@ -143,9 +176,16 @@ export class ProfilesPage {
     await this.page.goto("/profiles");
     await expect(this.page.getByTestId("profiles-table")).toBeVisible();
   }
-  row(name: string) { return this.page.locator(`[data-testid="profile-row"][data-profile-name="${name}"]`); }
-  editButton(name: string) { return this.page.getByRole("button", { name: `Edit ${name}` }); }
-  async edit(name: string, changes: Partial<Record<"Name" | "Radial limit" | "Cross-row limit" | "Along-row limit", string>>) {
+  row(name: string) {
+    return this.page.locator(`[data-testid="profile-row"][data-profile-name="${name}"]`);
+  }
+  editButton(name: string) {
+    return this.page.getByRole("button", { name: `Edit ${name}` });
+  }
+  async edit(
+    name: string,
+    changes: Partial<Record<"Name" | "Radial limit" | "Cross-row limit" | "Along-row limit", string>>,
+  ) {
     await this.editButton(name).click();
     const form = this.page.getByTestId("profile-form");
     await expect(form).toBeVisible();
@@ -163,21 +203,33 @@ export function formatMm(metres: number | null | undefined): string {
 /** A small RFC 4180 reader: quoted fields, doubled quotes, CRLF or LF. */
 export function parseCsv(text: string): Record<string, string>[] {
   const rows: string[][] = [];
-  let row: string[] = [], cell = "", quoted = false;
+  let row: string[] = [],
+    cell = "",
+    quoted = false;
   for (let i = 0; i < text.length; i++) {
     const c = text[i];
     if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { cell += '"'; i++; }
-      else if (c === '"') quoted = false;
+      if (c === '"' && text[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else if (c === '"') quoted = false;
       else cell += c;
     } else if (c === '"') quoted = true;
-    else if (c === ",") { row.push(cell); cell = ""; }
-    else if (c === "\n" || c === "\r") {
+    else if (c === ",") {
+      row.push(cell);
+      cell = "";
+    } else if (c === "\n" || c === "\r") {
       if (c === "\r" && text[i + 1] === "\n") i++;
-      row.push(cell); rows.push(row); row = []; cell = "";
+      row.push(cell);
+      rows.push(row);
+      row = [];
+      cell = "";
     } else cell += c;
   }
-  if (cell !== "" || row.length) { row.push(cell); rows.push(row); }
+  if (cell !== "" || row.length) {
+    row.push(cell);
+    rows.push(row);
+  }
   const [header, ...body] = rows.filter((r) => r.length > 1 || r[0] !== "");
   return body.map((r) => Object.fromEntries(header.map((h, i) => [h, r[i] ?? ""])));
 }

@@ -23,7 +23,13 @@ export async function createDemoAudit(page: Page, profileName = "In-row weeding 
   const profile = (await api.profiles()).find((p) => p.name === profileName);
   expect(profile, profileName).toBeTruthy();
   const res = await page.request.post("/api/audits?wait=1", {
-    data: { fieldId, plantedDatasetId: planted.id, surveyDatasetId: survey.id, profileId: profile!.id, title: "Long Acre map check" },
+    data: {
+      fieldId,
+      plantedDatasetId: planted.id,
+      surveyDatasetId: survey.id,
+      profileId: profile!.id,
+      title: "Long Acre map check",
+    },
   });
   expect(res.status(), await res.text()).toBe(201);
   const { audit } = (await res.json()) as { audit: AuditDto };
@@ -35,10 +41,18 @@ export async function createDemoAudit(page: Page, profileName = "In-row weeding 
 export class MapPage {
   constructor(private readonly page: Page) {}
 
-  get root() { return this.page.getByTestId("field-map"); }
-  get status() { return this.page.getByTestId("map-status"); }
-  get details() { return this.page.getByTestId("map-details"); }
-  control(label: string) { return this.page.getByTestId("map-controls").getByLabel(label, { exact: true }); }
+  get root() {
+    return this.page.getByTestId("field-map");
+  }
+  get status() {
+    return this.page.getByTestId("map-status");
+  }
+  get details() {
+    return this.page.getByTestId("map-details");
+  }
+  control(label: string) {
+    return this.page.getByTestId("map-controls").getByLabel(label, { exact: true });
+  }
 
   async openAudit(auditId: string) {
     const res = await this.page.goto(`/audits/${auditId}/map`);
@@ -55,10 +69,14 @@ export class MapPage {
   /** Wait until deck.gl has drawn the layers of the current settings (the map records what it drew last). */
   async settled() {
     await expect(this.root).toBeVisible({ timeout: 30_000 });
-    await this.page.waitForFunction(() => {
-      const el = document.querySelector<HTMLElement>('[data-testid="field-map"]');
-      return !!el && Number(el.dataset.draws) > 0 && el.dataset.drawnKey === el.dataset.layersKey;
-    }, null, { timeout: 30_000 });
+    await this.page.waitForFunction(
+      () => {
+        const el = document.querySelector<HTMLElement>('[data-testid="field-map"]');
+        return !!el && Number(el.dataset.draws) > 0 && el.dataset.drawnKey === el.dataset.layersKey;
+      },
+      null,
+      { timeout: 30_000 },
+    );
     // One more frame so the screenshot shows the finished canvas.
     await this.page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
   }
@@ -81,7 +99,12 @@ export class MapPage {
     const { data, channels } = await this.canvasPixels();
     let n = 0;
     for (let i = 0; i < data.length; i += channels) {
-      if (Math.abs(data[i] - probe.rgb[0]) <= probe.tolerance && Math.abs(data[i + 1] - probe.rgb[1]) <= probe.tolerance && Math.abs(data[i + 2] - probe.rgb[2]) <= probe.tolerance) n++;
+      if (
+        Math.abs(data[i] - probe.rgb[0]) <= probe.tolerance &&
+        Math.abs(data[i + 1] - probe.rgb[1]) <= probe.tolerance &&
+        Math.abs(data[i + 2] - probe.rgb[2]) <= probe.tolerance
+      )
+        n++;
     }
     return n;
   }
@@ -93,10 +116,19 @@ export class MapPage {
 }
 
 /** How many pixels differ by more than `threshold` in any channel between two equally sized images. */
-export function differingPixels(a: { data: Buffer; channels: number }, b: { data: Buffer; channels: number }, threshold = 24): number {
+export function differingPixels(
+  a: { data: Buffer; channels: number },
+  b: { data: Buffer; channels: number },
+  threshold = 24,
+): number {
   let n = 0;
   for (let i = 0; i < Math.min(a.data.length, b.data.length); i += a.channels) {
-    if (Math.abs(a.data[i] - b.data[i]) > threshold || Math.abs(a.data[i + 1] - b.data[i + 1]) > threshold || Math.abs(a.data[i + 2] - b.data[i + 2]) > threshold) n++;
+    if (
+      Math.abs(a.data[i] - b.data[i]) > threshold ||
+      Math.abs(a.data[i + 1] - b.data[i + 1]) > threshold ||
+      Math.abs(a.data[i + 2] - b.data[i + 2]) > threshold
+    )
+      n++;
   }
   return n;
 }

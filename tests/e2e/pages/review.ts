@@ -15,7 +15,11 @@ export class Outbox {
     const page = await context.newPage();
     try {
       await new SignInPage(page).signInAs("owner");
-      const message = page.getByTestId("outbox-message").filter({ has: page.locator("summary", { hasText: subject }) }).and(page.locator(`[data-to*="${to}"]`)).first();
+      const message = page
+        .getByTestId("outbox-message")
+        .filter({ has: page.locator("summary", { hasText: subject }) })
+        .and(page.locator(`[data-to*="${to}"]`))
+        .first();
       await expect(async () => {
         await page.goto("/outbox");
         await expect(message).toBeVisible({ timeout: 1000 });
@@ -43,10 +47,18 @@ export async function pageFor(browser: Browser, role: Parameters<typeof demoPers
 /** /audits/:id/review */
 export class ReviewPage {
   constructor(private readonly page: Page) {}
-  get bar() { return this.page.getByTestId("review-bar"); }
-  get badge() { return this.bar.getByTestId("state-badge"); }
-  get signoffForm() { return this.page.getByTestId("signoff-form"); }
-  get record() { return this.page.getByTestId("signoff-record"); }
+  get bar() {
+    return this.page.getByTestId("review-bar");
+  }
+  get badge() {
+    return this.bar.getByTestId("state-badge");
+  }
+  get signoffForm() {
+    return this.page.getByTestId("signoff-form");
+  }
+  get record() {
+    return this.page.getByTestId("signoff-record");
+  }
 
   async open(auditId: string) {
     await this.page.goto(`/audits/${auditId}/review`);

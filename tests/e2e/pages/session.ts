@@ -12,7 +12,9 @@ export const otherOwner = OTHER_OWNER;
 /** The sign-in page as a page object. */
 export class SignInPage {
   constructor(private readonly page: Page) {}
-  async open() { await this.page.goto("/login"); }
+  async open() {
+    await this.page.goto("/login");
+  }
   async signIn(email: string, password: string) {
     await this.page.getByLabel("E-mail").fill(email);
     await this.page.getByLabel("Password").fill(password);

@@ -9,14 +9,30 @@ export class FieldFormPage {
     await expect(this.page.getByRole("heading", { level: 1 })).toHaveText("New field");
   }
 
-  get name() { return this.page.getByLabel("Field name"); }
-  get farm() { return this.page.getByLabel("Farm or site"); }
-  get crs() { return this.page.getByRole("combobox", { name: "Coordinate system (CRS)" }); }
-  get timeZone() { return this.page.getByLabel("Time zone"); }
-  get rowBearing() { return this.page.getByLabel("Row bearing (° from grid north)"); }
-  get bedSpacing() { return this.page.getByLabel("Bed spacing (m)"); }
-  get rowsPerBed() { return this.page.getByLabel("Rows per bed"); }
-  get rowSpacing() { return this.page.getByLabel("Row spacing (m)"); }
+  get name() {
+    return this.page.getByLabel("Field name");
+  }
+  get farm() {
+    return this.page.getByLabel("Farm or site");
+  }
+  get crs() {
+    return this.page.getByRole("combobox", { name: "Coordinate system (CRS)" });
+  }
+  get timeZone() {
+    return this.page.getByLabel("Time zone");
+  }
+  get rowBearing() {
+    return this.page.getByLabel("Row bearing (° from grid north)");
+  }
+  get bedSpacing() {
+    return this.page.getByLabel("Bed spacing (m)");
+  }
+  get rowsPerBed() {
+    return this.page.getByLabel("Rows per bed");
+  }
+  get rowSpacing() {
+    return this.page.getByLabel("Row spacing (m)");
+  }
 
   /** Types `search` into the CRS box and picks `code` from the list of matches. */
   async chooseCrs(search: string, code: string) {
@@ -46,17 +62,35 @@ export class UploadPage {
 
   async open(fieldId: string, kind: "planted" | "survey") {
     await this.page.goto(`/fields/${fieldId}/upload?kind=${kind}`);
-    await expect(this.page.getByRole("heading", { level: 1 })).toHaveText(kind === "planted" ? "Upload as-planted records" : "Upload survey checkpoints");
+    await expect(this.page.getByRole("heading", { level: 1 })).toHaveText(
+      kind === "planted" ? "Upload as-planted records" : "Upload survey checkpoints",
+    );
   }
 
-  get fileInput() { return this.page.getByLabel("Choose a file or drop it here"); }
-  get previewTable() { return this.page.getByTestId("preview-table"); }
-  get transferBar() { return this.page.getByRole("progressbar", { name: "Sending the file" }); }
-  get serverBar() { return this.page.getByTestId("upload-server"); }
-  get saved() { return this.page.getByTestId("upload-saved"); }
-  get invalid() { return this.page.getByTestId("upload-invalid"); }
-  get warnings() { return this.page.getByTestId("upload-warnings"); }
-  get errorTable() { return this.page.getByTestId("error-table"); }
+  get fileInput() {
+    return this.page.getByLabel("Choose a file or drop it here");
+  }
+  get previewTable() {
+    return this.page.getByTestId("preview-table");
+  }
+  get transferBar() {
+    return this.page.getByRole("progressbar", { name: "Sending the file" });
+  }
+  get serverBar() {
+    return this.page.getByTestId("upload-server");
+  }
+  get saved() {
+    return this.page.getByTestId("upload-saved");
+  }
+  get invalid() {
+    return this.page.getByTestId("upload-invalid");
+  }
+  get warnings() {
+    return this.page.getByTestId("upload-warnings");
+  }
+  get errorTable() {
+    return this.page.getByTestId("error-table");
+  }
 
   async choose(file: string | { name: string; mimeType: string; buffer: Buffer }) {
     await this.fileInput.setInputFiles(file);

@@ -6,7 +6,13 @@ import { AuditIdParam } from "./params";
 
 // The existence check lives in the layout, outside any loading boundary,
 // so another organisation's audit answers with a real 404 status.
-export default async function AuditLayout({ children, params }: { children: React.ReactNode; params: Promise<{ auditId: string }> }) {
+export default async function AuditLayout({
+  children,
+  params,
+}: {
+  children: React.ReactNode;
+  params: Promise<{ auditId: string }>;
+}) {
   const viewer = await requirePageViewer();
   const parsed = AuditIdParam.safeParse(await params);
   if (!parsed.success) notFound();

@@ -6,7 +6,13 @@ import { FieldIdParam } from "@/lib/validation/field";
 
 // The existence check lives in the layout, outside this segment's loading boundary,
 // so another organisation's field answers with a real 404 status.
-export default async function FieldLayout({ children, params }: { children: React.ReactNode; params: Promise<{ fieldId: string }> }) {
+export default async function FieldLayout({
+  children,
+  params,
+}: {
+  children: React.ReactNode;
+  params: Promise<{ fieldId: string }>;
+}) {
   const viewer = await requirePageViewer();
   const parsed = FieldIdParam.safeParse(await params);
   if (!parsed.success) notFound();

@@ -14,7 +14,9 @@ export default async function NewFieldPage() {
   const farms = [...new Set(fields.map((f) => f.farm))].sort();
   return (
     <>
-      <PageTitle sub="Set the field up once; every file uploaded to it is projected into its coordinate system.">New field</PageTitle>
+      <PageTitle sub="Set the field up once; every file uploaded to it is projected into its coordinate system.">
+        New field
+      </PageTitle>
       <FieldForm mode="create" farms={farms} />
     </>
   );

@@ -35,34 +35,77 @@ export function ApiKeysPanel() {
       <Panel title="Create a key">
         <form onSubmit={create} className="flex flex-wrap items-end gap-3" aria-label="Create an API key">
           <div>
-            <label htmlFor="key-name" className="mb-1 block text-sm font-medium">Name</label>
-            <input id="key-name" value={name} onChange={(e) => setName(e.target.value)} placeholder="Nightly planter export"
-              aria-describedby={error ? "key-error" : undefined} className="w-72 rounded-plot border border-chalk-line px-3 py-2" />
+            <label htmlFor="key-name" className="mb-1 block text-sm font-medium">
+              Name
+            </label>
+            <input
+              id="key-name"
+              value={name}
+              onChange={(e) => setName(e.target.value)}
+              placeholder="Nightly planter export"
+              aria-describedby={error ? "key-error" : undefined}
+              className="w-72 rounded-plot border border-chalk-line px-3 py-2"
+            />
           </div>
-          <button type="submit" className="rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep">Create key</button>
+          <button type="submit" className="rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep">
+            Create key
+          </button>
         </form>
-        {error ? <p id="key-error" role="alert" className="mt-2 text-sm text-alarm">{error}</p> : null}
+        {error ? (
+          <p id="key-error" role="alert" className="mt-2 text-sm text-alarm">
+            {error}
+          </p>
+        ) : null}
         {created ? (
           <div className="mt-4 rounded-plot border-l-4 border-stake bg-stake-pale p-3 text-sm" role="status">
             <p className="font-semibold">Copy the key for “{created.name}” now — it is shown only once.</p>
-            <code className="mt-1 block break-all font-mono text-xs" data-testid="new-api-key">{created.key}</code>
-            <p className="mt-1 text-ink-soft">Send it as <code>Authorization: Bearer …</code>.</p>
+            <code className="mt-1 block break-all font-mono text-xs" data-testid="new-api-key">
+              {created.key}
+            </code>
+            <p className="mt-1 text-ink-soft">
+              Send it as <code>Authorization: Bearer …</code>.
+            </p>
           </div>
         ) : null}
       </Panel>
       <Panel title="Keys">
-        {!data ? <p className="text-sm text-ink-faint">Loading…</p> : data.keys.length === 0 ? <p className="text-sm text-ink-faint">No keys yet.</p> : (
+        {!data ? (
+          <p className="text-sm text-ink-faint">Loading…</p>
+        ) : data.keys.length === 0 ? (
+          <p className="text-sm text-ink-faint">No keys yet.</p>
+        ) : (
           <table className="w-full text-left text-sm">
-            <thead className="text-ink-faint"><tr><th className="py-1 font-medium">Name</th><th className="font-medium">Starts with</th><th className="font-medium">Created</th><th className="font-medium">Last used</th><th className="font-medium">State</th><th /></tr></thead>
+            <thead className="text-ink-faint">
+              <tr>
+                <th className="py-1 font-medium">Name</th>
+                <th className="font-medium">Starts with</th>
+                <th className="font-medium">Created</th>
+                <th className="font-medium">Last used</th>
+                <th className="font-medium">State</th>
+                <th />
+              </tr>
+            </thead>
             <tbody className="divide-y divide-chalk-deep">
               {data.keys.map((k) => (
                 <tr key={k.id}>
-                  <td className="py-2">{k.name} <span className="text-ink-faint">· {k.createdBy}</span></td>
+                  <td className="py-2">
+                    {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
+                  </td>
                   <td className="font-mono text-xs">{k.prefix}…</td>
                   <td>{formatDate(k.createdAt)}</td>
                   <td>{k.lastUsedAt ? formatDate(k.lastUsedAt) : "never"}</td>
                   <td>{k.revokedAt ? <span className="text-alarm">revoked</span> : "live"}</td>
-                  <td className="text-right">{k.revokedAt ? null : <button type="button" onClick={() => revoke(k.id)} className="text-sm font-medium text-alarm hover:underline">Revoke</button>}</td>
+                  <td className="text-right">
+                    {k.revokedAt ? null : (
+                      <button
+                        type="button"
+                        onClick={() => revoke(k.id)}
+                        className="text-sm font-medium text-alarm hover:underline"
+                      >
+                        Revoke
+                      </button>
+                    )}
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -9,7 +9,11 @@ export default async function ApiKeysPage() {
   const viewer = await requirePageViewer(["owner"]);
   return (
     <>
-      <PageTitle sub={`Keys let ${viewer.orgName}'s own scripts use the API without a browser, e.g. to push the planting machine's nightly export. A key acts as its creator (owner role) in this organisation.`}>API keys</PageTitle>
+      <PageTitle
+        sub={`Keys let ${viewer.orgName}'s own scripts use the API without a browser, e.g. to push the planting machine's nightly export. A key acts as its creator (owner role) in this organisation.`}
+      >
+        API keys
+      </PageTitle>
       <ApiKeysPanel />
     </>
   );

@@ -11,14 +11,22 @@ export interface InviteState {
   name?: string;
 }
 
-const NewAccount = z.object({
-  invitationId: z.string().min(1).max(100),
-  name: z.string().trim().min(1, "Enter your name.").max(100),
-  password: z.string().min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`).max(128, "Use at most 128 characters."),
-  confirm: z.string(),
-}).refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
+const NewAccount = z
+  .object({
+    invitationId: z.string().min(1).max(100),
+    name: z.string().trim().min(1, "Enter your name.").max(100),
+    password: z
+      .string()
+      .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`)
+      .max(128, "Use at most 128 characters."),
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
 
-const SignIn = z.object({ invitationId: z.string().min(1).max(100), password: z.string().min(1, "Enter your password.") });
+const SignIn = z.object({
+  invitationId: z.string().min(1).max(100),
+  password: z.string().min(1, "Enter your password."),
+});
 const SignedIn = z.object({ invitationId: z.string().min(1).max(100) });
 
 function outcome(r: AcceptResult, name?: string): InviteState {

@@ -23,7 +23,11 @@ export default async function InvitePage({ params }: { params: Promise<{ invitat
       <div role="alert" data-testid="invitation-problem">
         <h1 className="mb-3 text-xl font-semibold">This invitation cannot be used</h1>
         <p className="text-sm text-ink-soft">{problem}</p>
-        <p className="mt-6 text-sm"><Link href="/login" className="font-medium text-leaf hover:underline">Sign in</Link></p>
+        <p className="mt-6 text-sm">
+          <Link href="/login" className="font-medium text-leaf hover:underline">
+            Sign in
+          </Link>
+        </p>
       </div>
     );
   }
@@ -33,16 +37,27 @@ export default async function InvitePage({ params }: { params: Promise<{ invitat
     <div data-testid="invitation">
       <h1 className="mb-2 text-xl font-semibold">Join {inv.orgName}</h1>
       <p className="mb-1 text-sm">
-        {inv.invitedBy ?? "The owner"} invited <strong>{inv.email}</strong> as <strong data-testid="invitation-role">{ROLE_LABEL[inv.role]}</strong>.
+        {inv.invitedBy ?? "The owner"} invited <strong>{inv.email}</strong> as{" "}
+        <strong data-testid="invitation-role">{ROLE_LABEL[inv.role]}</strong>.
       </p>
       <p className="mb-1 text-sm text-ink-soft">{ROLE_DUTY[inv.role]}</p>
-      <p className="mb-6 text-xs text-ink-faint">The invitation works until {formatDate(inv.expiresAt.toISOString())}.</p>
+      <p className="mb-6 text-xs text-ink-faint">
+        The invitation works until {formatDate(inv.expiresAt.toISOString())}.
+      </p>
       {session ? (
-        session.user.email.toLowerCase() === inv.email.toLowerCase()
-          ? <AcceptSignedInForm invitationId={inv.id} orgName={inv.orgName} />
-          : <p role="alert" className="rounded-plot bg-alarm-pale p-3 text-sm text-alarm">You are signed in as {session.user.email}. Sign out first, then open the link again to accept as {inv.email}.</p>
-      ) : hasAccount ? <ExistingAccountForm invitationId={inv.id} email={inv.email} />
-        : <NewAccountForm invitationId={inv.id} email={inv.email} />}
+        session.user.email.toLowerCase() === inv.email.toLowerCase() ? (
+          <AcceptSignedInForm invitationId={inv.id} orgName={inv.orgName} />
+        ) : (
+          <p role="alert" className="rounded-plot bg-alarm-pale p-3 text-sm text-alarm">
+            You are signed in as {session.user.email}. Sign out first, then open the link again to accept as {inv.email}
+            .
+          </p>
+        )
+      ) : hasAccount ? (
+        <ExistingAccountForm invitationId={inv.id} email={inv.email} />
+      ) : (
+        <NewAccountForm invitationId={inv.id} email={inv.email} />
+      )}
     </div>
   );
 }

@@ -3,4 +3,5 @@ import { ANY_ROLE } from "@/lib/roles";
 import { auditForViewer } from "@/lib/services/audit-access";
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) =>
-  Response.json({ audit: await auditForViewer(viewer, params) }));
+  Response.json({ audit: await auditForViewer(viewer, params) }),
+);

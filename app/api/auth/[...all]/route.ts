@@ -1,5 +1,9 @@
 import { getAuth } from "@/lib/auth";
 
 // better-auth's own endpoints: sign-in, sign-up, sign-out, session, organisation.
-export async function GET(req: Request) { return (await getAuth()).handler(req); }
-export async function POST(req: Request) { return (await getAuth()).handler(req); }
+export async function GET(req: Request) {
+  return (await getAuth()).handler(req);
+}
+export async function POST(req: Request) {
+  return (await getAuth()).handler(req);
+}

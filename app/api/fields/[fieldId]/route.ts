@@ -27,8 +27,13 @@ export const PATCH = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req
   if (!parsed.success) throw notFound("Field");
   const patch = await parseJsonBody(req, FieldPatch);
   const db = await getDb();
-  if (patch.name && (await fieldNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: parsed.data.fieldId }))) {
-    throw new AppError("conflict", `A field named "${patch.name}" already exists.`, [{ path: ["name"], message: "Name already used" }]);
+  if (
+    patch.name &&
+    (await fieldNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: parsed.data.fieldId }))
+  ) {
+    throw new AppError("conflict", `A field named "${patch.name}" already exists.`, [
+      { path: ["name"], message: "Name already used" },
+    ]);
   }
   const updated = await updateField(db, { id: parsed.data.fieldId, orgId: viewer.orgId, userId: viewer.userId, patch });
   if (!updated) throw notFound("Field");

@@ -29,17 +29,33 @@ export const PATCH = guardedRoute<{ id: string }>(CAN_REVIEW, async ({ req, view
     throw new AppError("invalid_input", issues[0].message, issues);
   }
   if (patch.name && (await profileNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: current.id }))) {
-    throw new AppError("conflict", `A profile named "${patch.name}" already exists.`, [{ path: ["name"], message: "Name already used" }]);
+    throw new AppError("conflict", `A profile named "${patch.name}" already exists.`, [
+      { path: ["name"], message: "Name already used" },
+    ]);
   }
   const profile = await updateProfile(db, { id: current.id, orgId: viewer.orgId, userId: viewer.userId, input: patch });
-  await logActivity(db, { orgId: viewer.orgId, actorId: viewer.userId, action: "profile.updated", subjectType: "profile", subjectId: current.id, detail: { before: current, after: profile } });
+  await logActivity(db, {
+    orgId: viewer.orgId,
+    actorId: viewer.userId,
+    action: "profile.updated",
+    subjectType: "profile",
+    subjectId: current.id,
+    detail: { before: current, after: profile },
+  });
   return Response.json({ profile });
 });
 
 export const DELETE = guardedRoute<{ id: string }>(CAN_REVIEW, async ({ viewer, params }) => {
   const p = IdParam.safeParse(params);
   const db = await getDb();
-  if (!p.success || !(await deleteProfile(db, { id: p.data.id, orgId: viewer.orgId }))) throw notFound("Tolerance profile");
-  await logActivity(db, { orgId: viewer.orgId, actorId: viewer.userId, action: "profile.deleted", subjectType: "profile", subjectId: p.data.id });
+  if (!p.success || !(await deleteProfile(db, { id: p.data.id, orgId: viewer.orgId })))
+    throw notFound("Tolerance profile");
+  await logActivity(db, {
+    orgId: viewer.orgId,
+    actorId: viewer.userId,
+    action: "profile.deleted",
+    subjectType: "profile",
+    subjectId: p.data.id,
+  });
   return new Response(null, { status: 204 });
 });

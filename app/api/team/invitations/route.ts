@@ -3,7 +3,9 @@ import { parseJsonBody } from "@/lib/validation/request";
 import { invitationsOf, invite, requireBrowserSession } from "../_lib/team-service";
 import { InviteInput } from "../_lib/validation";
 
-export const GET = guardedRoute(["owner"], async ({ viewer }) => Response.json({ invitations: await invitationsOf(viewer.orgId) }));
+export const GET = guardedRoute(["owner"], async ({ viewer }) =>
+  Response.json({ invitations: await invitationsOf(viewer.orgId) }),
+);
 
 /** Invite someone by e-mail with a role; the invitation expires after 7 days. */
 export const POST = guardedRoute(["owner"], async ({ req, viewer }) => {

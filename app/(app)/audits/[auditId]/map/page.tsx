@@ -21,16 +21,25 @@ export default async function AuditMapPage({ params }: { params: Promise<{ audit
     <div className="grid gap-4" data-testid="audit-map-page">
       <header>
         <p className="text-sm text-ink-soft">
-          <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">{audit.field.name}</Link>
+          <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">
+            {audit.field.name}
+          </Link>
           {" · "}
-          <Link href={`/audits/${audit.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">audit result</Link>
+          <Link href={`/audits/${audit.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">
+            audit result
+          </Link>
           {" · "}
-          <Link href={`/fields/${audit.field.id}/map`} className="font-medium text-leaf underline-offset-2 hover:underline">grower view</Link>
+          <Link
+            href={`/fields/${audit.field.id}/map`}
+            className="font-medium text-leaf underline-offset-2 hover:underline"
+          >
+            grower view
+          </Link>
         </p>
         <h1 className="text-xl font-semibold tracking-tight">Map: {audit.title}</h1>
         <p className="mt-1 text-sm text-ink-soft">
-          Each checkpoint where its record says the plant is, coloured by how far the survey found it from there.
-          Hover for a summary, click for the full record.
+          Each checkpoint where its record says the plant is, coloured by how far the survey found it from there. Hover
+          for a summary, click for the full record.
         </p>
       </header>
       <MapLoader auditId={audit.id} mode="audit" />

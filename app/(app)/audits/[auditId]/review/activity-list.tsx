@@ -10,13 +10,30 @@ import { Panel, formatDate } from "@/app/_components/ui";
 export function ActivityList({ auditId }: { auditId: string }) {
   const { data, error } = useSWR<{ activity: ActivityDto[] }>(reviewKeys.activity(auditId), fetcher);
   return (
-    <Panel title="Activity" action={<Link href="/activity" className="text-sm font-medium text-leaf hover:underline">Whole organisation</Link>}>
-      {error ? <p className="text-sm text-alarm">{(error as Error).message}</p> : !data ? <p className="text-sm text-ink-faint">Loading…</p> : (
+    <Panel
+      title="Activity"
+      action={
+        <Link href="/activity" className="text-sm font-medium text-leaf hover:underline">
+          Whole organisation
+        </Link>
+      }
+    >
+      {error ? (
+        <p className="text-sm text-alarm">{(error as Error).message}</p>
+      ) : !data ? (
+        <p className="text-sm text-ink-faint">Loading…</p>
+      ) : (
         <ol className="divide-y divide-chalk-deep text-sm" data-testid="audit-activity">
           {data.activity.map((a) => (
             <li key={a.id} className="flex gap-4 py-1.5" data-action={a.action}>
               <span className="w-44 shrink-0 text-ink-faint">{formatDate(a.at)}</span>
-              <span className={a.action === "audit.verified" && a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""}>{a.text}</span>
+              <span
+                className={
+                  a.action === "audit.verified" && a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""
+                }
+              >
+                {a.text}
+              </span>
             </li>
           ))}
         </ol>

@@ -22,7 +22,10 @@ export default async function ReviewPage({ params }: { params: Promise<{ auditId
   const viewer = await requirePageViewer();
   const { auditId } = AuditIdParam.parse(await params);
   const db = await getDb();
-  const [audit, row] = await Promise.all([getAuditById(db, { id: auditId, orgId: viewer.orgId }), getAuditForReview(db, { id: auditId, orgId: viewer.orgId })]);
+  const [audit, row] = await Promise.all([
+    getAuditById(db, { id: auditId, orgId: viewer.orgId }),
+    getAuditForReview(db, { id: auditId, orgId: viewer.orgId }),
+  ]);
   if (!audit || !row) notFound();
   const preparer = CAN_PREPARE.includes(viewer.role);
   const [datasets, profiles, filePrecisionM] = await Promise.all([
@@ -32,18 +35,46 @@ export default async function ReviewPage({ params }: { params: Promise<{ auditId
   ]);
   return (
     <>
-      <PageTitle sub={<><Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf hover:underline">{audit.field.name}</Link> · <Link href={`/audits/${audit.id}`} className="font-medium text-leaf hover:underline">audit result</Link></>}>
+      <PageTitle
+        sub={
+          <>
+            <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf hover:underline">
+              {audit.field.name}
+            </Link>{" "}
+            ·{" "}
+            <Link href={`/audits/${audit.id}`} className="font-medium text-leaf hover:underline">
+              audit result
+            </Link>
+          </>
+        }
+      >
         Review: {audit.title}
       </PageTitle>
-      <div className="mb-6"><ReviewBar auditId={audit.id} showReviewLink={false} /></div>
+      <div className="mb-6">
+        <ReviewBar auditId={audit.id} showReviewLink={false} />
+      </div>
       <ReviewWorkspace
         audit={audit}
         viewer={{ name: viewer.name, role: viewer.role }}
-        checklist={audit.profile && audit.summary ? {
-          pairs: audit.summary.pairs, minCheckpoints: audit.profile.minCheckpoints, tightestLimitM: tightestLimit(audit.profile),
-          filePrecisionM, profileName: audit.profile.name, operation: audit.profile.operation,
-        } : null}
-        datasets={datasets.map((d) => ({ id: d.id, kind: d.kind, fileName: d.fileName, rowCount: d.rowCount, uploadedAt: d.uploadedAt }))}
+        checklist={
+          audit.profile && audit.summary
+            ? {
+                pairs: audit.summary.pairs,
+                minCheckpoints: audit.profile.minCheckpoints,
+                tightestLimitM: tightestLimit(audit.profile),
+                filePrecisionM,
+                profileName: audit.profile.name,
+                operation: audit.profile.operation,
+              }
+            : null
+        }
+        datasets={datasets.map((d) => ({
+          id: d.id,
+          kind: d.kind,
+          fileName: d.fileName,
+          rowCount: d.rowCount,
+          uploadedAt: d.uploadedAt,
+        }))}
         profiles={profiles.map((p) => ({ id: p.id, name: p.name }))}
       />
     </>

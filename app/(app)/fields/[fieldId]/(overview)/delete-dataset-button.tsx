@@ -8,7 +8,9 @@ export function DeleteDatasetButton({ id, name }: { id: string; name: string }) 
   const [error, setError] = useState<string | null>(null);
   return (
     <span>
-      <button type="button" className="text-sm font-medium text-alarm hover:underline"
+      <button
+        type="button"
+        className="text-sm font-medium text-alarm hover:underline"
         onClick={async () => {
           if (!window.confirm(`Delete ${name}? The uploaded file and its points are removed.`)) return;
           try {
@@ -17,8 +19,15 @@ export function DeleteDatasetButton({ id, name }: { id: string; name: string }) 
           } catch (err) {
             setError(err instanceof ApiError ? err.message : "Could not delete the file.");
           }
-        }}>Delete</button>
-      {error ? <span role="alert" className="ml-2 text-xs text-alarm">{error}</span> : null}
+        }}
+      >
+        Delete
+      </button>
+      {error ? (
+        <span role="alert" className="ml-2 text-xs text-alarm">
+          {error}
+        </span>
+      ) : null}
     </span>
   );
 }

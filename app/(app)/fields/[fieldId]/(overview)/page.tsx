@@ -14,11 +14,23 @@ import { DeleteDatasetButton } from "./delete-dataset-button";
 export const metadata: Metadata = { title: "Field" };
 
 const STATE_LABEL: Record<string, string> = {
-  computing: "computing", computed: "computed", failed: "failed", submitted: "waiting for review", signed_off: "signed off", returned: "returned",
+  computing: "computing",
+  computed: "computed",
+  failed: "failed",
+  submitted: "waiting for review",
+  signed_off: "signed off",
+  returned: "returned",
 };
 
 function ActionLink({ href, children }: { href: string; children: React.ReactNode }) {
-  return <Link href={href} className="rounded-plot border border-leaf px-3 py-1.5 text-sm font-medium text-leaf hover:bg-leaf-pale">{children}</Link>;
+  return (
+    <Link
+      href={href}
+      className="rounded-plot border border-leaf px-3 py-1.5 text-sm font-medium text-leaf hover:bg-leaf-pale"
+    >
+      {children}
+    </Link>
+  );
 }
 
 export default async function FieldPage({ params }: { params: Promise<{ fieldId: string }> }) {
@@ -37,16 +49,24 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
     field.bedSpacingM ? `beds every ${field.bedSpacingM} m` : null,
     field.rowsPerBed ? `${field.rowsPerBed} rows per bed` : null,
     field.rowSpacingM ? `${Math.round(field.rowSpacingM * 1000) / 10} cm between rows` : null,
-    field.rowBearingDeg !== null ? `rows at ${field.rowBearingDeg}° from grid north` : "row bearing derived from the records",
+    field.rowBearingDeg !== null
+      ? `rows at ${field.rowBearingDeg}° from grid north`
+      : "row bearing derived from the records",
     field.boundary ? "boundary set" : null,
-  ].filter(Boolean).join(" · ");
+  ]
+    .filter(Boolean)
+    .join(" · ");
   const hasBoth = datasets.some((d) => d.kind === "planted") && datasets.some((d) => d.kind === "survey");
   return (
     <>
       <PageTitle sub={`${field.farm} · ${field.crs} · ${field.timeZone}`}>{field.name}</PageTitle>
       <p className="mb-4 text-sm text-ink-soft">{geometry}</p>
       {audits.some((a) => a.state !== "computing" && a.state !== "failed") ? (
-        <p className="mb-4 text-sm"><Link href={`/fields/${field.id}/map`} className="font-medium text-leaf hover:underline">Where can the records be trusted? Open the field map</Link></p>
+        <p className="mb-4 text-sm">
+          <Link href={`/fields/${field.id}/map`} className="font-medium text-leaf hover:underline">
+            Where can the records be trusted? Open the field map
+          </Link>
+        </p>
       ) : null}
       {canPrepare ? (
         <div className="mb-6 flex flex-wrap gap-3" aria-label="Field actions">
@@ -58,15 +78,37 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
       ) : null}
       <div className="grid gap-6">
         <Panel title="Audits">
-          {audits.length === 0 ? <Empty>No audits for this field yet.</Empty> : (
+          {audits.length === 0 ? (
+            <Empty>No audits for this field yet.</Empty>
+          ) : (
             <table className="w-full text-left text-sm" data-testid="field-audits">
-              <thead className="text-ink-faint"><tr><th className="py-1 font-medium">Audit</th><th className="font-medium">State</th><th className="font-medium">Verdict</th><th className="font-medium">Horizontal RMSE</th><th className="font-medium">Updated</th></tr></thead>
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">Audit</th>
+                  <th className="font-medium">State</th>
+                  <th className="font-medium">Verdict</th>
+                  <th className="font-medium">Horizontal RMSE</th>
+                  <th className="font-medium">Updated</th>
+                </tr>
+              </thead>
               <tbody className="divide-y divide-chalk-deep">
                 {audits.map((a) => (
                   <tr key={a.id}>
-                    <td className="py-2"><Link href={`/audits/${a.id}`} className="font-medium text-leaf hover:underline">{a.title}</Link></td>
+                    <td className="py-2">
+                      <Link href={`/audits/${a.id}`} className="font-medium text-leaf hover:underline">
+                        {a.title}
+                      </Link>
+                    </td>
                     <td>{STATE_LABEL[a.state] ?? a.state}</td>
-                    <td>{a.passed === null ? "–" : a.passed ? <span className="text-leaf">✓ passed</span> : <span className="text-alarm">✗ failed</span>}</td>
+                    <td>
+                      {a.passed === null ? (
+                        "–"
+                      ) : a.passed ? (
+                        <span className="text-leaf">✓ passed</span>
+                      ) : (
+                        <span className="text-alarm">✗ failed</span>
+                      )}
+                    </td>
                     <td>{formatMm(a.rmseR)}</td>
                     <td className="text-ink-faint">{formatDate(a.updatedAt)}</td>
                   </tr>
@@ -76,19 +118,43 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
           )}
         </Panel>
         <Panel title="Files">
-          {datasets.length === 0 ? <Empty>No files uploaded for this field yet.</Empty> : (
+          {datasets.length === 0 ? (
+            <Empty>No files uploaded for this field yet.</Empty>
+          ) : (
             <table className="w-full text-left text-sm" data-testid="field-datasets">
-              <thead className="text-ink-faint"><tr><th className="py-1 font-medium">File</th><th className="font-medium">Kind</th><th className="font-medium">Rows</th><th className="font-medium">CRS</th><th className="font-medium">SHA-256</th><th className="font-medium">Uploaded</th><th /></tr></thead>
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">File</th>
+                  <th className="font-medium">Kind</th>
+                  <th className="font-medium">Rows</th>
+                  <th className="font-medium">CRS</th>
+                  <th className="font-medium">SHA-256</th>
+                  <th className="font-medium">Uploaded</th>
+                  <th />
+                </tr>
+              </thead>
               <tbody className="divide-y divide-chalk-deep">
                 {datasets.map((d) => (
                   <tr key={d.id}>
-                    <td className="py-2"><a href={`/api/datasets/${d.id}/file`} className="text-leaf hover:underline">{d.fileName}</a></td>
+                    <td className="py-2">
+                      <a href={`/api/datasets/${d.id}/file`} className="text-leaf hover:underline">
+                        {d.fileName}
+                      </a>
+                    </td>
                     <td>{d.kind === "planted" ? "as-planted" : "survey"}</td>
                     <td>{d.rowCount.toLocaleString("en-GB")}</td>
                     <td className="font-mono text-xs">{d.crs}</td>
-                    <td className="font-mono text-xs" title={d.sha256}>{d.sha256.slice(0, 12)}…</td>
+                    <td className="font-mono text-xs" title={d.sha256}>
+                      {d.sha256.slice(0, 12)}…
+                    </td>
                     <td className="text-ink-faint">{formatDate(d.uploadedAt)}</td>
-                    <td className="text-right">{canPrepare && !d.inUse ? <DeleteDatasetButton id={d.id} name={d.fileName} /> : d.inUse ? <span className="text-xs text-ink-faint">used by an audit</span> : null}</td>
+                    <td className="text-right">
+                      {canPrepare && !d.inUse ? (
+                        <DeleteDatasetButton id={d.id} name={d.fileName} />
+                      ) : d.inUse ? (
+                        <span className="text-xs text-ink-faint">used by an audit</span>
+                      ) : null}
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -21,26 +21,58 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
   const view = await getFieldMapSummary(await getDb(), { fieldId: parsed.data.fieldId, orgId: viewer.orgId });
   if (!view) notFound();
   const p = view.profile;
-  const limits = p ? [mm(p.radialM) && `radial ${mm(p.radialM)}`, mm(p.crossM) && `cross-row ${mm(p.crossM)}`, mm(p.alongM) && `along-row ${mm(p.alongM)}`].filter(Boolean).join(", ") : "";
+  const limits = p
+    ? [
+        mm(p.radialM) && `radial ${mm(p.radialM)}`,
+        mm(p.crossM) && `cross-row ${mm(p.crossM)}`,
+        mm(p.alongM) && `along-row ${mm(p.alongM)}`,
+      ]
+        .filter(Boolean)
+        .join(", ")
+    : "";
   return (
     <div className="grid gap-5" data-testid="field-map-page">
       <header>
         <p className="text-sm text-ink-soft">
-          <Link href={`/fields/${view.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">{view.field.name}</Link>
-          {view.audit ? <>{" · "}<Link href={`/audits/${view.audit.id}/map`} className="font-medium text-leaf underline-offset-2 hover:underline">full audit map</Link></> : null}
+          <Link href={`/fields/${view.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">
+            {view.field.name}
+          </Link>
+          {view.audit ? (
+            <>
+              {" · "}
+              <Link
+                href={`/audits/${view.audit.id}/map`}
+                className="font-medium text-leaf underline-offset-2 hover:underline"
+              >
+                full audit map
+              </Link>
+            </>
+          ) : null}
         </p>
-        <h1 className="text-xl font-semibold tracking-tight">Where the records of {view.field.name} can be relied on</h1>
+        <h1 className="text-xl font-semibold tracking-tight">
+          Where the records of {view.field.name} can be relied on
+        </h1>
         {view.audit ? (
           <p className="mt-1 text-sm text-ink-soft" data-testid="field-map-audit">
             From the latest audit with results, <span className="font-medium text-ink">{view.audit.title}</span>
             {view.audit.computedAt ? <> (computed {formatDate(view.audit.computedAt)})</> : null}
-            {p ? <>, at the tolerance “{p.name}”{limits ? ` (${limits}; ${Math.round(p.requiredShare * 100)} % of plants within, shown with ${Math.round(p.confidence * 100)} % confidence)` : ""}</> : null}.
+            {p ? (
+              <>
+                , at the tolerance “{p.name}”
+                {limits
+                  ? ` (${limits}; ${Math.round(p.requiredShare * 100)} % of plants within, shown with ${Math.round(p.confidence * 100)} % confidence)`
+                  : ""}
+              </>
+            ) : null}
+            .
           </p>
         ) : null}
       </header>
       {view.audit ? (
         <>
-          <p className="rounded-plot border-l-4 border-stake bg-stake-pale p-4 text-sm" data-testid="field-guidance">{view.summary}</p>
+          <p className="rounded-plot border-l-4 border-stake bg-stake-pale p-4 text-sm" data-testid="field-guidance">
+            {view.summary}
+          </p>
           <MapLoader auditId={view.audit.id} mode="grower" />
           <Panel title="Bed by bed">
             <BedTable beds={view.beds} guidance={view.guidance} caption={`Checkpoints per bed in ${view.field.name}`} />
@@ -48,7 +80,9 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
           </Panel>
         </>
       ) : (
-        <Panel title="No results yet"><Empty>{view.summary}</Empty></Panel>
+        <Panel title="No results yet">
+          <Empty>{view.summary}</Empty>
+        </Panel>
       )}
     </div>
   );

@@ -16,7 +16,10 @@ const KindParam = z.object({ kind: z.enum(["planted", "survey"]).catch("planted"
 
 const TITLE = { planted: "As-planted records", survey: "Survey checkpoints" } as const;
 
-export default async function UploadPage({ params, searchParams }: {
+export default async function UploadPage({
+  params,
+  searchParams,
+}: {
   params: Promise<{ fieldId: string }>;
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
@@ -28,18 +31,35 @@ export default async function UploadPage({ params, searchParams }: {
   const { kind } = KindParam.parse(await searchParams);
   return (
     <>
-      <PageTitle sub={<><Link href={`/fields/${field.id}`} className="text-leaf hover:underline">{field.name}</Link> · {field.farm} · {field.crs}</>}>
+      <PageTitle
+        sub={
+          <>
+            <Link href={`/fields/${field.id}`} className="text-leaf hover:underline">
+              {field.name}
+            </Link>{" "}
+            · {field.farm} · {field.crs}
+          </>
+        }
+      >
         Upload {TITLE[kind].toLowerCase()}
       </PageTitle>
       <nav aria-label="Kind of file" className="mb-6 flex gap-2 text-sm">
         {(["planted", "survey"] as const).map((k) => (
-          <Link key={k} href={`/fields/${field.id}/upload?kind=${k}`} aria-current={k === kind ? "page" : undefined}
-            className={`rounded-plot border px-3 py-1.5 font-medium ${k === kind ? "border-leaf bg-leaf text-white" : "border-chalk-line bg-white text-ink hover:border-leaf"}`}>
+          <Link
+            key={k}
+            href={`/fields/${field.id}/upload?kind=${k}`}
+            aria-current={k === kind ? "page" : undefined}
+            className={`rounded-plot border px-3 py-1.5 font-medium ${k === kind ? "border-leaf bg-leaf text-white" : "border-chalk-line bg-white text-ink hover:border-leaf"}`}
+          >
             {TITLE[k]}
           </Link>
         ))}
       </nav>
-      {kind === "survey" ? <div className="mb-6"><FieldSafetyNote /></div> : null}
+      {kind === "survey" ? (
+        <div className="mb-6">
+          <FieldSafetyNote />
+        </div>
+      ) : null}
       <UploadFlow key={kind} field={{ id: field.id, name: field.name, crs: field.crs }} kind={kind} />
     </>
   );

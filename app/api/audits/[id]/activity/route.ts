@@ -8,7 +8,9 @@ import { toActivityDtos } from "@/lib/review/server/activity";
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const { db, audit } = await reviewAuditFor(viewer, params);
   const rows = await listAuditActivity(db, {
-    orgId: viewer.orgId, auditId: audit.id, datasetIds: [audit.plantedDatasetId, audit.surveyDatasetId].filter((x): x is string => !!x),
+    orgId: viewer.orgId,
+    auditId: audit.id,
+    datasetIds: [audit.plantedDatasetId, audit.surveyDatasetId].filter((x): x is string => !!x),
   });
   return Response.json({ activity: toActivityDtos(rows) });
 });

@@ -26,10 +26,14 @@ import { buildMapArrays } from "@/lib/map/build";
 import { encodeMapPayload, MAP_CONTENT_TYPE } from "@/lib/map/binary";
 import { mapMeta, originFor, projectBoundary } from "@/lib/map/payload";
 
-const Query = z.object({
-  pair: z.coerce.number().int().min(0).optional(),
-  unpaired: z.coerce.number().int().min(0).optional(),
-}).refine((q) => q.pair === undefined || q.unpaired === undefined, { message: "Ask for a pair or an unpaired point, not both." });
+const Query = z
+  .object({
+    pair: z.coerce.number().int().min(0).optional(),
+    unpaired: z.coerce.number().int().min(0).optional(),
+  })
+  .refine((q) => q.pair === undefined || q.unpaired === undefined, {
+    message: "Ask for a pair or an unpaired point, not both.",
+  });
 
 const RESULT_STATES = new Set(["computed", "submitted", "signed_off", "returned"]);
 
@@ -54,9 +58,19 @@ function remember(key: string, bytes: Uint8Array) {
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {
   const audit = await auditForViewer(viewer, params);
   const q = Query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-  if (!q.success) throw new AppError("invalid_input", q.error.issues.map((i) => i.message).join("; "), q.error.issues.map((i) => ({ path: i.path, message: i.message })));
+  if (!q.success)
+    throw new AppError(
+      "invalid_input",
+      q.error.issues.map((i) => i.message).join("; "),
+      q.error.issues.map((i) => ({ path: i.path, message: i.message })),
+    );
   if (!RESULT_STATES.has(audit.state)) {
-    throw new AppError("conflict", audit.state === "failed" ? "The audit could not be computed, so there is nothing to map." : "The audit is still computing; try again when it has finished.");
+    throw new AppError(
+      "conflict",
+      audit.state === "failed"
+        ? "The audit could not be computed, so there is nothing to map."
+        : "The audit is still computing; try again when it has finished.",
+    );
   }
   const db = await getDb();
   const orgId = viewer.orgId;
@@ -74,7 +88,10 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, 
   const context = await getMapContext(db, { auditId: audit.id, orgId });
   if (!context) throw notFound("Audit");
   // Everything the payload depends on; field settings may change after the audit was computed.
-  const key = createHash("sha256").update(JSON.stringify([audit.id, audit.computedAt, audit.state, audit.title, audit.settings, context])).digest("base64url").slice(0, 27);
+  const key = createHash("sha256")
+    .update(JSON.stringify([audit.id, audit.computedAt, audit.state, audit.title, audit.settings, context]))
+    .digest("base64url")
+    .slice(0, 27);
   const etag = `"map-${key}"`;
   const headers = { "content-type": MAP_CONTENT_TYPE, "cache-control": "private, no-cache", etag };
   if (req.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });

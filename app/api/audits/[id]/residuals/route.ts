@@ -10,6 +10,11 @@ import { ResidualQuerySchema } from "@/lib/validation/audit";
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {
   const audit = await auditForViewer(viewer, params);
   const q = ResidualQuerySchema.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-  if (!q.success) throw new AppError("invalid_input", q.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; "), q.error.issues.map((i) => ({ path: i.path, message: i.message })));
+  if (!q.success)
+    throw new AppError(
+      "invalid_input",
+      q.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; "),
+      q.error.issues.map((i) => ({ path: i.path, message: i.message })),
+    );
   return Response.json(await pageResiduals(await getDb(), { auditId: audit.id, query: q.data }));
 });

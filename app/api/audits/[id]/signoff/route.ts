@@ -9,7 +9,10 @@ import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/review/se
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {
   const { db, audit } = await reviewAuditFor(viewer, params);
   const withCanonical = new URL(req.url).searchParams.get("canonical") === "1";
-  return Response.json({ review: await buildReview(db, viewer, audit, { withCanonical }) }, { headers: { "cache-control": "no-store" } });
+  return Response.json(
+    { review: await buildReview(db, viewer, audit, { withCanonical }) },
+    { headers: { "cache-control": "no-store" } },
+  );
 });
 
 /** Sign off a submitted audit: checklist, typed name, comment when accepted with deviation. */

@@ -6,6 +6,10 @@ import { auditForViewer } from "@/lib/services/audit-access";
 /** The engine's JSON summary, with the same keys as `npm run audit`. */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const audit = await auditForViewer(viewer, params);
-  if (!audit.summary) throw new AppError("conflict", audit.state === "failed" ? `This audit failed: ${audit.error}` : "This audit is still computing.");
+  if (!audit.summary)
+    throw new AppError(
+      "conflict",
+      audit.state === "failed" ? `This audit failed: ${audit.error}` : "This audit is still computing.",
+    );
   return Response.json(audit.summary);
 });

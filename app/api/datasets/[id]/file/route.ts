@@ -13,6 +13,10 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, param
   const file = await getDatasetFile(await getDb(), { id: p.data.id, orgId: viewer.orgId });
   if (!file) throw notFound("Dataset");
   return new Response(file.bytes as BodyInit, {
-    headers: { "content-type": file.contentType, "content-disposition": contentDisposition(file.fileName), "x-content-sha256": file.sha256 },
+    headers: {
+      "content-type": file.contentType,
+      "content-disposition": contentDisposition(file.fileName),
+      "x-content-sha256": file.sha256,
+    },
   });
 });

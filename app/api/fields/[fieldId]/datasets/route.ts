@@ -26,7 +26,8 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
   if (!p.success) throw notFound("Field");
   if (!(await getFieldById(await getDb(), { id: p.data.fieldId, orgId: viewer.orgId }))) throw notFound("Field");
   const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > MAX_UPLOAD_BYTES) throw new AppError("payload_too_large", `Files up to ${MAX_UPLOAD_BYTES / 1024 / 1024} MB can be uploaded.`);
+  if (declared > MAX_UPLOAD_BYTES)
+    throw new AppError("payload_too_large", `Files up to ${MAX_UPLOAD_BYTES / 1024 / 1024} MB can be uploaded.`);
 
   let form: FormData;
   try {
@@ -35,16 +36,26 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
     throw new AppError("invalid_input", "Send the upload as multipart/form-data with a 'file' part.");
   }
   const file = form.get("file");
-  if (!(file instanceof File)) throw new AppError("invalid_input", "The 'file' part is missing.", [{ path: ["file"], message: "Choose a file to upload" }]);
+  if (!(file instanceof File))
+    throw new AppError("invalid_input", "The 'file' part is missing.", [
+      { path: ["file"], message: "Choose a file to upload" },
+    ]);
   const fields = UploadFields.safeParse(Object.fromEntries([...form.entries()].filter(([k]) => k !== "file")));
   if (!fields.success) {
     const issues = fields.error.issues.map((i) => ({ path: i.path, message: i.message }));
     throw new AppError("invalid_input", `Invalid ${issues.map((i) => i.path.join(".")).join(", ")}.`, issues);
   }
   const request: IngestRequest = {
-    viewer, fieldId: p.data.fieldId, kind: fields.data.kind, fileName: file.name || "upload.csv", contentType: file.type,
-    bytes: new Uint8Array(await file.arrayBuffer()), crs: fields.data.crs, mapping: fields.data.mapping,
-    acceptWarnings: fields.data.acceptWarnings, presetName: fields.data.presetName,
+    viewer,
+    fieldId: p.data.fieldId,
+    kind: fields.data.kind,
+    fileName: file.name || "upload.csv",
+    contentType: file.type,
+    bytes: new Uint8Array(await file.arrayBuffer()),
+    crs: fields.data.crs,
+    mapping: fields.data.mapping,
+    acceptWarnings: fields.data.acceptWarnings,
+    presetName: fields.data.presetName,
   };
 
   if (!(req.headers.get("accept") ?? "").includes("application/x-ndjson")) {
@@ -66,11 +77,18 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
         if (err instanceof AppError) send({ type: "done", status: err.status, body: err.toBody() as never });
         else {
           console.error("[plotproof] upload failed", err);
-          send({ type: "done", status: 500, body: { error: { code: "internal", message: "The upload failed on our side; nothing was saved." } } });
+          send({
+            type: "done",
+            status: 500,
+            body: { error: { code: "internal", message: "The upload failed on our side; nothing was saved." } },
+          });
         }
       }
       controller.close();
     },
   });
-  return new Response(stream, { status: 200, headers: { "content-type": "application/x-ndjson; charset=utf-8", "cache-control": "no-store" } });
+  return new Response(stream, {
+    status: 200,
+    headers: { "content-type": "application/x-ndjson; charset=utf-8", "cache-control": "no-store" },
+  });
 });

@@ -15,9 +15,21 @@ import { ProfileLimits } from "@/app/_components/audit/profile-limits";
 import { formatDate } from "@/app/_components/ui";
 
 const MATCH_MODES = [
-  { value: "auto", label: "Plant id, then position", explain: "Pair by plant id where the survey has one; pair the rest with the nearest record." },
-  { value: "id", label: "Plant id only", explain: "Pair only checkpoints whose plant id is in the records; checkpoints without an id stay unpaired." },
-  { value: "nearest", label: "Position only", explain: "Ignore ids and pair each checkpoint with the nearest record within the maximum distance." },
+  {
+    value: "auto",
+    label: "Plant id, then position",
+    explain: "Pair by plant id where the survey has one; pair the rest with the nearest record.",
+  },
+  {
+    value: "id",
+    label: "Plant id only",
+    explain: "Pair only checkpoints whose plant id is in the records; checkpoints without an id stay unpaired.",
+  },
+  {
+    value: "nearest",
+    label: "Position only",
+    explain: "Ignore ids and pair each checkpoint with the nearest record within the maximum distance.",
+  },
 ] as const;
 
 const Schema = z.object({
@@ -26,12 +38,23 @@ const Schema = z.object({
   surveyDatasetId: z.string().min(1, "Choose the survey file."),
   profileId: z.string().min(1, "Choose a tolerance profile."),
   match: z.enum(["auto", "id", "nearest"]),
-  maxDistanceMm: z.string()
-    .refine((s) => { const v = parseDecimal(s); return v !== null && v > 0; }, "Enter a distance in millimetres, more than 0.")
-    .refine((s) => (parseDecimal(s) ?? 0) <= 5000, "At most 5000 mm: pairing farther apart would pair unrelated plants.")
+  maxDistanceMm: z
+    .string()
+    .refine((s) => {
+      const v = parseDecimal(s);
+      return v !== null && v > 0;
+    }, "Enter a distance in millimetres, more than 0.")
+    .refine(
+      (s) => (parseDecimal(s) ?? 0) <= 5000,
+      "At most 5000 mm: pairing farther apart would pair unrelated plants.",
+    )
     .transform((s) => parseDecimal(s)!),
-  rowBearingDeg: z.string()
-    .refine((s) => { const v = parseDecimal(s); return v === null || (v >= 0 && v < 360); }, "Enter degrees from 0 to 360 clockwise from grid north, or leave empty.")
+  rowBearingDeg: z
+    .string()
+    .refine((s) => {
+      const v = parseDecimal(s);
+      return v === null || (v >= 0 && v < 360);
+    }, "Enter degrees from 0 to 360 clockwise from grid north, or leave empty.")
     .transform((s) => parseDecimal(s)),
 });
 type FormIn = z.input<typeof Schema>;
@@ -39,7 +62,11 @@ type FormOut = z.output<typeof Schema>;
 
 const API_TO_FORM: Record<string, string> = { maxDistanceM: "maxDistanceMm" };
 
-export function NewAuditForm({ field }: { field: { id: string; name: string; crs: string; rowBearingDeg: number | null } }) {
+export function NewAuditForm({
+  field,
+}: {
+  field: { id: string; name: string; crs: string; rowBearingDeg: number | null };
+}) {
   const router = useRouter();
   const datasets = useSWR<{ datasets: DatasetDto[] }>(keys.fieldDatasets(field.id), fetcher);
   const profiles = useSWR<{ profiles: ToleranceProfileDto[] }>(keys.profiles(), fetcher);
@@ -48,11 +75,24 @@ export function NewAuditForm({ field }: { field: { id: string; name: string; crs
   const planted = useMemo(() => (datasets.data?.datasets ?? []).filter((d) => d.kind === "planted"), [datasets.data]);
   const surveys = useMemo(() => (datasets.data?.datasets ?? []).filter((d) => d.kind === "survey"), [datasets.data]);
 
-  const { register, handleSubmit, watch, setValue, setError, getValues, formState: { errors, isSubmitting } } = useForm<FormIn, unknown, FormOut>({
+  const {
+    register,
+    handleSubmit,
+    watch,
+    setValue,
+    setError,
+    getValues,
+    formState: { errors, isSubmitting },
+  } = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(Schema),
     defaultValues: {
       title: `${field.name} — ${new Date().toISOString().slice(0, 10)}`,
-      plantedDatasetId: "", surveyDatasetId: "", profileId: "", match: "auto", maxDistanceMm: "100", rowBearingDeg: "",
+      plantedDatasetId: "",
+      surveyDatasetId: "",
+      profileId: "",
+      match: "auto",
+      maxDistanceMm: "100",
+      rowBearingDeg: "",
     },
   });
 
@@ -87,7 +127,8 @@ export function NewAuditForm({ field }: { field: { id: string; name: string; crs
       if (err instanceof ApiError && err.status === 422) {
         const byField = issuesByField(err.issues, API_TO_FORM);
         const known = Object.keys(Schema.shape);
-        for (const [name, message] of Object.entries(byField)) if (known.includes(name)) setError(name as keyof FormIn, { message });
+        for (const [name, message] of Object.entries(byField))
+          if (known.includes(name)) setError(name as keyof FormIn, { message });
         setFormError(err.message);
       } else {
         setFormError(err instanceof Error ? err.message : "The audit could not be started.");
@@ -99,7 +140,13 @@ export function NewAuditForm({ field }: { field: { id: string; name: string; crs
   const noFiles = datasets.data && (planted.length === 0 || surveys.length === 0);
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} noValidate aria-label="New audit" className="grid max-w-3xl gap-6" data-testid="new-audit-form">
+    <form
+      onSubmit={handleSubmit(onSubmit)}
+      noValidate
+      aria-label="New audit"
+      className="grid max-w-3xl gap-6"
+      data-testid="new-audit-form"
+    >
       <FormError message={formError} />
       {loadError ? <FormError message={`Could not load the choices: ${(loadError as Error).message}`} /> : null}
 
@@ -108,28 +155,68 @@ export function NewAuditForm({ field }: { field: { id: string; name: string; crs
         <InputRow id="title" label="Title" error={errors.title?.message} reg={register("title")} />
         {noFiles ? (
           <p className="mb-4 rounded-plot bg-stake-pale p-3 text-sm">
-            This field needs {planted.length === 0 ? "an as-planted file" : ""}{planted.length === 0 && surveys.length === 0 ? " and " : ""}{surveys.length === 0 ? "a survey file" : ""} before it can be audited.{" "}
-            <Link href={`/fields/${field.id}`} className="font-medium text-leaf underline">Upload on the field page</Link>.
+            This field needs {planted.length === 0 ? "an as-planted file" : ""}
+            {planted.length === 0 && surveys.length === 0 ? " and " : ""}
+            {surveys.length === 0 ? "a survey file" : ""} before it can be audited.{" "}
+            <Link href={`/fields/${field.id}`} className="font-medium text-leaf underline">
+              Upload on the field page
+            </Link>
+            .
           </p>
         ) : null}
-        <SelectRow id="plantedDatasetId" label="As-planted records" error={errors.plantedDatasetId?.message} reg={register("plantedDatasetId")}
-          hint="The planting machine's file: one row per plant.">
+        <SelectRow
+          id="plantedDatasetId"
+          label="As-planted records"
+          error={errors.plantedDatasetId?.message}
+          reg={register("plantedDatasetId")}
+          hint="The planting machine's file: one row per plant."
+        >
           <option value="">{datasets.isLoading ? "Loading…" : "Choose a file"}</option>
-          {planted.map((d) => <option key={d.id} value={d.id}>{datasetLabel(d)}</option>)}
+          {planted.map((d) => (
+            <option key={d.id} value={d.id}>
+              {datasetLabel(d)}
+            </option>
+          ))}
         </SelectRow>
-        <SelectRow id="surveyDatasetId" label="Survey of checkpoints" error={errors.surveyDatasetId?.message} reg={register("surveyDatasetId")}
-          hint="Your independent measurement of a sample of plants.">
+        <SelectRow
+          id="surveyDatasetId"
+          label="Survey of checkpoints"
+          error={errors.surveyDatasetId?.message}
+          reg={register("surveyDatasetId")}
+          hint="Your independent measurement of a sample of plants."
+        >
           <option value="">{datasets.isLoading ? "Loading…" : "Choose a file"}</option>
-          {surveys.map((d) => <option key={d.id} value={d.id}>{datasetLabel(d)}</option>)}
+          {surveys.map((d) => (
+            <option key={d.id} value={d.id}>
+              {datasetLabel(d)}
+            </option>
+          ))}
         </SelectRow>
       </fieldset>
 
       <fieldset className="rounded-plot border border-chalk-line bg-white p-5">
         <legend className="px-1 text-base font-semibold">Judge against</legend>
-        <SelectRow id="profileId" label="Tolerance profile" error={errors.profileId?.message} reg={register("profileId")}
-          hint={<>The limits the next operation needs. <Link href="/profiles" className="text-leaf underline">See all profiles</Link>.</>}>
+        <SelectRow
+          id="profileId"
+          label="Tolerance profile"
+          error={errors.profileId?.message}
+          reg={register("profileId")}
+          hint={
+            <>
+              The limits the next operation needs.{" "}
+              <Link href="/profiles" className="text-leaf underline">
+                See all profiles
+              </Link>
+              .
+            </>
+          }
+        >
           <option value="">{profiles.isLoading ? "Loading…" : "Choose a profile"}</option>
-          {(profiles.data?.profiles ?? []).map((p) => <option key={p.id} value={p.id}>{p.name} — {p.operation}</option>)}
+          {(profiles.data?.profiles ?? []).map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.name} — {p.operation}
+            </option>
+          ))}
         </SelectRow>
         {chosenProfile ? <ProfileLimits profile={chosenProfile} /> : null}
       </fieldset>
@@ -140,21 +227,47 @@ export function NewAuditForm({ field }: { field: { id: string; name: string; crs
           <legend className="mb-1 text-sm font-medium">Pair checkpoints with records by</legend>
           <div className="grid gap-2">
             {MATCH_MODES.map((m) => (
-              <label key={m.value} className="flex items-start gap-2 rounded-plot border border-chalk-line p-2 text-sm has-[:checked]:border-leaf has-[:checked]:bg-leaf-pale">
+              <label
+                key={m.value}
+                className="flex items-start gap-2 rounded-plot border border-chalk-line p-2 text-sm has-[:checked]:border-leaf has-[:checked]:bg-leaf-pale"
+              >
                 <input type="radio" value={m.value} {...register("match")} className="mt-1 accent-leaf" />
-                <span><span className="font-medium">{m.label}</span><span className="block text-ink-soft">{m.explain}</span></span>
+                <span>
+                  <span className="font-medium">{m.label}</span>
+                  <span className="block text-ink-soft">{m.explain}</span>
+                </span>
               </label>
             ))}
           </div>
-          {errors.match?.message ? <p role="alert" className="mt-1 text-sm text-alarm">{errors.match.message}</p> : null}
+          {errors.match?.message ? (
+            <p role="alert" className="mt-1 text-sm text-alarm">
+              {errors.match.message}
+            </p>
+          ) : null}
         </fieldset>
-        <InputRow id="maxDistanceMm" label="Maximum pairing distance" suffix="mm" inputMode="decimal" error={errors.maxDistanceMm?.message} reg={register("maxDistanceMm")}
-          hint="A checkpoint farther than this from every record stays unpaired. Keep it under half the plant spacing." />
-        <InputRow id="rowBearingDeg" label="Row direction (optional)" suffix="° from grid north" inputMode="decimal" error={errors.rowBearingDeg?.message} reg={register("rowBearingDeg")}
+        <InputRow
+          id="maxDistanceMm"
+          label="Maximum pairing distance"
+          suffix="mm"
+          inputMode="decimal"
+          error={errors.maxDistanceMm?.message}
+          reg={register("maxDistanceMm")}
+          hint="A checkpoint farther than this from every record stays unpaired. Keep it under half the plant spacing."
+        />
+        <InputRow
+          id="rowBearingDeg"
+          label="Row direction (optional)"
+          suffix="° from grid north"
+          inputMode="decimal"
+          error={errors.rowBearingDeg?.message}
+          reg={register("rowBearingDeg")}
           placeholder={field.rowBearingDeg !== null ? String(field.rowBearingDeg) : "derived"}
-          hint={field.rowBearingDeg !== null
-            ? `Leave empty to use the field's ${field.rowBearingDeg}°.`
-            : "Leave empty to derive it from the as-planted records (the field has none set)."} />
+          hint={
+            field.rowBearingDeg !== null
+              ? `Leave empty to use the field's ${field.rowBearingDeg}°.`
+              : "Leave empty to derive it from the as-planted records (the field has none set)."
+          }
+        />
       </fieldset>
 
       <div className="max-w-xs">

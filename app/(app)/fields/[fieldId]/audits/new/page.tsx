@@ -18,7 +18,14 @@ export default async function NewAuditPage({ params }: { params: Promise<{ field
   if (!field) notFound();
   return (
     <>
-      <PageTitle sub={<>Compare a survey of checkpoints with the as-planted records of <TextLink href={`/fields/${field.id}`}>{field.name}</TextLink>.</>}>
+      <PageTitle
+        sub={
+          <>
+            Compare a survey of checkpoints with the as-planted records of{" "}
+            <TextLink href={`/fields/${field.id}`}>{field.name}</TextLink>.
+          </>
+        }
+      >
         New audit
       </PageTitle>
       <NewAuditForm field={{ id: field.id, name: field.name, crs: field.crs, rowBearingDeg: field.rowBearingDeg }} />
