@@ -19,6 +19,7 @@ describe("copyRows", () => {
     );
     const rows = [
       { seq: 1, note: 'say "hi", then\nleave', value: 0.1 + 0.2, flag: true },
+      // biome-ignore lint/correctness/noPrecisionLoss: the literal is meant to use every digit a double holds.
       { seq: 2, note: "", value: -1.2345678901234567e-7, flag: false },
       { seq: 3, note: null, value: null, flag: null },
       { seq: 4, note: "=SUM(A1)", value: Number.NaN, flag: true },

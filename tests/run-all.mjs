@@ -1,5 +1,5 @@
 #!/usr/bin/env node
-// The whole test suite: types, unit + integration (vitest), production build, browser tests (Playwright
+// The whole test suite: types, lint and format, unit + integration (vitest), production build, browser tests (Playwright
 // driving Debian's chromium). Installs chromium with apt-get when it is missing and we are root.
 // Ends with one summary line: "tests: N passed, N failed".
 import { spawnSync } from "node:child_process";
@@ -35,6 +35,7 @@ if (!fs.existsSync(chromium)) {
 fs.rmSync(".test-report", { recursive: true, force: true });
 fs.mkdirSync(".test-report", { recursive: true });
 run("type check", "npx", ["tsc", "--noEmit", "-p", "."]);
+run("lint and format (Biome)", "npx", ["biome", "check", "."]);
 run("unit and integration tests", "npx", [
   "vitest",
   "run",

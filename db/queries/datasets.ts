@@ -94,7 +94,7 @@ export async function loadDatasetPoints(
     .select({ ...cols, points: dataset.points })
     .from(dataset)
     .where(and(eq(dataset.id, id), eq(dataset.orgId, orgId)));
-  if (!row || !row.points) return null;
+  if (!row?.points) return null;
   const { points, ...rest } = row;
   return { dto: toDto(rest, new Set()), table: decodePoints(points) };
 }

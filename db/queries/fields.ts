@@ -53,7 +53,7 @@ export async function listFields(db: DB, { orgId }: { orgId: string }): Promise<
   return rows.map((r) => {
     const a = audits.find((x) => x.fieldId === r.id);
     const rmseR =
-      a && a.summary && typeof (a.summary as { rmseR?: unknown }).rmseR === "number"
+      a?.summary && typeof (a.summary as { rmseR?: unknown }).rmseR === "number"
         ? (a.summary as { rmseR: number }).rmseR
         : null;
     return {

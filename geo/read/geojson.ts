@@ -139,7 +139,7 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
     const f = features[i];
     const line = i + 1;
     const g = f?.geometry;
-    if (!f || f.type !== "Feature") {
+    if (f?.type !== "Feature") {
       issues.add({
         severity: "error",
         code: "geojson-not-feature",

@@ -70,7 +70,7 @@ export function normaliseFix(s: string): string {
   if (t === "") return "";
   const n = NMEA_FIX[t];
   if (n) return n;
-  const key = t.toLowerCase().replace(/[\s_\-]+/g, "");
+  const key = t.toLowerCase().replace(/[\s_-]+/g, "");
   return TEXT_FIX[key] ?? t;
 }
 

@@ -29,11 +29,11 @@ describe("clopperPearson", () => {
   it("clopperPearson -- all within tolerance, closed form", () => {
     // closed form for k = n: lower = (α/2)^(1/n) = 0.025^(1/20) = 0.8316
     const d = clopperPearson(20, 20, 0.95)!;
-    expect(d.lower).toBeCloseTo(Math.pow(0.025, 1 / 20), 12);
+    expect(d.lower).toBeCloseTo(0.025 ** (1 / 20), 12);
     expect(d.lower).toBeCloseTo(0.8316, 4);
     expect(d.upper).toBe(1);
     // and for k = 0 the upper bound is 1 − (α/2)^(1/n)
-    expect(clopperPearson(0, 37, 0.9)!.upper).toBeCloseTo(1 - Math.pow(0.05, 1 / 37), 12);
+    expect(clopperPearson(0, 37, 0.9)!.upper).toBeCloseTo(1 - 0.05 ** (1 / 37), 12);
   });
 
   it("clopperPearson -- agrees with jstat.beta.inv on random k/n", () => {

@@ -30,6 +30,7 @@ describe("radii", () => {
   it("circularProbability -- published P values", () => {
     // check-values.md (computed): 1σ circle 0.393469, DRMS 0.632121, 2DRMS 0.981684
     expect(circularProbability(1)).toBeCloseTo(0.393469, 6);
+    // biome-ignore lint/suspicious/noApproximativeNumericConstant: the table value as printed, not √2.
     expect(circularProbability(1.414214)).toBeCloseTo(0.632121, 6);
     expect(circularProbability(2.828427)).toBeCloseTo(0.981684, 6);
     expect(circularProbability(circularRadiusFactor(0.95))).toBeCloseTo(0.95, 14);

@@ -82,7 +82,7 @@ export function evaluateVerdict(
     if (limit === null) continue;
     const observed =
       id === "radial"
-        ? values && values.length
+        ? values?.length
           ? quantileSorted(Float64Array.from(values).sort(), 0.95)
           : null
         : p95Abs(values);

@@ -91,20 +91,18 @@ beforeAll(async () => {
     { id: ORG, name: "Kestrel Fen Growers", slug: "kestrel" },
     { id: OTHER, name: "Saltings Field Services", slug: "saltings" },
   ]);
-  await db
-    .insert(field)
-    .values({
-      id: FIELD,
-      orgId: ORG,
-      name: "Long Acre",
-      farm: "Kestrel Fen",
-      crs: "EPSG:25831",
-      timeZone: "Europe/Amsterdam",
-      rowBearingDeg: 22.5,
-      bedSpacingM: 3,
-      rowsPerBed: 5,
-      rowSpacingM: 0.5,
-    });
+  await db.insert(field).values({
+    id: FIELD,
+    orgId: ORG,
+    name: "Long Acre",
+    farm: "Kestrel Fen",
+    crs: "EPSG:25831",
+    timeZone: "Europe/Amsterdam",
+    rowBearingDeg: 22.5,
+    bedSpacingM: 3,
+    rowsPerBed: 5,
+    rowSpacingM: 0.5,
+  });
   const settings = {
     match: "auto",
     maxDistanceM: 0.1,

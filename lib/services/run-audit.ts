@@ -103,7 +103,7 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
   let job: AuditWorkerJob | null = null;
   try {
     const auditRow = await getAuditById(db, { id, orgId });
-    if (!auditRow || !auditRow.planted || !auditRow.survey || !auditRow.settings || !auditRow.profile)
+    if (!auditRow?.planted || !auditRow.survey || !auditRow.settings || !auditRow.profile)
       throw new Error("audit inputs are missing");
     await setAuditProgress(db, { id, progress: 0.05, stage: "loading" });
     const [planted, survey] = await Promise.all([

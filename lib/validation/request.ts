@@ -1,4 +1,4 @@
-import { z } from "zod";
+import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 
 /** Parse a JSON request body with a zod schema; 422 with the issues (path + message) otherwise. */

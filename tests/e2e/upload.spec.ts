@@ -376,7 +376,7 @@ test("upload -- 100,000 as-planted rows are saved from the browser with the prog
   const file = { name: "great-drove-100k.csv", mimeType: "text/csv", buffer: bigAsPlanted(100_000) };
   await upload.choose(file);
   // Only the first megabyte is read for the preview: the row count is an estimate.
-  const estimate = (await page.getByTestId("preview-facts").innerText()).match(/about ([\d,]+)/);
+  const estimate = ((await page.getByTestId("preview-facts").textContent()) ?? "").match(/about ([\d,]+)/);
   expect(estimate).not.toBeNull();
   expect(Math.abs(Number(estimate![1].replace(/,/g, "")) - 100_000)).toBeLessThan(5_000);
 
@@ -407,12 +407,10 @@ test("upload -- 100,000 as-planted rows are saved from the browser with the prog
   expect(bars.server.filter((v) => Number(v) > 0 && Number(v) < 100).length).toBeGreaterThan(1);
   expect(bars.transfer.at(-1)).toBe("100");
   expect(bars.server.at(-1)).toBe("100");
-  test
-    .info()
-    .annotations.push({
-      type: "timing",
-      description: `100,000 rows (${(file.buffer.length / 1024 / 1024).toFixed(1)} MB) saved in ${seconds.toFixed(1)} s; bars: transfer ${bars.transfer.join(" → ")}; server ${bars.server.join(" → ")}`,
-    });
+  test.info().annotations.push({
+    type: "timing",
+    description: `100,000 rows (${(file.buffer.length / 1024 / 1024).toFixed(1)} MB) saved in ${seconds.toFixed(1)} s; bars: transfer ${bars.transfer.join(" → ")}; server ${bars.server.join(" → ")}`,
+  });
   console.log(
     `[upload timing] 100,000 rows, ${(file.buffer.length / 1024 / 1024).toFixed(1)} MB: ${seconds.toFixed(1)} s from "Check and save" to saved`,
   );

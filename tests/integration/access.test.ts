@@ -3,7 +3,7 @@ import { cookieFor, ctx, req, useMemoryDb } from "./helpers";
 import type { DB } from "@/db/client";
 import { DEMO_PASSWORD, DEMO_PEOPLE, OTHER_OWNER } from "@/lib/demo/farm";
 
-let db: DB;
+let _db: DB;
 const cookies: Record<string, string> = {};
 let fieldsRoute: typeof import("@/app/api/fields/route");
 let fieldRoute: typeof import("@/app/api/fields/[fieldId]/route");
@@ -14,7 +14,7 @@ let foreignFieldId: string;
 const newField = { name: "North Headland", farm: "Kestrel Fen", crs: "EPSG:25831", timeZone: "Europe/Amsterdam" };
 
 beforeAll(async () => {
-  db = await useMemoryDb();
+  _db = await useMemoryDb();
   const { seedDemo } = await import("@/lib/demo/seed");
   expect(await seedDemo()).toBe("created");
   expect(await seedDemo()).toBe("present"); // idempotent

@@ -158,8 +158,8 @@ describe("uploads and audits through the API", () => {
     expect(audit.verdict!.passed).toBe(false);
     expect(audit.verdict!.criteria.find((c) => c.id === "share")!.passed).toBe(false);
     expect(audit.verdict!.criteria.find((c) => c.id === "checkpoints")!.passed).toBe(true);
-    expect(s.groups.fix?.find((g) => g.key === "rtk-float")!.rmseAlong).toBeGreaterThan(0.025);
-    expect(s.groups.fix?.find((g) => g.key === "rtk-fixed")!.rmseR).toBeLessThan(0.006);
+    expect(s.groups.fix!.find((g) => g.key === "rtk-float")!.rmseAlong).toBeGreaterThan(0.025);
+    expect(s.groups.fix!.find((g) => g.key === "rtk-fixed")!.rmseR).toBeLessThan(0.006);
     expect(s.groups.day?.map((g) => g.key)).toEqual(["2026-04-14", "2026-04-15"]); // local days, not UTC
     expect(s.raw!.rmseR!).toBeGreaterThan(s.rmseR! * 2); // camera correction helps
   });

@@ -4,7 +4,7 @@ import useSWR from "swr";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
-import { ApiError, fetcher, sendJson } from "@/lib/fetcher";
+import { type ApiError, fetcher, sendJson } from "@/lib/fetcher";
 import { ROLES, ROLE_DUTY, ROLE_LABEL, type Role } from "@/lib/roles";
 import type { InvitationDto } from "@/lib/review/types";
 import { Empty, Panel, formatDate } from "@/app/_components/ui";

@@ -154,7 +154,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                           ) : (
                             <PassMark passed={j.status === "ok"} passWord="OK" failWord="Out" />
                           )}
-                          {j && j.reasons.length ? (
+                          {j?.reasons.length ? (
                             <span className={`block text-xs ${j.status === "out" ? "text-alarm" : "text-ink-soft"}`}>
                               {j.reasons.join("; ")}
                             </span>

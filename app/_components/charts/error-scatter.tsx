@@ -172,6 +172,7 @@ function RingLayer({ rings }: { rings: Ring[] }) {
     cy = ys(0);
   if (cx === undefined || cy === undefined) return null;
   return (
+    // biome-ignore lint/a11y/noAriaHiddenOnFocusable: an SVG group is not focusable; the rings repeat figures the table gives.
     <g aria-hidden="true">
       {rings.map((r, i) => {
         const ex = xs(r.radiusMm),

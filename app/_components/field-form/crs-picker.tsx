@@ -121,6 +121,7 @@ export function CrsPicker({
           onKeyDown={onKeyDown}
           className={`${inputClass(!!error)} font-mono`}
         />
+        {/* The WAI-ARIA combobox pattern: focus stays in the input, which names the active option (aria-activedescendant). */}
         <ul
           id={listId}
           role="listbox"
@@ -140,6 +141,8 @@ export function CrsPicker({
             </li>
           ) : (
             options.map((c, i) => (
+              // biome-ignore lint/a11y/useKeyWithClickEvents: the input handles arrows and Enter for the options.
+              // biome-ignore lint/a11y/useFocusableInteractive: options are never focused; the input keeps focus.
               <li
                 key={c.code}
                 id={`${listId}-${i}`}

@@ -123,7 +123,7 @@ export function DeckView({
         }),
       );
     }
-    if (d.unpaired && d.unpaired["planted-not-found"].length) {
+    if (d.unpaired?.["planted-not-found"].length) {
       list.push(
         new ScatterplotLayer({
           id: "planted-unpaired",
@@ -139,7 +139,7 @@ export function DeckView({
         }),
       );
     }
-    if (d.vectors && d.vectors.length) {
+    if (d.vectors?.length) {
       list.push(
         new LineLayer({
           id: "vectors",

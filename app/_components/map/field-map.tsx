@@ -1,7 +1,7 @@
 "use client";
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
-import { ApiError, fetcher, toApiError } from "@/lib/fetcher";
+import { type ApiError, fetcher, toApiError } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { AuditDto } from "@/lib/api-types";
 import { AuditProgress } from "@/app/_components/audit/progress";
@@ -231,14 +231,14 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
     return () => ro.disconnect();
   }, []);
 
-  const fit = useCallback(() => {
+  const fitToField = useCallback(() => {
     if (!size || !bounds) return;
     const f = fitBounds(bounds, size.width, size.height, 32);
     setViewState({ target: f.target, zoom: f.zoom });
   }, [size, bounds]);
   useEffect(() => {
-    if (!viewState && size && size.width > 0) fit();
-  }, [viewState, size, fit]);
+    if (!viewState && size && size.width > 0) fitToField();
+  }, [viewState, size, fitToField]);
 
   const onDrawn = useCallback(() => {
     draws.current++;
@@ -339,7 +339,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
             <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
               <button
                 type="button"
-                onClick={fit}
+                onClick={fitToField}
                 className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm hover:bg-chalk"
                 data-testid="map-fit"
               >

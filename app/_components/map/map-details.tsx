@@ -76,6 +76,7 @@ export function DetailsPanel({
   const { data, error } = useSWR<{ pair?: ResidualRowDto; unpaired?: UnpairedRowDto }>(key, fetcher, {
     revalidateOnFocus: false,
   });
+  // biome-ignore lint/correctness/useExhaustiveDependencies: focus moves to the heading each time another plant is shown.
   useEffect(() => heading.current?.focus(), [key]);
 
   let body: React.ReactNode;

@@ -116,6 +116,7 @@ export function ScaleBar({ zoom }: { zoom: number }) {
       className="rounded-plot bg-white/90 px-2 py-1 text-[11px] text-ink"
       data-testid="scale-bar"
       data-metres={bar.metres}
+      role="img"
       aria-label={`Scale: the bar is ${bar.label}`}
     >
       <div className="h-1.5 border-x-2 border-b-2 border-ink" style={{ width: `${bar.px}px` }} aria-hidden="true" />

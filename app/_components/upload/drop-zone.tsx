@@ -36,6 +36,7 @@ export function DropZone({
   const hintId = `${id}-hint`,
     errId = `${id}-error`;
   return (
+    // biome-ignore lint/a11y/noStaticElementInteractions: dropping is a mouse shortcut; the file input inside serves the keyboard.
     <div
       onDragOver={(e) => {
         if (disabled) return;

@@ -155,6 +155,7 @@ export function FileStep({
   };
 
   // A saved preset whose columns are all in this file is applied at once (and the page says so).
+  // biome-ignore lint/correctness/useExhaustiveDependencies: decided once, when the presets arrive; later edits to the form must not re-apply one.
   useEffect(() => {
     if (presetDecided.current || !presets.data) return;
     presetDecided.current = true;

@@ -78,7 +78,7 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
       text:
         diffs.length === 0
           ? "Figures, verdict, per-plant rows and reports in the database are exactly those that were signed."
-          : `The database no longer holds what was signed: ${describe(diffs)}.`,
+          : `The database no longer holds what was signed: ${describeDiffs(diffs)}.`,
       differences: diffs,
     });
   }
@@ -91,7 +91,7 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
       text:
         diffs.length === 0
           ? "Computing the audit again from the raw files gives exactly the same figures, verdict, per-plant rows and reports."
-          : `Computing again from the raw files gives different results: ${describe(diffs)}.`,
+          : `Computing again from the raw files gives different results: ${describeDiffs(diffs)}.`,
       differences: diffs,
     });
   } else {
@@ -158,7 +158,7 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
 
 const short = (sha: string) => (sha.length > 16 ? `${sha.slice(0, 16)}…` : sha);
 
-function describe(diffs: { path: string; signed: unknown; now: unknown }[]): string {
+function describeDiffs(diffs: { path: string; signed: unknown; now: unknown }[]): string {
   const shown = diffs.slice(0, 4).map((d) => `${d.path} was ${fmt(d.signed)}, is ${fmt(d.now)}`);
   return shown.join("; ") + (diffs.length > 4 ? ` and ${diffs.length - 4} more` : "");
 }

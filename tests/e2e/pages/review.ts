@@ -1,6 +1,5 @@
 import { expect, type Browser, type Page } from "@playwright/test";
-import { DEMO_PASSWORD } from "@/lib/demo/farm";
-import { SignInPage, demoPerson } from "./session";
+import { SignInPage, type demoPerson } from "./session";
 
 /**
  * The demo's outbox (/outbox) as the owner sees it: the fake SMTP server's catch. Opens its own

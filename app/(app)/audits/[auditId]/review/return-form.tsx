@@ -3,7 +3,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useSWRConfig } from "swr";
-import { ApiError, sendJson } from "@/lib/fetcher";
+import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import { RETURN_REASONS, RETURN_REASON_CODES } from "@/lib/review/return-reasons";
 import { ReturnInput } from "@/lib/review/validation";

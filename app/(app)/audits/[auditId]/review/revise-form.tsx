@@ -3,7 +3,7 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { useSWRConfig } from "swr";
-import { ApiError, sendJson } from "@/lib/fetcher";
+import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { ReviseInput } from "@/lib/review/validation";
 import type { AuditDto } from "@/lib/api-types";

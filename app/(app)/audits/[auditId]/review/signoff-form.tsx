@@ -4,7 +4,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { useSWRConfig } from "swr";
-import { ApiError, sendJson } from "@/lib/fetcher";
+import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import { INSTRUMENT_RATIO, namesMatch, type ChecklistContext } from "@/lib/review/checklist";
 import { DEVIATION_COMMENT_MIN, type SignoffInput } from "@/lib/review/validation";

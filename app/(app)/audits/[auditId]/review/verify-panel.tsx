@@ -1,7 +1,7 @@
 "use client";
 import { useState } from "react";
 import { useSWRConfig } from "swr";
-import { ApiError, sendJson } from "@/lib/fetcher";
+import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { VerificationDto } from "@/lib/review/types";
 import { formatDate } from "@/app/_components/ui";

@@ -69,12 +69,12 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
         </p>
       ) : null}
       {canPrepare ? (
-        <div className="mb-6 flex flex-wrap gap-3" aria-label="Field actions">
+        <nav className="mb-6 flex flex-wrap gap-3" aria-label="Field actions">
           <ActionLink href={`/fields/${field.id}/upload?kind=planted`}>Upload as-planted records</ActionLink>
           <ActionLink href={`/fields/${field.id}/upload?kind=survey`}>Upload survey</ActionLink>
           {hasBoth ? <ActionLink href={`/fields/${field.id}/audits/new`}>New audit</ActionLink> : null}
           <ActionLink href={`/fields/${field.id}/edit`}>Edit field</ActionLink>
-        </div>
+        </nav>
       ) : null}
       <div className="grid gap-6">
         <Panel title="Audits">
