@@ -27,11 +27,11 @@ export default defineConfig({
   },
   webServer: {
     // Built by the test command beforehand; a fresh database seeded with the demo farm.
-    command: `node node_modules/next/dist/bin/next start -p ${PORT}`,
+    command: `node lib/server/http/serve.mjs -p ${PORT}`,
     url: `${BASE}/api/health`,
     reuseExistingServer: false,
     timeout: 120_000,
     stdout: "pipe",
-    env: { PLOTPROOF_DEMO: "1", AUTH_SIGNIN_PER_MINUTE: "1000", PGLITE_DIR: "data/e2e/db", BETTER_AUTH_URL: BASE },
+    env: { PLOTPROOF_DEMO: "1", OPEN_SIGNUP: "1", AUTH_SIGNIN_PER_MINUTE: "1000", PGLITE_DIR: "data/e2e/db", BETTER_AUTH_URL: BASE },
   },
 });

@@ -1,11 +1,27 @@
-import { NextResponse, type NextRequest } from "next/server";
+import { type NextRequest, NextResponse } from "next/server";
+import { originOf, refuseCrossSite } from "@/lib/security/request-guard";
 
-// Tells server components which page was asked for, so sign-in can return there.
-// Access itself is checked in every page, route handler and action, never here.
+/**
+ * Runs before every page and route handler:
+ * - refuses state-changing requests sent from another site (lib/security/request-guard.ts);
+ * - tells server components which page was asked for, so sign-in can return there;
+ * - asks browsers to keep to https once the product is served over it (HSTS).
+ * Access itself is checked in every page, route handler and action, never here.
+ */
 export function proxy(req: NextRequest) {
+  const own = [req.nextUrl.origin, originOf(process.env.BETTER_AUTH_URL)].filter((o): o is string => !!o);
+  const refusal = refuseCrossSite({ method: req.method, pathname: req.nextUrl.pathname, headers: req.headers }, own);
+  if (refusal) {
+    return NextResponse.json(
+      { error: { code: refusal.code, message: refusal.message } },
+      { status: refusal.status, headers: { "cache-control": "no-store" } },
+    );
+  }
   const headers = new Headers(req.headers);
   headers.set("x-plotproof-path", req.nextUrl.pathname + req.nextUrl.search);
-  return NextResponse.next({ request: { headers } });
+  const res = NextResponse.next({ request: { headers } });
+  if (req.nextUrl.protocol === "https:") res.headers.set("strict-transport-security", "max-age=31536000");
+  return res;
 }
 
-export const config = { matcher: ["/((?!api|_next/static|_next/image|mark.svg|demo/).*)"] };
+export const config = { matcher: ["/((?!_next/static|_next/image|mark.svg|demo/).*)"] };

@@ -510,3 +510,14 @@ export const mailCapture = pgTable(
   },
   (t) => [index("mail_capture_received_idx").on(t.receivedAt)],
 );
+
+/**
+ * Consecutive failed sign-ins per e-mail address (known or not, so the answer never tells which),
+ * for the per-account backoff in lib/auth.ts. A successful sign-in deletes the row.
+ */
+export const signInFailure = pgTable("sign_in_failure", {
+  email: text("email").primaryKey(),
+  failures: integer("failures").notNull(),
+  lastFailedAt: timestamp("last_failed_at", { withTimezone: true }).notNull(),
+  lockedUntil: timestamp("locked_until", { withTimezone: true }),
+});

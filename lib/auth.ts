@@ -2,6 +2,7 @@ import "server-only";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { organization } from "better-auth/plugins";
+import { APIError, createAuthMiddleware } from "better-auth/api";
 import { nextCookies } from "better-auth/next-js";
 import { createAccessControl } from "better-auth/plugins/access";
 import { defaultStatements, ownerAc, memberAc } from "better-auth/plugins/organization/access";
@@ -9,6 +10,8 @@ import * as schema from "@/db/schema";
 import { getDb, type DB } from "@/db/client";
 import { env } from "@/lib/env";
 import { sendInvitationMail, sendPasswordResetMail } from "@/lib/mail/notify";
+import { clearSignInFailures, getSignInFailures, saveSignInFailures } from "@/db/queries/sign-in-failures";
+import { afterFailure, secondsLocked } from "@/lib/security/sign-in-backoff";
 
 /** Password-reset links work for one hour. */
 const RESET_LINK_SECONDS = 60 * 60;
@@ -23,7 +26,32 @@ const orgRoles = {
   grower: ac.newRole(memberAc.statements),
 };
 
-export function createAuth(db: DB, opts: { baseURL: string; secret: string; signInPerMinute?: number }) {
+/**
+ * The only better-auth endpoints a browser may call over HTTP: the sign-in page, sign-out, the session
+ * and password reset. Sign-up, organisations and memberships go through Plotproof's own actions and
+ * routes (which call better-auth on the server), so nobody can create an organisation or switch a
+ * session into one behind the product's back.
+ */
+const HTTP_AUTH_PATHS = new Set([
+  "/sign-in/email",
+  "/sign-out",
+  "/get-session",
+  "/request-password-reset",
+  "/reset-password",
+  "/reset-password/:token",
+]);
+
+/** The e-mail of a sign-in request, as the per-account backoff keys it. */
+function signInEmail(body: unknown): string | null {
+  const email = (body as { email?: unknown } | undefined)?.email;
+  return typeof email === "string" && email.length <= 254 ? email.trim().toLowerCase() : null;
+}
+
+export function createAuth(
+  db: DB,
+  opts: { baseURL: string; secret: string; signInPerMinute?: number; trustedProxies?: string[]; now?: () => Date },
+) {
+  const now = opts.now ?? (() => new Date());
   const origin = new URL(opts.baseURL);
   return betterAuth({
     baseURL: opts.baseURL,
@@ -55,6 +83,44 @@ export function createAuth(db: DB, opts: { baseURL: string; secret: string; sign
       customRules: { "/sign-in/email": { window: 60, max: opts.signInPerMinute ?? 10 } },
     },
     session: { expiresIn: 60 * 60 * 24 * 7, updateAge: 60 * 60 * 24 },
+    advanced: {
+      // The HTTP server (lib/server/http/serve.mjs) puts the socket's address last in X-Forwarded-For and keeps
+      // earlier entries only from TRUSTED_PROXIES; the limit reads the chain from the right past those proxies.
+      ipAddress: { ipAddressHeaders: ["x-forwarded-for"], trustedProxies: opts.trustedProxies ?? [] },
+    },
+    // Per-account backoff (lib/security/sign-in-backoff.ts), whatever address the attempts come from.
+    hooks: {
+      before: createAuthMiddleware(async (ctx) => {
+        if (ctx.request && !HTTP_AUTH_PATHS.has(ctx.path)) throw new APIError("NOT_FOUND", { message: "Not found." });
+        if (ctx.path !== "/sign-in/email") return;
+        const email = signInEmail(ctx.body);
+        if (!email) return;
+        const wait = secondsLocked(await getSignInFailures(db, { email }), now());
+        if (wait > 0) {
+          throw new APIError(
+            "TOO_MANY_REQUESTS",
+            {
+              message: `Too many wrong passwords for this account. Try again in ${wait} s, or reset the password.`,
+              code: "SIGN_IN_BACKOFF",
+            },
+            { "retry-after": String(wait) },
+          );
+        }
+      }),
+      after: createAuthMiddleware(async (ctx) => {
+        if (ctx.path !== "/sign-in/email") return;
+        const email = signInEmail(ctx.body);
+        if (!email) return;
+        const returned = ctx.context.returned;
+        if (returned instanceof APIError) {
+          if (returned.statusCode !== 401) return;
+          const record = afterFailure(await getSignInFailures(db, { email }), now());
+          await saveSignInFailures(db, { email, record });
+        } else {
+          await clearSignInFailures(db, { email });
+        }
+      }),
+    },
     plugins: [
       organization({
         ac,
@@ -85,6 +151,7 @@ export function getAuth(): Promise<Auth> {
         baseURL: e.BETTER_AUTH_URL,
         secret: e.authSecret,
         signInPerMinute: e.AUTH_SIGNIN_PER_MINUTE,
+        trustedProxies: e.trustedProxies,
       });
     });
     g.__plotproofAuth.catch(() => {

@@ -10,9 +10,13 @@ const EnvSchema = z.object({
   PGLITE_DIR: z.string().optional(),
   PLOTPROOF_DEMO: z.enum(["0", "1"]).default("0"),
   AUTH_SIGNIN_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  /** Addresses or CIDR ranges of reverse proxies whose X-Forwarded-For is believed; none by default. */
+  TRUSTED_PROXIES: z.string().default(""),
+  /** "1": anyone may set up an organisation at /signup. Otherwise only the first account of an empty install. */
+  OPEN_SIGNUP: z.enum(["0", "1"]).default("0"),
 });
 
-export type Env = z.infer<typeof EnvSchema> & { authSecret: string };
+export type Env = z.infer<typeof EnvSchema> & { authSecret: string; trustedProxies: string[] };
 
 let cached: Env | undefined;
 
@@ -37,6 +41,9 @@ export function env(): Env {
       fs.writeFileSync(file, authSecret, { mode: 0o600 });
     }
   }
-  cached = { ...parsed, authSecret };
+  const trustedProxies = parsed.TRUSTED_PROXIES.split(",")
+    .map((p) => p.trim())
+    .filter(Boolean);
+  cached = { ...parsed, authSecret, trustedProxies };
   return cached;
 }

@@ -2,10 +2,19 @@ import "server-only";
 import crypto from "node:crypto";
 import { getAuth } from "@/lib/auth";
 import { getDb } from "@/db/client";
-import { deleteUserById, slugFor } from "@/db/queries/organisations";
+import { anyAccountExists, deleteUserById, slugFor } from "@/db/queries/organisations";
+import { env } from "@/lib/env";
 import { logActivity } from "@/db/queries/activity";
 import { seedDefaultProfiles } from "@/db/queries/profiles";
 import type { SignUpInput } from "@/lib/validation/account";
+
+/**
+ * Whether /signup may set up a new organisation: always for the first account of an empty install,
+ * afterwards only with OPEN_SIGNUP=1. Everyone else joins through an invitation from an owner.
+ */
+export async function signUpOpen(): Promise<boolean> {
+  return env().OPEN_SIGNUP === "1" || !(await anyAccountExists(await getDb()));
+}
 
 /**
  * Create an account and the organisation it owns. If the organisation cannot be created the

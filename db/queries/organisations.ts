@@ -21,6 +21,12 @@ export async function getOrganisationBySlug(db: DB, { slug }: { slug: string }) 
   return row ?? null;
 }
 
+/** Whether any account exists yet (the first one may always set up its organisation). */
+export async function anyAccountExists(db: DB): Promise<boolean> {
+  const rows = await db.select({ id: user.id }).from(user).limit(1);
+  return rows.length > 0;
+}
+
 /** Undo a half-finished sign-up (user created, organisation not). */
 export async function deleteUserById(db: DB, { userId }: { userId: string }) {
   await db.delete(user).where(eq(user.id, userId));

@@ -3,7 +3,7 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { isAPIError } from "better-auth/api";
 import { SignUpInput, fieldErrors } from "@/lib/validation/account";
-import { createAccountWithOrganisation } from "@/lib/onboarding";
+import { createAccountWithOrganisation, signUpOpen } from "@/lib/onboarding";
 
 export interface SignUpState {
   errors: Record<string, string>;
@@ -11,10 +11,13 @@ export interface SignUpState {
   values?: Record<string, string>;
 }
 
+const INVITATION_ONLY = "Plotproof accounts are made by invitation: ask your organisation's owner to invite you.";
+
 /** Public by nature (there is no session yet): creates the account and its organisation, then signs in. */
 export async function signUpAction(_prev: SignUpState, formData: FormData): Promise<SignUpState> {
   const raw = Object.fromEntries(formData) as Record<string, string>;
   const { password: _pw, ...values } = raw;
+  if (!(await signUpOpen())) return { errors: {}, formError: INVITATION_ONLY, values };
   const parsed = SignUpInput.safeParse(raw);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values };
   try {

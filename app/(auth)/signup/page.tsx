@@ -1,10 +1,30 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { signUpOpen } from "@/lib/onboarding";
 import { SignUpForm } from "./signup-form";
 
 export const metadata: Metadata = { title: "Set up your organisation" };
+// Whether sign-up is open depends on the database, so the page is never prerendered.
+export const dynamic = "force-dynamic";
 
-export default function SignUpPage() {
+export default async function SignUpPage() {
+  if (!(await signUpOpen())) {
+    return (
+      <>
+        <h1 className="mb-2 text-xl font-semibold">Accounts are by invitation</h1>
+        <p className="mb-6 text-sm text-ink-soft" data-testid="signup-closed">
+          Plotproof accounts on this installation are made by invitation. Ask your organisation&apos;s owner to
+          invite you; the e-mail has a link to set your password.
+        </p>
+        <p className="text-sm text-ink-soft">
+          Already have an account?{" "}
+          <Link href="/login" className="font-medium text-leaf hover:underline">
+            Sign in
+          </Link>
+        </p>
+      </>
+    );
+  }
   return (
     <>
       <h1 className="mb-2 text-xl font-semibold">Set up your organisation</h1>
