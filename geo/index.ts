@@ -46,7 +46,7 @@ export { IssueCollector, formatIssue, hasErrors, DEFAULT_ISSUE_CAP } from "./val
 export { indexIds, findDuplicateIds, fnv1a, IdColumn, IdColumnBuilder, type IdIndex } from "./ids";
 export {
   pairPoints,
-  DEFAULT_MAX_DISTANCE,
+  DEFAULT_MAX_PAIR_DISTANCE_M,
   type MatchMode,
   type PairInput,
   type PairOptions,

@@ -4,6 +4,8 @@
  */
 import type { ColumnGuess, ColumnMapping, InputIssue } from "@/geo";
 import type { AuditSummary } from "@/lib/audit/types";
+import type { ToleranceProfile } from "@/lib/audit/profile";
+import type { AuditSettings } from "@/lib/audit/settings";
 import type { Verdict } from "@/lib/audit/verdict";
 import type { Role } from "@/lib/roles";
 
@@ -87,16 +89,10 @@ export type UploadStreamLine =
       body: UploadOkDto | { error: { code: string; message: string; issues?: InputIssue[] } };
     };
 
-export interface ToleranceProfileDto {
+/** A stored tolerance profile: the engine's profile (lib/audit/profile.ts) with its bookkeeping. */
+export interface ToleranceProfileDto extends ToleranceProfile {
   id: string;
-  name: string;
   operation: string;
-  radialM: number | null;
-  crossM: number | null;
-  alongM: number | null;
-  requiredShare: number;
-  confidence: number;
-  minCheckpoints: number;
   builtIn: boolean;
   note: string | null;
   updatedAt: string;
@@ -104,13 +100,10 @@ export interface ToleranceProfileDto {
 
 export type AuditState = "computing" | "computed" | "failed" | "submitted" | "signed_off" | "returned";
 
-export interface AuditSettingsDto {
-  match: "auto" | "id" | "nearest";
-  maxDistanceM: number;
-  rowBearingDeg: number | null;
-  timeZone: string;
-  workCrs: string;
-}
+export type AuditSettingsDto = AuditSettings;
+
+/** The copy of the tolerance profile an audit keeps (its `profile_snapshot`). */
+export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
 
 export interface AuditDto {
   id: string;
@@ -122,7 +115,7 @@ export interface AuditDto {
   field: { id: string; name: string; crs: string; timeZone: string };
   planted: { id: string; fileName: string; sha256: string; rowCount: number } | null;
   survey: { id: string; fileName: string; sha256: string; rowCount: number } | null;
-  profile: Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note"> | null;
+  profile: ProfileSnapshot | null;
   settings: AuditSettingsDto | null;
   summary: AuditSummary | null;
   verdict: Verdict | null;

@@ -1,4 +1,6 @@
 /** SWR keys are the API URLs; build them only here. `null` means "not yet". */
+import type { ResidualSort } from "@/lib/validation/audit";
+
 const qs = (params: Record<string, string | number | boolean | undefined | null>) => {
   const s = new URLSearchParams();
   for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== "") s.set(k, String(v));
@@ -31,7 +33,7 @@ export const keys = {
 export interface ResidualQuery {
   page?: number;
   pageSize?: number;
-  sort?: "seq" | "plantId" | "radial" | "dE" | "dN" | "along" | "cross" | "bed" | "arm";
+  sort?: ResidualSort;
   dir?: "asc" | "desc";
   /** "out" = outside tolerance only, "outliers" = flagged outliers only. */
   only?: "out" | "outliers";

@@ -12,11 +12,11 @@ import type {
   ChartDataDto,
   Page,
   ResidualRowDto,
-  ToleranceProfileDto,
+  ProfileSnapshot,
   UnpairedRowDto,
   Verdict,
 } from "@/lib/api-types";
-import type { ResidualQueryInput } from "@/lib/validation/audit";
+import type { ResidualQueryInput, ResidualSort } from "@/lib/validation/audit";
 import { logActivity } from "./activity";
 
 export type AuditListItem = AuditListItemDto;
@@ -85,7 +85,7 @@ export async function listRecentDatasets(
   return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString() }));
 }
 
-export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
+export type { ProfileSnapshot };
 
 export async function createAudit(
   db: DB,
@@ -342,7 +342,7 @@ const SORT_COLUMN = {
   cross: auditResidual.cross,
   bed: auditResidual.bed,
   arm: auditResidual.arm,
-} as const;
+} as const satisfies Record<ResidualSort, unknown>;
 
 /** One page of residuals; the audit must already be known to belong to the caller's organisation. */
 export async function pageResiduals(

@@ -36,6 +36,7 @@ export interface AuditReviewRow {
   fieldId: string;
   fieldName: string;
   fieldCrs: string;
+  fieldTimeZone: string;
   plantedDatasetId: string | null;
   surveyDatasetId: string | null;
   profileId: string | null;
@@ -59,6 +60,7 @@ const reviewCols = {
   fieldId: audit.fieldId,
   fieldName: field.name,
   fieldCrs: field.crs,
+  fieldTimeZone: field.timeZone,
   plantedDatasetId: audit.plantedDatasetId,
   surveyDatasetId: audit.surveyDatasetId,
   profileId: audit.profileId,

@@ -17,13 +17,13 @@ const pts = (xy: number[][], id: string[] | null = null): PairInput => ({
 });
 const pairsOf = (r: ReturnType<typeof pairPoints>) => Array.from(r.plantedIndex, (p, k) => [p, r.surveyIndex[k]]);
 
-/** Brute force greedy: all pairs within maxD sorted by distance, then by survey and planted position. */
-function bruteGreedy(p: PairInput, s: PairInput, maxD: number): Set<string> {
+/** Brute force greedy: all pairs within maxDistanceM sorted by distance, then by survey and planted position. */
+function bruteGreedy(p: PairInput, s: PairInput, maxDistanceM: number): Set<string> {
   const edges: [number, number, number][] = [];
   for (let i = 0; i < s.length; i++)
     for (let j = 0; j < p.length; j++) {
       const d = Math.hypot(p.x[j] - s.x[i], p.y[j] - s.y[i]);
-      if (d <= maxD) edges.push([d, i, j]);
+      if (d <= maxDistanceM) edges.push([d, i, j]);
     }
   edges.sort(
     (a, b) =>
@@ -61,7 +61,7 @@ describe("pairing", () => {
       [2.5, 0],
       [9, 9],
     ]);
-    const r = pairPoints(planted, survey, { mode: "nearest", maxDistance: 0.1 });
+    const r = pairPoints(planted, survey, { mode: "nearest", maxDistanceM: 0.1 });
     expect(pairsOf(r)).toEqual([
       [0, 1],
       [1, 0],
@@ -83,7 +83,7 @@ describe("pairing", () => {
         [0.03, 0],
         [0.05, 0],
       ]),
-      { mode: "nearest", maxDistance: 0.1, ambiguityGap: 0 },
+      { mode: "nearest", maxDistanceM: 0.1, ambiguityGap: 0 },
     );
     expect(pairsOf(r)).toEqual([
       [0, 0],
@@ -99,7 +99,7 @@ describe("pairing", () => {
         [0.105, 0],
       ]),
       pts([[0.05, 0]]),
-      { mode: "nearest", maxDistance: 0.1 },
+      { mode: "nearest", maxDistanceM: 0.1 },
     );
     expect(r.plantedIndex.length).toBe(0);
     expect(Array.from(r.ambiguousSurvey)).toEqual([0]);
@@ -112,7 +112,7 @@ describe("pairing", () => {
         [0.105, 0],
       ]),
       pts([[0.02, 0]]),
-      { mode: "nearest", maxDistance: 0.1 },
+      { mode: "nearest", maxDistanceM: 0.1 },
     );
     expect(pairsOf(q)).toEqual([[0, 0]]);
   });
@@ -134,7 +134,7 @@ describe("pairing", () => {
       ],
       ["A", "B", ""],
     );
-    const r = pairPoints(planted, survey, { mode: "auto", maxDistance: 0.1 });
+    const r = pairPoints(planted, survey, { mode: "auto", maxDistanceM: 0.1 });
     expect(pairsOf(r)).toEqual([
       [0, 0],
       [1, 1],
@@ -178,8 +178,8 @@ describe("pairing", () => {
   });
 
   it("pairPoints -- rejects a non-positive max distance", () => {
-    expect(() => pairPoints(pts([]), pts([]), { maxDistance: 0 })).toThrow(
-      /pairing: maxDistance must be a positive number of metres/,
+    expect(() => pairPoints(pts([]), pts([]), { maxDistanceM: 0 })).toThrow(
+      /pairing: maxDistanceM must be a positive number of metres/,
     );
   });
 
@@ -194,16 +194,16 @@ describe("pairing", () => {
       fc.property(cloud, cloud, (a, b) => {
         const p = pts(a),
           s = pts(b);
-        const maxD = 0.08;
+        const maxDistanceM = 0.08;
         const r = pairPoints(p, s, {
           mode: "nearest",
-          maxDistance: maxD,
+          maxDistanceM: maxDistanceM,
           ambiguityRatio: 1,
           ambiguityGap: 0,
           maxCandidates: 1000,
         });
         const got = new Set(pairsOf(r).map(([i, j]) => `${i}:${j}`));
-        expect(got).toEqual(bruteGreedy(p, s, maxD));
+        expect(got).toEqual(bruteGreedy(p, s, maxDistanceM));
         // stability: no unpaired-or-worse couple nearer to each other than to their partners
         const partnerD = (arr: Int32Array, other: Int32Array, idx: number, fromPlanted: boolean) => {
           const k = arr.indexOf(idx);
@@ -215,7 +215,7 @@ describe("pairing", () => {
         for (let i = 0; i < p.length; i++)
           for (let j = 0; j < s.length; j++) {
             const d = Math.hypot(p.x[i] - s.x[j], p.y[i] - s.y[j]);
-            if (d > maxD) continue;
+            if (d > maxDistanceM) continue;
             const dp = partnerD(r.plantedIndex, r.surveyIndex, i, true),
               ds = partnerD(r.surveyIndex, r.plantedIndex, j, false);
             expect(d < dp && d < ds).toBe(false);
@@ -241,7 +241,7 @@ describe("pairing", () => {
         fc.integer({ min: 0, max: 9_000_000 }),
         fc.integer(),
         (a, b, dx, dy, seed) => {
-          const opts = { mode: "nearest" as const, maxDistance: 0.06 };
+          const opts = { mode: "nearest" as const, maxDistanceM: 0.06 };
           const key = (r: ReturnType<typeof pairPoints>, pa: number[][], sb: number[][]) =>
             new Set(pairsOf(r).map(([i, j]) => `${pa[i]}|${sb[j]}`));
           const base = key(pairPoints(pts(a), pts(b), opts), a, b);
@@ -284,7 +284,7 @@ describe("pairing", () => {
               a.map((_, i) => (i % 2 ? `P${i}` : "")),
             );
           const before = structuredClone({ p, s });
-          pairPoints(p, s, { mode: "auto", maxDistance: 0.05 });
+          pairPoints(p, s, { mode: "auto", maxDistanceM: 0.05 });
           expect({ p, s }).toEqual(before);
         },
       ),

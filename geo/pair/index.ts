@@ -18,7 +18,7 @@ export interface PairOptions {
   /** "auto" (default): by id where the survey point's id is found among the records, by position for the rest. "id": ids only. "nearest": positions only, ids ignored. */
   mode?: MatchMode;
   /** Largest distance (metres) for pairing by position; also the threshold of the `beyondMaxDistance` flag for id pairs. Default 0.10 m. */
-  maxDistance?: number;
+  maxDistanceM?: number;
   /** A survey point is ambiguous when its second-nearest free plant is within this factor of the nearest (default 1.2) … */
   ambiguityRatio?: number;
   /** … and also less than this many metres farther (default 0.01 m). */
@@ -36,18 +36,19 @@ export interface PairingNotes {
   byPosition: number;
 }
 
-export const DEFAULT_MAX_DISTANCE = 0.1;
+/** Default largest distance for pairing by position, metres. */
+export const DEFAULT_MAX_PAIR_DISTANCE_M = 0.1;
 
 /**
  * Pairs each survey point with at most one as-planted record, and each record with at most one
  * survey point. Both tables must be in the same metric CRS. Inputs are not modified.
  *
  * **By id** (modes "auto" and "id"): a survey point whose non-empty id equals a record's id is paired
- * with it however far apart they are; pairs farther than `maxDistance` are flagged `beyondMaxDistance`
+ * with it however far apart they are; pairs farther than `maxDistanceM` are flagged `beyondMaxDistance`
  * (a gross error the audit must show, not hide).
  *
  * **By position** (modes "auto" — for survey points without a matching id and records not paired by
- * id — and "nearest"): candidate edges are all (survey, plant) pairs within `maxDistance`, found with
+ * id — and "nearest"): candidate edges are all (survey, plant) pairs within `maxDistanceM`, found with
  * a static k-d tree (kdbush; at most `maxCandidates` nearest per survey point). Edges are then taken
  * greedily in ascending distance; an edge is accepted when both ends are still free.
  * Guarantee: the result is the *stable* one-to-one matching — no survey point and plant that are not
@@ -56,7 +57,7 @@ export const DEFAULT_MAX_DISTANCE = 0.1;
  * distance is no larger than needed for those pairs. It is unique when distances are distinct.
  * It does not minimise the total distance or maximise the number of pairs in crowded conflicts
  * (where a global assignment might pair more points at larger distances); when plants are more than
- * twice `maxDistance` apart every component is a single edge and all these criteria coincide.
+ * twice `maxDistanceM` apart every component is a single edge and all these criteria coincide.
  * Edges whose survey point and plant have no other candidate are accepted without sorting, so the
  * cost is O(n log n) for the tree plus O(k log k) for the k contested edges.
  *
@@ -68,7 +69,7 @@ export const DEFAULT_MAX_DISTANCE = 0.1;
  * result does not depend on the row order of either file unless two points share a position.
  *
  * @example
- * const p = pairPoints(planted, survey, { mode: "nearest", maxDistance: 0.1 });
+ * const p = pairPoints(planted, survey, { mode: "nearest", maxDistanceM: 0.1 });
  * // p.plantedIndex[k] ↔ p.surveyIndex[k], sorted by planted index
  */
 export function pairPoints(
@@ -77,11 +78,12 @@ export function pairPoints(
   options: PairOptions = {},
 ): Pairing & { notes: PairingNotes } {
   const mode = options.mode ?? "auto";
-  const maxD = options.maxDistance ?? DEFAULT_MAX_DISTANCE;
+  const maxDistanceM = options.maxDistanceM ?? DEFAULT_MAX_PAIR_DISTANCE_M;
   const ratio = options.ambiguityRatio ?? 1.2;
   const gap = options.ambiguityGap ?? 0.01;
   const maxCand = Math.max(1, options.maxCandidates ?? 16);
-  if (!(maxD > 0)) throw new Error(`pairing: maxDistance must be a positive number of metres, got ${maxD}`);
+  if (!(maxDistanceM > 0))
+    throw new Error(`pairing: maxDistanceM must be a positive number of metres, got ${maxDistanceM}`);
 
   const np = planted.length,
     ns = survey.length;
@@ -151,13 +153,13 @@ export function pairPoints(
       const out: number[] = [];
       let tmpP = new Int32Array(64),
         tmpD = new Float64Array(64);
-      const r2 = maxD * maxD;
+      const r2 = maxDistanceM * maxDistanceM;
       for (let q = 0; q < visit.length; q++) {
         const s = visit[q];
         start[s] = m;
         const qx = sx[s],
           qy = sy[s];
-        const k = tree.withinInto(qx, qy, maxD, out);
+        const k = tree.withinInto(qx, qy, maxDistanceM, out);
         if (k === 0) continue;
         if (k > tmpP.length) {
           tmpP = new Int32Array(k * 2);
@@ -276,7 +278,7 @@ export function pairPoints(
     method[k] = pairMethod[p];
     if (pairMethod[p] === PAIRED_BY_ID) {
       const d = Math.hypot(px[p] - sx[s], py[p] - sy[s]);
-      beyond[k] = d > maxD || d !== d ? 1 : 0;
+      beyond[k] = d > maxDistanceM || d !== d ? 1 : 0;
     }
     k++;
   }

@@ -1,5 +1,5 @@
 import { resolveCrs, type CrsEntry } from "../crs/registry";
-import { pairPoints, type MatchMode, type PairingNotes } from "../pair";
+import { DEFAULT_MAX_PAIR_DISTANCE_M, pairPoints, type MatchMode, type PairingNotes } from "../pair";
 import { projectTable, resolveWorkCrs } from "../project";
 import type { ColumnGuess } from "../read/columns";
 import { deriveRowBearing, type RowBearing } from "../row-bearing";
@@ -23,7 +23,7 @@ export interface PrepareOptions {
   workCrs?: string;
   match?: MatchMode;
   /** Metres; default 0.10. */
-  maxDistance?: number;
+  maxDistanceM?: number;
   ambiguityRatio?: number;
   ambiguityGap?: number;
   /** Row bearing in degrees from grid north; derived from the records when omitted. */
@@ -115,10 +115,10 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
   if (hasErrors(issues)) return { ok: false, issues };
 
   stage("pair");
-  const maxDistance = options.maxDistance ?? 0.1;
+  const maxDistanceM = options.maxDistanceM ?? DEFAULT_MAX_PAIR_DISTANCE_M;
   const pairing = pairPoints(pp, sp, {
     mode: options.match,
-    maxDistance,
+    maxDistanceM,
     ambiguityRatio: options.ambiguityRatio,
     ambiguityGap: options.ambiguityGap,
   });
@@ -130,7 +130,7 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
       severity: "error",
       code: "no-pairs",
       file,
-      message: `no survey point could be paired with an as-planted record (match ${options.match ?? "auto"}, maximum distance ${maxDistance} m); check the ids, the CRSs or the maximum distance`,
+      message: `no survey point could be paired with an as-planted record (match ${options.match ?? "auto"}, maximum distance ${maxDistanceM} m); check the ids, the CRSs or the maximum distance`,
     });
     return { ok: false, issues };
   }
@@ -157,7 +157,7 @@ export function prepareAudit(planted: FileInput, survey: FileInput, options: Pre
       severity: "warning",
       code: "pair-beyond-max-distance",
       file,
-      message: `${beyond} pair(s) matched by id lie farther apart than ${maxDistance} m; they are kept and flagged`,
+      message: `${beyond} pair(s) matched by id lie farther apart than ${maxDistanceM} m; they are kept and flagged`,
     });
   }
   if (pairs.ambiguousSurvey.length > 0) {

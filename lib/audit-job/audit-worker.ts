@@ -1,5 +1,5 @@
 /**
- * Worker-thread entry: computes one audit (see compute.ts) and posts the outcome, then the rows to
+ * Worker-thread entry: runs one audit through the engine's entry (lib/audit/run.ts) and posts the outcome, then the rows to
  * store, one batch each time the server asks ("more"), so the server's own thread stays free for
  * other requests meanwhile.
  */
@@ -7,7 +7,7 @@ import { parentPort } from "node:worker_threads";
 import { IdColumn } from "@/geo/ids";
 import { residualDigest, unpairedDigest } from "@/lib/review/record";
 import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
-import { auditReports, computeFromTables } from "./compute";
+import { auditReports, runAudit } from "@/lib/audit/run";
 import { ROWS_PER_MESSAGE, type AuditJobInput, type AuditJobMessage } from "./messages";
 
 const port = parentPort!;
@@ -18,15 +18,13 @@ port.once("message", (job: AuditJobInput) => {
     // Structured cloning keeps an IdColumn's arrays but not its class.
     job.planted.id = IdColumn.revive(job.planted.id);
     job.survey.id = IdColumn.revive(job.survey.id);
-    const outcome = computeFromTables(
-      job.planted,
-      job.plantedCrs,
-      job.survey,
-      job.surveyCrs,
-      job.settings,
-      job.profile,
-      (stage) => post({ type: "stage", stage }),
-    );
+    const outcome = runAudit({
+      planted: { table: job.planted, crs: job.plantedCrs },
+      survey: { table: job.survey, crs: job.surveyCrs },
+      settings: job.settings,
+      profile: job.profile,
+      onStage: (stage) => post({ type: "stage", stage }),
+    });
     if (!outcome.ok) {
       post({
         type: "refused",
@@ -36,9 +34,11 @@ port.once("message", (job: AuditJobInput) => {
       });
       return;
     }
+    // The web app always audits against a profile, so a computed audit always has its verdict.
+    if (!outcome.verdict) throw new Error("the audit has no verdict: no tolerance profile was given");
     const reports = auditReports(outcome);
-    const residuals = residualRecordRows(outcome.result, outcome.plantedP, outcome.surveyP, outcome.settings.timeZone);
-    const unpaired = unpairedRecordRows(outcome.pairing, outcome.plantedP, outcome.surveyP);
+    const residuals = residualRecordRows(outcome.result, outcome.planted, outcome.survey, outcome.settings.timeZone);
+    const unpaired = unpairedRecordRows(outcome.pairing, outcome.planted, outcome.survey);
     const digests = job.digestsOnly
       ? { residuals: residualDigest(residuals), unpaired: unpairedDigest(unpaired) }
       : undefined;

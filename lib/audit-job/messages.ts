@@ -1,11 +1,11 @@
 /** Messages between the server and the audit worker thread (structured-cloned; typed arrays transferred). */
 import type { PointTable } from "@/geo";
 import type { AuditSummary } from "@/lib/audit";
+import type { ToleranceProfile } from "@/lib/audit/profile";
+import type { AuditReportKind, AuditStage } from "@/lib/audit/run";
+import type { AuditSettings } from "@/lib/audit/settings";
 import type { Verdict } from "@/lib/audit/verdict";
-import type { AuditSettingsDto } from "@/lib/api-types";
-import type { ProfileSnapshot } from "@/db/queries/audits";
 import type { ResidualRecordRow, RowsDigest, UnpairedRecordRow } from "@/lib/review/record";
-import type { ComputeStage } from "./compute";
 
 /** What the worker is given. The tables' arrays are moved to the worker, not copied. */
 export interface AuditJobInput {
@@ -13,8 +13,8 @@ export interface AuditJobInput {
   plantedCrs: string;
   survey: PointTable;
   surveyCrs: string;
-  settings: AuditSettingsDto;
-  profile: ProfileSnapshot;
+  settings: AuditSettings;
+  profile: ToleranceProfile;
   /** Re-computation for verification: send the digests of the rows instead of the rows. */
   digestsOnly?: boolean;
 }
@@ -32,14 +32,14 @@ export const ROWS_PER_MESSAGE = 2000;
  * `error` (an exception) may come at any point and ends the job.
  */
 export type AuditJobMessage =
-  | { type: "stage"; stage: ComputeStage }
+  | { type: "stage"; stage: AuditStage }
   | { type: "refused"; errors: { file: string; line?: number; message: string }[] }
   | {
       type: "computed";
       summary: AuditSummary;
       verdict: Verdict;
-      settings: AuditSettingsDto;
-      reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
+      settings: AuditSettings;
+      reports: { kind: AuditReportKind; bytes: Uint8Array }[];
       residualCount: number;
       unpairedCount: number;
       /** With `digestsOnly`. */

@@ -4,10 +4,11 @@
  */
 import * as ss from "simple-statistics";
 import { describe, expect, it } from "vitest";
-import { groupStatistics, type PairErrors } from "./groups";
+import { groupStatistics } from "./groups";
+import type { ErrorColumns } from "./summary";
 import { clopperPearson } from "./intervals";
 
-function errorsOf(dE: number[], dN: number[], within: number[] | null, frame = true): PairErrors {
+function errorsOf(dE: number[], dN: number[], within: number[] | null, frame = true): ErrorColumns {
   const e = Float64Array.from(dE);
   const n = Float64Array.from(dN);
   return {

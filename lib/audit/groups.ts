@@ -4,6 +4,7 @@
  */
 import { clopperPearson } from "./intervals";
 import { quantilesInPlace } from "./quantiles";
+import type { ErrorColumns } from "./summary";
 
 /** Statistics of one group. Metres unless stated. */
 export interface GroupRow {
@@ -33,17 +34,6 @@ export interface GroupRow {
   upper95: number | null;
 }
 
-/** Per-pair error columns shared by all groupings. */
-export interface PairErrors {
-  dE: Float64Array;
-  dN: Float64Array;
-  along: Float64Array | null;
-  cross: Float64Array | null;
-  radial: Float64Array;
-  /** 1 = within tolerance; null when no tolerance was given. */
-  within: Uint8Array | null;
-}
-
 const keyCollator = new Intl.Collator("en", { numeric: true, sensitivity: "variant" });
 
 /**
@@ -59,7 +49,7 @@ const keyCollator = new Intl.Collator("en", { numeric: true, sensitivity: "varia
 export function groupStatistics(
   codes: Int32Array,
   values: readonly string[],
-  errors: PairErrors,
+  errors: ErrorColumns,
   confidence: number,
   scratch?: Float64Array,
 ): GroupRow[] {

@@ -4,7 +4,7 @@
  */
 import type { AttributeName, CodedColumn, Pairing, ProjectedTable } from "@/geo/types";
 import { PAIRED_BY_ID } from "@/geo/types";
-import { groupStatistics, type GroupRow, type PairErrors } from "./groups";
+import { groupStatistics, type GroupRow } from "./groups";
 import { fitSimilarityToErrors } from "./helmert";
 import { localDayCodes } from "./local-day";
 import { parseAuditOptions, type AuditOptions, type GroupName } from "./options";
@@ -260,11 +260,10 @@ export function computeAudit(input: AuditInput): AuditResult {
   const helmert = fitSimilarityToErrors(planted.x, planted.y, pairing.plantedIndex, columns.dE, columns.dN);
 
   // Breakdowns.
-  const errors: PairErrors = columns;
   const groups: Partial<Record<GroupName, GroupRow[]>> = {};
   for (const name of options.groupBy) {
     const { codes, values } = pairCodes(name, planted, survey, pairing, options.timeZone);
-    groups[name] = groupStatistics(codes, values, errors, confidence, scratch);
+    groups[name] = groupStatistics(codes, values, columns, confidence, scratch);
   }
 
   // Raw GNSS positions (before camera correction).

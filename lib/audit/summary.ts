@@ -18,7 +18,7 @@ export function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
 }
 
-/** Error columns of one set of pairs. */
+/** Per-pair error columns of one set of pairs (metres), shared by the headline statistics and every breakdown. */
 export interface ErrorColumns {
   dE: Float64Array;
   dN: Float64Array;

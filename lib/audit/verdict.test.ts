@@ -1,11 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { evaluateVerdict, type ToleranceProfileLimits } from "./verdict";
+import type { ToleranceProfile } from "./profile";
+import { evaluateVerdict } from "./verdict";
 import { clopperPearson } from "./intervals";
 
 // Thresholds are the user's: NSSDA sets none (FGDC-STD-007.3-1998 §3.1). The criteria themselves
 // (minimum checkpoints, share within limits tested on the lower bound, 95th percentile ≤ limit) are
 // common practice, no source.
-const profile: ToleranceProfileLimits = {
+const profile: ToleranceProfile = {
   name: "In-row weeding",
   radialM: 0.01,
   crossM: 0.008,

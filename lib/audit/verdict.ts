@@ -7,18 +7,8 @@
  *  - share: the lower confidence bound of the share of plants within every limit ≥ the required share;
  *  - radial / cross / along: the empirical 95th percentile (Hyndman–Fan type 7) of |error| ≤ the limit.
  */
+import type { ToleranceProfile } from "./profile";
 import { quantileSorted } from "./quantiles";
-
-export interface ToleranceProfileLimits {
-  name: string;
-  radialM: number | null;
-  crossM: number | null;
-  alongM: number | null;
-  /** 0–1. */
-  requiredShare: number;
-  confidence: number;
-  minCheckpoints: number;
-}
 
 export interface Criterion {
   id: "checkpoints" | "share" | "radial" | "cross" | "along";
@@ -52,7 +42,7 @@ function p95Abs(values: Float64Array | null): number | null {
  * @example evaluateVerdict(profile, { pairs: 212, radial, cross: null, along: null, within: { share: 0.97, lower95: 0.94 } })
  */
 export function evaluateVerdict(
-  profile: ToleranceProfileLimits,
+  profile: ToleranceProfile,
   input: {
     pairs: number;
     radial: Float64Array;

@@ -13,6 +13,7 @@ import { readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { parseArgs } from "node:util";
 import { request, type APIRequestContext } from "playwright-core";
+import { DEFAULT_MAX_PAIR_DISTANCE_M } from "@/lib/audit/settings";
 import { benchFiles } from "./bench-field";
 
 const { values } = parseArgs({
@@ -84,7 +85,7 @@ async function main(): Promise<void> {
         surveyDatasetId,
         profileId: profiles[0].id,
         match: "nearest",
-        maxDistanceM: 0.1,
+        maxDistanceM: DEFAULT_MAX_PAIR_DISTANCE_M,
       },
     }),
     "create audit",

@@ -9,6 +9,8 @@ import { spawnSync } from "node:child_process";
 import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { parseArgs } from "node:util";
+import { radialToleranceProfile } from "@/lib/audit/profile";
+import { DEFAULT_MAX_PAIR_DISTANCE_M } from "@/lib/audit/settings";
 import { benchFiles, DIR } from "./bench-field";
 import { runPipeline } from "./pipeline";
 
@@ -24,8 +26,8 @@ async function runOnce(n: number, parallel: boolean): Promise<void> {
     surveyCrs: "EPSG:32632",
     workCrs: "auto",
     match: "auto",
-    maxDistance: 0.1,
-    tolerance: 0.02,
+    maxDistanceM: DEFAULT_MAX_PAIR_DISTANCE_M,
+    profile: radialToleranceProfile(0.02),
     groupBy: [],
     parallel,
   });

@@ -1,20 +1,17 @@
 /**
  * The audit from two files, as the command line and the benchmark run it: read both files (one on a
- * worker thread), validate, project, pair, compute statistics. Not pure (reads files, times stages);
- * all computation is in geo/ and lib/audit/.
+ * worker thread), then the engine's one entry (`runAudit`, lib/audit/run.ts: validate, project, pair,
+ * statistics, verdict, reports). Not pure (reads files, times stages, writes the CSV); all
+ * computation is in geo/ and lib/audit/.
  */
 import { createWriteStream } from "node:fs";
 import { once } from "node:events";
-import {
-  hasErrors,
-  prepareAudit,
-  resolveCrs,
-  type ColumnGuess,
-  type InputIssue,
-  type MatchMode,
-  type ReadResult,
-} from "@/geo";
-import { computeAudit, residualsCsv, type AuditSummary, type GroupName } from "@/lib/audit";
+import { hasErrors, resolveCrs, type ColumnGuess, type InputIssue, type MatchMode, type ReadResult } from "@/geo";
+import type { AuditSummary, GroupName } from "@/lib/audit";
+import type { ToleranceProfile } from "@/lib/audit/profile";
+import { auditReportChunks, runAudit, type AuditRun, type RunRowBearing } from "@/lib/audit/run";
+import { auditTimeZone, type AuditSettings } from "@/lib/audit/settings";
+import type { Verdict } from "@/lib/audit/verdict";
 import { readBoth } from "./files";
 
 export interface PipelineOptions {
@@ -24,8 +21,10 @@ export interface PipelineOptions {
   surveyCrs?: string;
   workCrs: string;
   match: MatchMode;
-  maxDistance: number;
-  tolerance?: number;
+  /** Largest distance for pairing by position, metres. */
+  maxDistanceM: number;
+  /** The profile the verdict is judged against (its limits and confidence also feed the statistics); null: no verdict. */
+  profile: ToleranceProfile | null;
   rowBearing?: number;
   groupBy: GroupName[];
   timeZone?: string;
@@ -38,8 +37,8 @@ export interface PipelineResult {
   /** 0 success, 2 bad input. */
   exitCode: 0 | 2;
   issues: InputIssue[];
-  /** Summary plus a `run` block describing the inputs; absent when the input was refused. */
-  report?: AuditSummary & { run: RunInfo };
+  /** Summary plus the verdict (null without a profile) and a `run` block describing the inputs; absent when the input was refused. */
+  report?: AuditSummary & { verdict: Verdict | null; run: RunInfo };
   /** Wall-clock milliseconds per stage. */
   timings: Record<string, number>;
   /** CPU milliseconds (user + system, all threads of the process) per stage. */
@@ -52,7 +51,9 @@ export interface RunInfo {
   workCrs: string;
   match: MatchMode;
   maxDistanceM: number;
-  rowBearing: { deg: number | null; source: "given" | "derived" | "none"; method: string; linearity: number | null };
+  rowBearing: RunRowBearing;
+  /** The profile the verdict was judged against; null without one. */
+  profile: ToleranceProfile | null;
   /** Warnings about the input, as structured issues. */
   warnings: InputIssue[];
 }
@@ -107,54 +108,50 @@ export async function runPipeline(o: PipelineOptions): Promise<PipelineResult> {
   for (const c of [pc, sc]) if (c.issue) issues.push(c.issue);
   if (!pc.crs || !sc.crs) return { exitCode: 2, issues, timings, cpuTimings };
 
+  if (o.groupBy.includes("day") && !o.timeZone) {
+    issues.push({
+      severity: "error",
+      code: "audit-refused",
+      file: o.planted,
+      message: 'audit: grouping by "day" needs the field\'s time zone',
+    });
+    return { exitCode: 2, issues, timings, cpuTimings };
+  }
+  const settings: AuditSettings = {
+    match: o.match,
+    maxDistanceM: o.maxDistanceM,
+    rowBearingDeg: o.rowBearing ?? null,
+    timeZone: auditTimeZone(o.timeZone, null),
+    workCrs: o.workCrs,
+  };
   let stage = "validate";
-  const prepared = prepareAudit(
-    { table: pr.table, crs: pc.crs, columns: pr.columns },
-    { table: sr.table, crs: sc.crs, columns: sr.columns },
-    {
-      workCrs: o.workCrs,
-      match: o.match,
-      maxDistance: o.maxDistance,
-      rowBearingDeg: o.rowBearing,
+  let audit: AuditRun;
+  try {
+    audit = runAudit({
+      planted: { table: pr.table, crs: pc.crs, columns: pr.columns },
+      survey: { table: sr.table, crs: sc.crs, columns: sr.columns },
+      settings,
+      profile: o.profile,
+      groupBy: o.groupBy,
       onStage: (s) => {
         mark(stage);
         stage = s;
       },
-    },
-  );
-  issues.push(...prepared.issues);
-  if (!prepared.ok) {
-    mark(stage);
-    return { exitCode: 2, issues, timings, cpuTimings };
-  }
-
-  const rb = prepared.rowBearing;
-  const bearingOk = Number.isFinite(rb.bearingDeg);
-  let audit: ReturnType<typeof computeAudit>;
-  try {
-    audit = computeAudit({
-      planted: prepared.planted,
-      survey: prepared.survey,
-      pairing: prepared.pairing,
-      options: {
-        toleranceRadial: o.tolerance,
-        rowBearingDeg: bearingOk ? rb.bearingDeg : undefined,
-        rowBearingSource: bearingOk ? (rb.given ? "given" : "derived") : "none",
-        groupBy: o.groupBy,
-        timeZone: o.timeZone,
-      },
     });
   } catch (e) {
-    // computeAudit refuses options the data cannot satisfy (e.g. grouping by a column neither file has).
+    // The statistics refuse options the data cannot satisfy (e.g. grouping by a column neither file has).
+    mark(stage);
     issues.push({ severity: "error", code: "audit-refused", file: o.planted, message: (e as Error).message });
     return { exitCode: 2, issues, timings, cpuTimings };
   }
-  const { summary, residuals } = audit;
-  mark("statistics");
+  mark(stage);
+  issues.push(...audit.issues);
+  if (!audit.ok) return { exitCode: 2, issues, timings, cpuTimings };
+  const { summary } = audit.result;
 
   if (o.out) {
     const out = createWriteStream(o.out);
-    for (const chunk of residualsCsv({ planted: prepared.planted, survey: prepared.survey, residuals })) {
+    for (const chunk of auditReportChunks(audit).residuals) {
       if (!out.write(chunk)) await once(out, "drain");
     }
     out.end();
@@ -168,16 +165,12 @@ export async function runPipeline(o: PipelineOptions): Promise<PipelineResult> {
   const run: RunInfo = {
     planted: { file: o.planted, rows: pr.table.length, crs: resolveCrs(pc.crs).code, columns: pr.columns.columns },
     survey: { file: o.survey, rows: sr.table.length, crs: resolveCrs(sc.crs).code, columns: sr.columns.columns },
-    workCrs: prepared.workCrs.code,
+    workCrs: audit.settings.workCrs,
     match: o.match,
-    maxDistanceM: o.maxDistance,
-    rowBearing: {
-      deg: bearingOk ? rb.bearingDeg : null,
-      source: bearingOk ? (rb.given ? "given" : "derived") : "none",
-      method: rb.given ? "given" : rb.method,
-      linearity: Number.isFinite(rb.linearity) ? rb.linearity : null,
-    },
+    maxDistanceM: o.maxDistanceM,
+    rowBearing: audit.rowBearing,
+    profile: o.profile,
     warnings: issues.filter((i) => i.severity === "warning"),
   };
-  return { exitCode: 0, issues, report: { ...summary, run }, timings, cpuTimings };
+  return { exitCode: 0, issues, report: { ...summary, verdict: audit.verdict, run }, timings, cpuTimings };
 }

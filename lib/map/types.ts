@@ -2,6 +2,7 @@
  * Shapes shared by the map's server side (payload builder) and client side (decoder, layers).
  * Lengths in metres, in the audit's work CRS, relative to `origin` (see binary.ts for the byte layout).
  */
+import type { ToleranceProfile } from "@/lib/audit/profile";
 
 /** Text columns sent as dictionary codes; `NO_CODE` means the value was empty. */
 export const DICT_NAMES = ["crop", "bed", "row", "arm", "fix", "day"] as const;
@@ -29,15 +30,8 @@ export const UNPAIRED_KINDS = ["planted-not-found", "surveyed-not-planted", "amb
 export type UnpairedKind = (typeof UNPAIRED_KINDS)[number];
 
 /** Tolerance limits of the audit's profile copy, metres; null = not checked. */
-export interface MapProfile {
-  name: string;
+export interface MapProfile extends ToleranceProfile {
   operation: string | null;
-  radialM: number | null;
-  crossM: number | null;
-  alongM: number | null;
-  requiredShare: number;
-  confidence: number;
-  minCheckpoints: number;
 }
 
 /** Field settings the beds and rows are drawn from. */

@@ -2,6 +2,7 @@
  * The sign-off checklist: what a QA lead confirms before accepting an audit, checked against the
  * audit's own figures where they exist. Pure.
  */
+import type { ToleranceProfile } from "@/lib/audit/profile";
 
 /**
  * The checkpoints' survey should be at least this many times more precise than the tolerance being
@@ -57,11 +58,7 @@ export interface ChecklistIssue {
 const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;
 
 /** The tightest of the profile's limits, metres. */
-export function tightestLimit(p: {
-  radialM: number | null;
-  crossM: number | null;
-  alongM: number | null;
-}): number | null {
+export function tightestLimit(p: Pick<ToleranceProfile, "radialM" | "crossM" | "alongM">): number | null {
   const limits = [p.radialM, p.crossM, p.alongM].filter((x): x is number => x !== null && Number.isFinite(x) && x > 0);
   return limits.length ? Math.min(...limits) : null;
 }

@@ -1,5 +1,6 @@
 /** zod schemas of the review API's bodies; the forms use the same ones. */
 import { z } from "zod";
+import { MATCH_MODES, maxDistanceMSchema, rowBearingDegSchema } from "@/lib/audit/settings";
 import { RETURN_REASON_CODES } from "./return-reasons";
 
 export const SubmitInput = z.object({
@@ -44,13 +45,9 @@ export const ReviseInput = z.object({
   plantedDatasetId: z.uuid().optional(),
   surveyDatasetId: z.uuid().optional(),
   profileId: z.uuid().optional(),
-  match: z.enum(["auto", "id", "nearest"]).optional(),
-  maxDistanceM: z
-    .number()
-    .positive()
-    .max(5, "Pairing by position farther than 5 m would pair unrelated plants.")
-    .optional(),
-  rowBearingDeg: z.number().min(0).max(360).nullable().optional(),
+  match: z.enum(MATCH_MODES).optional(),
+  maxDistanceM: maxDistanceMSchema.optional(),
+  rowBearingDeg: rowBearingDegSchema.optional(),
   title: z.string().trim().min(1).max(120).optional(),
 });
 export type ReviseInput = z.infer<typeof ReviseInput>;

@@ -1,6 +1,5 @@
 import "server-only";
-import { resolveCrs } from "@/geo";
-import type { ComputeStage } from "@/lib/audit-job/compute";
+import type { AuditStage } from "@/lib/audit/run";
 import type { AuditJobMessage } from "@/lib/audit-job/messages";
 import { startAuditWorker, type AuditWorkerJob } from "@/lib/audit-job/run-in-worker";
 import { getDb, type DB } from "@/db/client";
@@ -16,7 +15,8 @@ import {
   type RowBatch,
 } from "@/db/queries/audits";
 import { AppError, notFound } from "@/lib/errors";
-import type { AuditDto, AuditSettingsDto } from "@/lib/api-types";
+import type { AuditDto } from "@/lib/api-types";
+import { buildAuditSettings } from "@/lib/audit/settings";
 import type { AuditCreateInput } from "@/lib/validation/audit";
 import type { Viewer } from "@/lib/access";
 
@@ -53,19 +53,11 @@ export async function startAudit(
   if (!profile) issues.push({ path: ["profileId"], message: "No such tolerance profile." });
   if (issues.length) throw new AppError("invalid_input", issues.map((i) => i.message).join(" "), issues);
 
-  let workCrs = field.crs;
-  try {
-    if (resolveCrs(field.crs).kind !== "projected") workCrs = "auto";
-  } catch {
-    workCrs = "auto";
-  }
-  const settings: AuditSettingsDto = {
-    match: input.match,
-    maxDistanceM: input.maxDistanceM,
-    rowBearingDeg: input.rowBearingDeg ?? field.rowBearingDeg ?? null,
-    timeZone: field.timeZone,
-    workCrs,
-  };
+  const settings = buildAuditSettings({
+    field,
+    // A new audit reads a null bearing as "not given": the field's bearing, else derived from the records.
+    chosen: { match: input.match, maxDistanceM: input.maxDistanceM, rowBearingDeg: input.rowBearingDeg ?? undefined },
+  });
   const { builtIn: _b, note: _n, updatedAt: _u, ...snapshot } = profile!;
   const id = await createAudit(db, {
     orgId,
@@ -85,7 +77,7 @@ export async function startAudit(
 }
 
 /** Progress shown while each stage runs (saving then moves from 0.5 to 0.95 with the rows stored). */
-const STAGE_PROGRESS: Record<ComputeStage, number> = {
+const STAGE_PROGRESS: Record<AuditStage, number> = {
   validate: 0.15,
   project: 0.2,
   "check-files": 0.25,

@@ -1,4 +1,10 @@
 import { z } from "zod";
+import {
+  DEFAULT_MAX_PAIR_DISTANCE_M,
+  MATCH_MODES,
+  maxDistanceMSchema,
+  rowBearingDegSchema,
+} from "@/lib/audit/settings";
 
 /** Body of POST /api/audits. Lengths in metres. */
 export const AuditCreateInput = z.object({
@@ -7,17 +13,15 @@ export const AuditCreateInput = z.object({
   surveyDatasetId: z.uuid(),
   profileId: z.uuid(),
   title: z.string().trim().min(1).max(120).optional(),
-  match: z.enum(["auto", "id", "nearest"]).default("auto"),
-  maxDistanceM: z
-    .number()
-    .positive()
-    .max(5, "Pairing by position farther than 5 m would pair unrelated plants.")
-    .default(0.1),
-  rowBearingDeg: z.number().min(0).max(360).nullable().optional(),
+  match: z.enum(MATCH_MODES).default("auto"),
+  maxDistanceM: maxDistanceMSchema.default(DEFAULT_MAX_PAIR_DISTANCE_M),
+  rowBearingDeg: rowBearingDegSchema.optional(),
 });
 export type AuditCreateInput = z.infer<typeof AuditCreateInput>;
 
+/** The residual columns a page of residuals can be sorted by: the one list for the API, the table and the query. */
 export const RESIDUAL_SORTS = ["seq", "plantId", "radial", "dE", "dN", "along", "cross", "bed", "arm"] as const;
+export type ResidualSort = (typeof RESIDUAL_SORTS)[number];
 
 export const ResidualQuerySchema = z.object({
   page: z.coerce.number().int().min(1).default(1),

@@ -1,5 +1,5 @@
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
@@ -140,5 +140,68 @@ describe("audit CLI", () => {
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/file-unreadable/);
     expect(audit("--planted", "a", "--survey", "b", "--bogus").code).toBe(2);
+  });
+
+  // The verdict on the good files, by construction: every error is dE = +10 mm, dN = +5 mm, rows at 28°, so
+  // radial = hypot(10, 5) = 11.18 mm; along = dE·sin 28° + dN·cos 28° = 9.11 mm;
+  // |cross| = |dE·cos 28° − dN·sin 28°| = 6.48 mm (row-frame formulas, common practice, no source).
+  const good = ["--planted", fx("planted-good.csv"), "--survey", fx("survey-good.csv"), "--survey-crs", "EPSG:32632"];
+  const profileFile = (profile: object) => {
+    const file = path.join(mkdtempSync(path.join(tmpdir(), "plotproof-")), "profile.json");
+    writeFileSync(file, JSON.stringify(profile));
+    return file;
+  };
+
+  it("audit CLI -- --tolerance is a radial-only profile: verdict in the JSON and as text on stderr", () => {
+    const r = audit(...good, "--tolerance", "0.012");
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.stdout);
+    expect(s.run.profile).toMatchObject({ radialM: 0.012, crossM: null, alongM: null, requiredShare: 0.95 });
+    expect(s.verdict.passed).toBe(true);
+    expect(s.verdict.criteria.map((c: { id: string }) => c.id)).toEqual(["checkpoints", "radial", "share"]);
+    const radial = s.verdict.criteria.find((c: { id: string }) => c.id === "radial");
+    expect(radial.observed).toBeCloseTo(Math.hypot(0.01, 0.005), 3);
+    expect(r.stderr).toMatch(/^verdict: PASSED against profile "radial 0.012 m"$/m);
+    expect(r.stderr).toMatch(/^ {2}pass {2}radial {7}95 % of radial errors within 11\.\d mm; limit 12\.0 mm$/m);
+  });
+
+  it("audit CLI -- --profile judges cross-row and along-row limits; a failed verdict still exits 0 unless asked", () => {
+    const file = profileFile({
+      name: "In-row weeding",
+      radialM: null,
+      crossM: 0.006,
+      alongM: 0.0095,
+      requiredShare: 0.9,
+      minCheckpoints: 50,
+    });
+    const r = audit(...good, "--profile", file);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.stdout);
+    const byId = Object.fromEntries(s.verdict.criteria.map((c: { id: string }) => [c.id, c]));
+    expect(byId.cross.observed).toBeCloseTo(0.00648, 3);
+    expect(byId.cross.passed).toBe(false);
+    expect(byId.along.observed).toBeCloseTo(0.00911, 3);
+    expect(byId.along.passed).toBe(true);
+    expect(byId.checkpoints).toMatchObject({ observed: 89, limit: 50, passed: true });
+    expect(s.verdict.passed).toBe(false);
+    expect(s.run.profile).toMatchObject({ name: "In-row weeding", confidence: 0.95 });
+    expect(r.stderr).toMatch(/^verdict: FAILED against profile "In-row weeding"$/m);
+    expect(r.stderr).toMatch(/^ {2}FAIL {2}cross /m);
+    expect(audit(...good, "--profile", file, "--fail-on-verdict").code).toBe(3);
+  });
+
+  it("audit CLI -- a bad profile file or two profiles exit 2 naming the file and the field", () => {
+    const file = profileFile({ name: "x", radialM: 0.02, requiredShare: 0.95, minCheckpoints: 20, radial_m: 1 });
+    const bad = audit(...good, "--profile", file);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain(`error: --profile ${file}: unknown field radial_m`);
+    const file2 = profileFile({ name: "x", radialM: 20, requiredShare: 0.95, minCheckpoints: 20 });
+    expect(audit(...good, "--profile", file2).stderr).toContain(
+      `error: --profile ${file2}: radialM: Limits are in metres; 1 m is the largest accepted.`,
+    );
+    const both = audit(...good, "--profile", file2, "--tolerance", "0.02");
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/either --profile or --tolerance/);
+    expect(bad.stdout).toBe("");
   });
 });

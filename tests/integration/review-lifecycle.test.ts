@@ -368,4 +368,17 @@ describe("review -- the whole path with e-mail, and nothing signed can change", 
     ).toBeTruthy();
     expect(texts).toContain(`${PEOPLE.grower.name} verified it: figures and hash match.`);
   });
+
+  it("revise -- a revision of an audit without stored settings takes the field's time zone, as a new audit does", async () => {
+    const rid = await cloneAudit(w.db, w.base.id, "returned");
+    // An audit whose settings were never stored (e.g. one that failed before computing): nothing to carry over.
+    await w.db.execute(sql`update "audit" set "settings" = null where "id" = ${rid}`);
+    const rows = await w.db.execute(sql`select "time_zone" from "field" where "id" = ${w.fieldId}`);
+    const fieldZone = (rows.rows[0] as { time_zone: string }).time_zone;
+    expect(fieldZone).not.toBe("UTC");
+    const rev = await call("revise", "technician", rid, {});
+    expect(rev.status).toBe(201);
+    const { audit: second } = await rev.json();
+    expect(second.settings.timeZone).toBe(fieldZone);
+  });
 });

@@ -12,6 +12,7 @@ import {
 } from "@tanstack/react-table";
 import { fetcher } from "@/lib/fetcher";
 import { keys, type ResidualQuery } from "@/lib/swr-keys";
+import { RESIDUAL_SORTS } from "@/lib/validation/audit";
 import type { AuditDto, Page, ResidualRowDto } from "@/lib/api-types";
 import { PassMark, WithinMark } from "./pass-mark";
 import { formatCount, mmNumber } from "./format";
@@ -21,7 +22,7 @@ type SortKey = NonNullable<ResidualQuery["sort"]>;
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
 const helper = createColumnHelper<typeof features, ResidualRowDto>();
-const SORTABLE = new Set<SortKey>(["seq", "plantId", "radial", "dE", "dN", "along", "cross", "bed", "arm"]);
+const SORTABLE = new Set<SortKey>(RESIDUAL_SORTS);
 
 const mmCell =
   (digits = 1) =>

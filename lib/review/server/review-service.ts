@@ -1,5 +1,4 @@
 import "server-only";
-import { resolveCrs } from "@/geo";
 import { getDb, type DB } from "@/db/client";
 import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
 import { getProfileById } from "@/db/queries/profiles";
@@ -20,7 +19,8 @@ import { computeStoredAudit } from "@/lib/services/run-audit";
 import { notifyDecision, notifySubmitted } from "@/lib/mail/notify";
 import { AppError, notFound } from "@/lib/errors";
 import type { Viewer } from "@/lib/access";
-import type { AuditDto, AuditSettingsDto } from "@/lib/api-types";
+import type { AuditDto } from "@/lib/api-types";
+import { buildAuditSettings } from "@/lib/audit/settings";
 import { IdParam } from "@/lib/validation/profile";
 import { allowedActions, refusal, STATE_NAME, type ReviewAction } from "../lifecycle";
 import { evaluateChecklist, medianFinite, namesMatch, tightestLimit } from "../checklist";
@@ -270,25 +270,11 @@ export async function reviseAudit(
     issues.push({ path: ["profileId"], message: "Choose a tolerance profile (the one used before no longer exists)." });
   if (issues.length) throw new AppError("invalid_input", issues.map((i) => i.message).join(" "), issues);
 
-  const before = previous.settings;
-  let workCrs = before?.workCrs ?? previous.fieldCrs;
-  try {
-    if (!before && resolveCrs(previous.fieldCrs).kind !== "projected") workCrs = "auto";
-  } catch {
-    workCrs = "auto";
-  }
-  const settings: AuditSettingsDto = {
-    match: input.match ?? before?.match ?? "auto",
-    maxDistanceM: input.maxDistanceM ?? before?.maxDistanceM ?? 0.1,
-    rowBearingDeg:
-      input.rowBearingDeg !== undefined
-        ? input.rowBearingDeg
-        : previous.summary?.rowBearingSource === "derived"
-          ? null
-          : (before?.rowBearingDeg ?? null),
-    timeZone: before?.timeZone ?? "UTC",
-    workCrs,
-  };
+  const settings = buildAuditSettings({
+    field: { crs: previous.fieldCrs, timeZone: previous.fieldTimeZone },
+    chosen: { match: input.match, maxDistanceM: input.maxDistanceM, rowBearingDeg: input.rowBearingDeg },
+    previous: { settings: previous.settings, rowBearingDerived: previous.summary?.rowBearingSource === "derived" },
+  });
   const { builtIn: _b, note: _n, updatedAt: _u, ...snapshot } = profile!;
   const title = input.title ?? previous.title;
   const id = await createRevisionRow(db, {

@@ -7,6 +7,7 @@ import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { ReviseInput } from "@/lib/review/validation";
 import type { AuditDto } from "@/lib/api-types";
+import { DEFAULT_MAX_PAIR_DISTANCE_M, MAX_PAIR_DISTANCE_CEILING_M, type AuditSettings } from "@/lib/audit/settings";
 import { FormError } from "@/app/_components/form";
 import { FieldRow, buttonClass, inputClass } from "@/app/_components/field-form/controls";
 import { formatDate } from "@/app/_components/ui";
@@ -23,7 +24,7 @@ type Values = {
   plantedDatasetId: string;
   surveyDatasetId: string;
   profileId: string;
-  match: "auto" | "id" | "nearest";
+  match: AuditSettings["match"];
   maxDistanceMm: string;
   title: string;
 };
@@ -54,15 +55,18 @@ export function ReviseForm({
       surveyDatasetId: audit.survey?.id ?? "",
       profileId: audit.profile?.id ?? profiles[0]?.id ?? "",
       match: audit.settings?.match ?? "auto",
-      maxDistanceMm: String(Math.round((audit.settings?.maxDistanceM ?? 0.1) * 1000)),
+      maxDistanceMm: String(Math.round((audit.settings?.maxDistanceM ?? DEFAULT_MAX_PAIR_DISTANCE_M) * 1000)),
       title: audit.title,
     },
   });
 
   async function onSubmit(v: Values) {
     setFormError(null);
+    // The form asks in millimetres; the API and everything below it use metres (converted once, here).
     const maxMm = Number(v.maxDistanceMm.replace(",", "."));
-    if (!(maxMm > 0 && maxMm <= 5000)) return setError("maxDistanceMm", { message: "Between 1 and 5000 mm." });
+    const ceilingMm = MAX_PAIR_DISTANCE_CEILING_M * 1000;
+    if (!(maxMm > 0 && maxMm <= ceilingMm))
+      return setError("maxDistanceMm", { message: `Between 1 and ${ceilingMm} mm.` });
     const body: ReviseInput = {
       plantedDatasetId: v.plantedDatasetId,
       surveyDatasetId: v.surveyDatasetId,

@@ -9,6 +9,11 @@ import { z } from "zod";
 import { ApiError, fetcher, sendJson } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { AuditDto, DatasetDto, ToleranceProfileDto } from "@/lib/api-types";
+import {
+  DEFAULT_MAX_PAIR_DISTANCE_M,
+  MATCH_MODES as MATCH_VALUES,
+  MAX_PAIR_DISTANCE_CEILING_M,
+} from "@/lib/audit/settings";
 import { FormError, SubmitButton } from "@/app/_components/form";
 import { InputRow, SelectRow, issuesByField, parseDecimal } from "@/app/_components/audit/form-bits";
 import { ProfileLimits } from "@/app/_components/audit/profile-limits";
@@ -32,12 +37,15 @@ const MATCH_MODES = [
   },
 ] as const;
 
+// The form asks in millimetres; the API and everything below it use metres (converted once, on submit).
+const CEILING_MM = MAX_PAIR_DISTANCE_CEILING_M * 1000;
+
 const Schema = z.object({
   title: z.string().trim().min(1, "Give the audit a title.").max(120, "At most 120 characters."),
   plantedDatasetId: z.string().min(1, "Choose the as-planted file."),
   surveyDatasetId: z.string().min(1, "Choose the survey file."),
   profileId: z.string().min(1, "Choose a tolerance profile."),
-  match: z.enum(["auto", "id", "nearest"]),
+  match: z.enum(MATCH_VALUES),
   maxDistanceMm: z
     .string()
     .refine((s) => {
@@ -45,8 +53,8 @@ const Schema = z.object({
       return v !== null && v > 0;
     }, "Enter a distance in millimetres, more than 0.")
     .refine(
-      (s) => (parseDecimal(s) ?? 0) <= 5000,
-      "At most 5000 mm: pairing farther apart would pair unrelated plants.",
+      (s) => (parseDecimal(s) ?? 0) <= CEILING_MM,
+      `At most ${CEILING_MM} mm: pairing farther apart would pair unrelated plants.`,
     )
     .transform((s) => parseDecimal(s)!),
   rowBearingDeg: z
@@ -91,7 +99,7 @@ export function NewAuditForm({
       surveyDatasetId: "",
       profileId: "",
       match: "auto",
-      maxDistanceMm: "100",
+      maxDistanceMm: String(DEFAULT_MAX_PAIR_DISTANCE_M * 1000),
       rowBearingDeg: "",
     },
   });
