@@ -1,5 +1,6 @@
 /** zod schemas of the review API's bodies; the forms use the same ones. */
 import { z } from "zod";
+import { RecordId } from "@/lib/validation/ids";
 import { RETURN_REASON_CODES } from "./return-reasons";
 
 export const SubmitInput = z.object({
@@ -41,9 +42,9 @@ export type ReturnInput = z.infer<typeof ReturnInput>;
 
 /** A corrected revision: what changes compared with the returned audit (anything left out stays). */
 export const ReviseInput = z.object({
-  plantedDatasetId: z.uuid().optional(),
-  surveyDatasetId: z.uuid().optional(),
-  profileId: z.uuid().optional(),
+  plantedDatasetId: RecordId.optional(),
+  surveyDatasetId: RecordId.optional(),
+  profileId: RecordId.optional(),
   match: z.enum(["auto", "id", "nearest"]).optional(),
   maxDistanceM: z
     .number()

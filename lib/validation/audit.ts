@@ -1,11 +1,12 @@
 import { z } from "zod";
+import { RecordId } from "./ids";
 
 /** Body of POST /api/audits. Lengths in metres. */
 export const AuditCreateInput = z.object({
-  fieldId: z.uuid(),
-  plantedDatasetId: z.uuid(),
-  surveyDatasetId: z.uuid(),
-  profileId: z.uuid(),
+  fieldId: RecordId,
+  plantedDatasetId: RecordId,
+  surveyDatasetId: RecordId,
+  profileId: RecordId,
   title: z.string().trim().min(1).max(120).optional(),
   match: z.enum(["auto", "id", "nearest"]).default("auto"),
   maxDistanceM: z

@@ -36,5 +36,3 @@ export const ProfilePatch = z.object({
   minCheckpoints: z.number().int().min(1).max(100_000).optional(),
   note: z.string().trim().max(500).nullable().optional(),
 });
-
-export const IdParam = z.object({ id: z.uuid() });
