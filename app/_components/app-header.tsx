@@ -1,18 +1,27 @@
 import Link from "next/link";
 import { Wordmark } from "./mark";
 import { SignOutButton } from "./sign-out-button";
-import { ROLE_LABEL, type Role } from "@/lib/roles";
+import {
+  ANY_ROLE,
+  CAN_MANAGE_KEYS,
+  CAN_MANAGE_TEAM,
+  CAN_READ_OUTBOX,
+  CAN_REVIEW,
+  ROLE_LABEL,
+  type Role,
+} from "@/lib/roles";
 import type { Viewer } from "@/lib/access";
 
+// Each link is shown to the roles its page admits (the page checks the same list).
 const NAV: { href: string; label: string; roles: readonly Role[] }[] = [
-  { href: "/", label: "Home", roles: ["owner", "qa_lead", "technician", "grower"] },
-  { href: "/fields", label: "Fields", roles: ["owner", "qa_lead", "technician", "grower"] },
-  { href: "/profiles", label: "Tolerance profiles", roles: ["owner", "qa_lead", "technician", "grower"] },
-  { href: "/review", label: "Review", roles: ["owner", "qa_lead"] },
-  { href: "/activity", label: "Activity", roles: ["owner", "qa_lead", "technician", "grower"] },
-  { href: "/team", label: "Team", roles: ["owner"] },
-  { href: "/settings/keys", label: "API keys", roles: ["owner"] },
-  { href: "/outbox", label: "Outbox", roles: ["owner"] },
+  { href: "/", label: "Home", roles: ANY_ROLE },
+  { href: "/fields", label: "Fields", roles: ANY_ROLE },
+  { href: "/profiles", label: "Tolerance profiles", roles: ANY_ROLE },
+  { href: "/review", label: "Review", roles: CAN_REVIEW },
+  { href: "/activity", label: "Activity", roles: ANY_ROLE },
+  { href: "/team", label: "Team", roles: CAN_MANAGE_TEAM },
+  { href: "/settings/keys", label: "API keys", roles: CAN_MANAGE_KEYS },
+  { href: "/outbox", label: "Outbox", roles: CAN_READ_OUTBOX },
 ];
 
 export function AppHeader({ viewer }: { viewer: Viewer }) {

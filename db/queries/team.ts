@@ -113,7 +113,7 @@ export async function getMemberInOrg(
 /** Members with one of the roles (e-mail recipients). */
 export async function listMembersWithRoles(
   db: DB,
-  { orgId, roles }: { orgId: string; roles: Role[] },
+  { orgId, roles }: { orgId: string; roles: readonly Role[] },
 ): Promise<MemberRow[]> {
   const rows = await db
     .select({ memberId: member.id, userId: member.userId, name: user.name, email: user.email, role: member.role })

@@ -1,8 +1,8 @@
 import "server-only";
 import { getDb } from "@/db/client";
 import { getAuditForReview, getSignoff, lastSubmitterId, userName } from "@/db/queries/review";
-import { getOrganisationName, listMembersWithRoles } from "@/db/queries/team";
-import { isRole } from "@/lib/roles";
+import { getOrganisationName, listMembersWithRoles, type MemberRow } from "@/db/queries/team";
+import { isRole, MAILED_ON_DECISION, MAILED_ON_SUBMIT } from "@/lib/roles";
 import { RETURN_REASONS, type ReturnReason } from "@/lib/review/return-reasons";
 import { mailConfig } from "./config";
 import { deliver, type Delivery } from "./send";
@@ -83,8 +83,11 @@ export async function notifySubmitted({
 }): Promise<Delivery> {
   const f = await facts(auditId, orgId);
   if (!f) return { status: "skipped", error: "audit not found" };
-  let to = await listMembersWithRoles(f.db, { orgId, roles: ["qa_lead"] });
-  if (to.length === 0) to = await listMembersWithRoles(f.db, { orgId, roles: ["owner"] });
+  let to: MemberRow[] = [];
+  for (const roles of MAILED_ON_SUBMIT) {
+    to = await listMembersWithRoles(f.db, { orgId, roles });
+    if (to.length > 0) break;
+  }
   const mail = auditSubmittedMail({ ...f.facts, submitterName, note, passed: f.audit.verdict?.passed ?? null });
   return deliver(
     mail,
@@ -108,7 +111,7 @@ export async function notifyDecision(
 ): Promise<Delivery> {
   const f = await facts(d.auditId, d.orgId);
   if (!f) return { status: "skipped", error: "audit not found" };
-  const growers = await listMembersWithRoles(f.db, { orgId: d.orgId, roles: ["grower"] });
+  const growers = await listMembersWithRoles(f.db, { orgId: d.orgId, roles: MAILED_ON_DECISION });
   const submitterId = await lastSubmitterId(f.db, { auditId: d.auditId, orgId: d.orgId });
   const submitter = submitterId ? await userName(f.db, { userId: submitterId }) : null;
   const to = [...(submitter ? [submitter.email] : []), ...growers.map((g) => g.email)];

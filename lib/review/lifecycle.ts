@@ -1,5 +1,6 @@
 /**
- * The review lifecycle of an audit, as a table: which role may move an audit from which state to which.
+ * The review lifecycle of an audit, as a table: which role may move an audit from which state to which (the
+ * role lists are the named permissions of lib/roles.ts: preparers submit and revise, reviewers sign off and return).
  * Pure and free of server imports, so client components can ask it which buttons to show; the route
  * handlers ask the same table before changing anything.
  *
@@ -10,7 +11,7 @@
  *   returned  → computing (a new revision row)          revise     owner, QA lead, technician
  *   signed_off → nothing, ever.
  */
-import type { Role } from "@/lib/roles";
+import { CAN_PREPARE, CAN_REVIEW, type Role } from "@/lib/roles";
 
 export const AUDIT_STATES = ["computing", "computed", "failed", "submitted", "signed_off", "returned"] as const;
 export type LifecycleState = (typeof AUDIT_STATES)[number];
@@ -27,10 +28,10 @@ export interface Transition {
 }
 
 export const TRANSITIONS: readonly Transition[] = [
-  { action: "submit", from: "computed", to: "submitted", roles: ["owner", "qa_lead", "technician"] },
-  { action: "sign_off", from: "submitted", to: "signed_off", roles: ["owner", "qa_lead"] },
-  { action: "return", from: "submitted", to: "returned", roles: ["owner", "qa_lead"] },
-  { action: "revise", from: "returned", to: "computing", roles: ["owner", "qa_lead", "technician"] },
+  { action: "submit", from: "computed", to: "submitted", roles: CAN_PREPARE },
+  { action: "sign_off", from: "submitted", to: "signed_off", roles: CAN_REVIEW },
+  { action: "return", from: "submitted", to: "returned", roles: CAN_REVIEW },
+  { action: "revise", from: "returned", to: "computing", roles: CAN_PREPARE },
 ];
 
 /** Plain names of the states, our own wording. */

@@ -1,6 +1,7 @@
 /** zod schemas of the review API's bodies; the forms use the same ones. */
 import { z } from "zod";
 import { MATCH_MODES, maxDistanceMSchema, rowBearingDegSchema } from "@/lib/audit/settings";
+import { RecordId } from "@/lib/validation/ids";
 import { RETURN_REASON_CODES } from "./return-reasons";
 
 export const SubmitInput = z.object({
@@ -42,9 +43,9 @@ export type ReturnInput = z.infer<typeof ReturnInput>;
 
 /** A corrected revision: what changes compared with the returned audit (anything left out stays). */
 export const ReviseInput = z.object({
-  plantedDatasetId: z.uuid().optional(),
-  surveyDatasetId: z.uuid().optional(),
-  profileId: z.uuid().optional(),
+  plantedDatasetId: RecordId.optional(),
+  surveyDatasetId: RecordId.optional(),
+  profileId: RecordId.optional(),
   match: z.enum(MATCH_MODES).optional(),
   maxDistanceM: maxDistanceMSchema.optional(),
   rowBearingDeg: rowBearingDegSchema.optional(),

@@ -5,13 +5,14 @@ import {
   maxDistanceMSchema,
   rowBearingDegSchema,
 } from "@/lib/audit/settings";
+import { RecordId } from "./ids";
 
 /** Body of POST /api/audits. Lengths in metres. */
 export const AuditCreateInput = z.object({
-  fieldId: z.uuid(),
-  plantedDatasetId: z.uuid(),
-  surveyDatasetId: z.uuid(),
-  profileId: z.uuid(),
+  fieldId: RecordId,
+  plantedDatasetId: RecordId,
+  surveyDatasetId: RecordId,
+  profileId: RecordId,
   title: z.string().trim().min(1).max(120).optional(),
   match: z.enum(MATCH_MODES).default("auto"),
   maxDistanceM: maxDistanceMSchema.default(DEFAULT_MAX_PAIR_DISTANCE_M),

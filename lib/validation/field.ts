@@ -53,5 +53,3 @@ export const FieldPatch = z.object({
   boundary: BoundarySchema.nullable().optional(),
 });
 export type FieldPatch = z.infer<typeof FieldPatch>;
-
-export const FieldIdParam = z.object({ fieldId: z.uuid() });

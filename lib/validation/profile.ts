@@ -34,5 +34,3 @@ export const ProfilePatch = z.object({
   minCheckpoints: minCheckpointsSchema.optional(),
   note: note.optional(),
 });
-
-export const IdParam = z.object({ id: z.uuid() });

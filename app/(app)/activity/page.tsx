@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { z } from "zod";
 import { requirePageViewer } from "@/lib/access";
+import { can } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listOrgActivity } from "@/db/queries/activity";
 import { toActivityDtos } from "@/lib/review/server/activity";
@@ -10,7 +11,8 @@ import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
 export const metadata: Metadata = { title: "Activity" };
 
 const PAGE = 50;
-const Query = z.object({ before: z.coerce.number().int().positive().optional() });
+/** A malformed cursor shows the latest page. */
+const Query = z.object({ before: z.coerce.number().int().positive().optional().catch(undefined) });
 
 /** Who did what in the organisation, newest first. Team and key changes are shown to owners only. */
 export default async function ActivityPage({
@@ -19,16 +21,16 @@ export default async function ActivityPage({
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const viewer = await requirePageViewer();
-  const q = Query.safeParse(await searchParams);
-  const before = q.success ? q.data.before : undefined;
-  const hideTypes = viewer.role === "owner" ? [] : ["member", "invitation", "api_key"];
+  const { before } = Query.parse(await searchParams);
+  const teamChanges = can(viewer.role, "CAN_MANAGE_TEAM");
+  const hideTypes = teamChanges ? [] : ["member", "invitation", "api_key"];
   const rows = toActivityDtos(
     await listOrgActivity(await getDb(), { orgId: viewer.orgId, before, limit: PAGE, hideTypes }),
   );
   return (
     <>
       <PageTitle
-        sub={`Everything done in ${viewer.orgName}: uploads, audits, reviews, sign-offs, downloads${viewer.role === "owner" ? ", team changes" : ""} and e-mails.`}
+        sub={`Everything done in ${viewer.orgName}: uploads, audits, reviews, sign-offs, downloads${teamChanges ? ", team changes" : ""} and e-mails.`}
       >
         Activity
       </PageTitle>

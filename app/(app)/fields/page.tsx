@@ -4,7 +4,7 @@ import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import Link from "next/link";
 import { Empty, PageTitle, Panel, TextLink, formatMm } from "@/app/_components/ui";
-import { CAN_PREPARE } from "@/lib/roles";
+import { can } from "@/lib/roles";
 
 export const metadata: Metadata = { title: "Fields" };
 
@@ -17,7 +17,7 @@ export default async function FieldsPage() {
       <Panel
         title="All fields"
         action={
-          CAN_PREPARE.includes(viewer.role) ? (
+          can(viewer.role, "CAN_PREPARE") ? (
             <Link
               href="/fields/new"
               className="rounded-plot bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:bg-leaf-deep"

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
+import { CAN_READ_OUTBOX } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listCapturedMail } from "@/db/queries/outbox";
 import { mailConfig } from "@/lib/mail/config";
@@ -29,7 +30,7 @@ function Linked({ text }: { text: string }) {
 
 /** Demo mode only: the messages the local fake mail server caught, for this organisation's owner. */
 export default async function OutboxPage() {
-  const viewer = await requirePageViewer(["owner"]);
+  const viewer = await requirePageViewer(CAN_READ_OUTBOX);
   if (mailConfig().mode !== "capture") notFound();
   const messages = await listCapturedMail(await getDb(), { orgId: viewer.orgId });
   return (

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requirePageViewer } from "@/lib/access";
-import { CAN_REVIEW } from "@/lib/roles";
+import { can } from "@/lib/roles";
 import { PageTitle } from "@/app/_components/ui";
 import { ProfilesManager } from "./profiles-manager";
 
@@ -8,7 +8,7 @@ export const metadata: Metadata = { title: "Tolerance profiles" };
 
 export default async function ProfilesPage() {
   const viewer = await requirePageViewer();
-  const canEdit = CAN_REVIEW.includes(viewer.role);
+  const canEdit = can(viewer.role, "CAN_EDIT_PROFILES");
   return (
     <>
       <PageTitle

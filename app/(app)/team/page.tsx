@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageViewer } from "@/lib/access";
+import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { mailConfig } from "@/lib/mail/config";
 import { PageTitle } from "@/app/_components/ui";
 import { TeamManager } from "./team-manager";
@@ -8,7 +9,7 @@ import { TeamManager } from "./team-manager";
 export const metadata: Metadata = { title: "Team" };
 
 export default async function TeamPage() {
-  const viewer = await requirePageViewer(["owner"]);
+  const viewer = await requirePageViewer(CAN_MANAGE_TEAM);
   const mail = mailConfig();
   return (
     <>

@@ -3,6 +3,7 @@ import { guardedRoute } from "@/lib/access";
 import { findCrs, listCrs } from "@/geo";
 import { ANY_ROLE } from "@/lib/roles";
 import type { CrsDto } from "@/lib/api-types";
+import { readQuery } from "@/lib/validation/request";
 
 const Query = z.object({
   q: z.string().trim().max(80).default(""),
@@ -12,7 +13,7 @@ const Query = z.object({
 
 /** Search the bundled coordinate reference systems by code or name. */
 export const GET = guardedRoute(ANY_ROLE, async ({ req }) => {
-  const q = Query.parse(Object.fromEntries(new URL(req.url).searchParams));
+  const q = readQuery(req, Query);
   const near = q.lon !== undefined && q.lat !== undefined ? { lon: q.lon, lat: q.lat } : undefined;
   const hits = q.q ? findCrs(q.q, near) : listCrs();
   const crs: CrsDto[] = hits.slice(0, 50).map((e) => ({ code: e.code, name: e.name, kind: e.kind }));

@@ -4,7 +4,7 @@ import { createField, fieldNameTaken, listFields } from "@/db/queries/fields";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { FieldInput } from "@/lib/validation/field";
-import { parseJsonBody } from "@/lib/validation/request";
+import { readJsonBody } from "@/lib/validation/request";
 
 export const GET = guardedRoute(ANY_ROLE, async ({ viewer }) => {
   const fields = await listFields(await getDb(), { orgId: viewer.orgId });
@@ -12,7 +12,7 @@ export const GET = guardedRoute(ANY_ROLE, async ({ viewer }) => {
 });
 
 export const POST = guardedRoute(CAN_PREPARE, async ({ req, viewer }) => {
-  const input = await parseJsonBody(req, FieldInput);
+  const input = await readJsonBody(req, FieldInput);
   const db = await getDb();
   if (await fieldNameTaken(db, { orgId: viewer.orgId, name: input.name })) {
     throw new AppError("conflict", `A field named "${input.name}" already exists.`, [

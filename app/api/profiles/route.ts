@@ -3,16 +3,16 @@ import { getDb } from "@/db/client";
 import { createProfile, listProfiles, profileNameTaken } from "@/db/queries/profiles";
 import { logActivity } from "@/db/queries/activity";
 import { AppError } from "@/lib/errors";
-import { ANY_ROLE, CAN_REVIEW } from "@/lib/roles";
+import { ANY_ROLE, CAN_EDIT_PROFILES } from "@/lib/roles";
 import { ProfileInput } from "@/lib/validation/profile";
-import { parseJsonBody } from "@/lib/validation/request";
+import { readJsonBody } from "@/lib/validation/request";
 
 export const GET = guardedRoute(ANY_ROLE, async ({ viewer }) =>
   Response.json({ profiles: await listProfiles(await getDb(), { orgId: viewer.orgId }) }),
 );
 
-export const POST = guardedRoute(CAN_REVIEW, async ({ req, viewer }) => {
-  const input = await parseJsonBody(req, ProfileInput);
+export const POST = guardedRoute(CAN_EDIT_PROFILES, async ({ req, viewer }) => {
+  const input = await readJsonBody(req, ProfileInput);
   const db = await getDb();
   if (await profileNameTaken(db, { orgId: viewer.orgId, name: input.name })) {
     throw new AppError("conflict", `A profile named "${input.name}" already exists.`, [

@@ -21,7 +21,7 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Viewer } from "@/lib/access";
 import type { AuditDto } from "@/lib/api-types";
 import { buildAuditSettings } from "@/lib/audit/settings";
-import { IdParam } from "@/lib/validation/profile";
+import { routeId } from "@/lib/validation/request";
 import { allowedActions, refusal, STATE_NAME, type ReviewAction } from "../lifecycle";
 import { evaluateChecklist, medianFinite, namesMatch, tightestLimit } from "../checklist";
 import { hashRecord } from "../record";
@@ -46,10 +46,9 @@ export async function reviewAuditFor(
   viewer: Viewer,
   params: { id: string },
 ): Promise<{ db: DB; audit: AuditReviewRow }> {
-  const p = IdParam.safeParse(params);
-  if (!p.success) throw notFound("Audit");
+  const id = routeId(params, "id", "Audit");
   const db = await getDb();
-  const audit = await getAuditForReview(db, { id: p.data.id, orgId: viewer.orgId });
+  const audit = await getAuditForReview(db, { id, orgId: viewer.orgId });
   if (!audit) throw notFound("Audit");
   return { db, audit };
 }

@@ -2,7 +2,7 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
-import { AuditIdParam } from "./params";
+import { idFromParams } from "@/lib/validation/ids";
 
 // The existence check lives in the layout, outside any loading boundary,
 // so another organisation's audit answers with a real 404 status.
@@ -14,9 +14,8 @@ export default async function AuditLayout({
   params: Promise<{ auditId: string }>;
 }) {
   const viewer = await requirePageViewer();
-  const parsed = AuditIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const audit = await getAuditById(await getDb(), { id: parsed.data.auditId, orgId: viewer.orgId });
+  const auditId = idFromParams(await params, "auditId") ?? notFound();
+  const audit = await getAuditById(await getDb(), { id: auditId, orgId: viewer.orgId });
   if (!audit) notFound();
   return children;
 }

@@ -2,7 +2,7 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
-import { FieldIdParam } from "@/lib/validation/field";
+import { idFromParams } from "@/lib/validation/ids";
 
 // The existence check lives in the layout, outside this segment's loading boundary,
 // so another organisation's field answers with a real 404 status.
@@ -14,9 +14,8 @@ export default async function FieldLayout({
   params: Promise<{ fieldId: string }>;
 }) {
   const viewer = await requirePageViewer();
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const field = await getFieldById(await getDb(), { id: parsed.data.fieldId, orgId: viewer.orgId });
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
+  const field = await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId });
   if (!field) notFound();
   return children;
 }

@@ -1,12 +1,13 @@
 import type { Metadata } from "next";
 import { requirePageViewer } from "@/lib/access";
+import { CAN_MANAGE_KEYS } from "@/lib/roles";
 import { PageTitle } from "@/app/_components/ui";
 import { ApiKeysPanel } from "./api-keys-panel";
 
 export const metadata: Metadata = { title: "API keys" };
 
 export default async function ApiKeysPage() {
-  const viewer = await requirePageViewer(["owner"]);
+  const viewer = await requirePageViewer(CAN_MANAGE_KEYS);
   return (
     <>
       <PageTitle

@@ -5,15 +5,14 @@ import { listAudits } from "@/db/queries/audits";
 import { listDatasets } from "@/db/queries/datasets";
 import { AppError, notFound } from "@/lib/errors";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
-import { FieldIdParam, FieldPatch } from "@/lib/validation/field";
-import { parseJsonBody } from "@/lib/validation/request";
+import { FieldPatch } from "@/lib/validation/field";
+import { readJsonBody, routeId } from "@/lib/validation/request";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
-  const parsed = FieldIdParam.safeParse(params);
   // A malformed id and another organisation's id get the same answer.
-  if (!parsed.success) throw notFound("Field");
+  const fieldId = routeId(params, "fieldId", "Field");
   const db = await getDb();
-  const fieldRow = await getFieldById(db, { id: parsed.data.fieldId, orgId: viewer.orgId });
+  const fieldRow = await getFieldById(db, { id: fieldId, orgId: viewer.orgId });
   if (!fieldRow) throw notFound("Field");
   const [datasets, audits] = await Promise.all([
     listDatasets(db, { orgId: viewer.orgId, fieldId: fieldRow.id }),
@@ -23,19 +22,15 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
 });
 
 export const PATCH = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
-  const parsed = FieldIdParam.safeParse(params);
-  if (!parsed.success) throw notFound("Field");
-  const patch = await parseJsonBody(req, FieldPatch);
+  const fieldId = routeId(params, "fieldId", "Field");
+  const patch = await readJsonBody(req, FieldPatch);
   const db = await getDb();
-  if (
-    patch.name &&
-    (await fieldNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: parsed.data.fieldId }))
-  ) {
+  if (patch.name && (await fieldNameTaken(db, { orgId: viewer.orgId, name: patch.name, exceptId: fieldId }))) {
     throw new AppError("conflict", `A field named "${patch.name}" already exists.`, [
       { path: ["name"], message: "Name already used" },
     ]);
   }
-  const updated = await updateField(db, { id: parsed.data.fieldId, orgId: viewer.orgId, userId: viewer.userId, patch });
+  const updated = await updateField(db, { id: fieldId, orgId: viewer.orgId, userId: viewer.userId, patch });
   if (!updated) throw notFound("Field");
   return Response.json({ field: updated });
 });

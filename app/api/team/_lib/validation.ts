@@ -10,6 +10,3 @@ export const InviteInput = z.object({
 });
 
 export const RoleInput = z.object({ role: z.enum(ROLES, { message: "Choose a role." }) });
-
-export const InvitationIdParam = z.object({ id: z.string().min(1).max(100) });
-export const MemberIdParam = z.object({ memberId: z.string().min(1).max(100) });

@@ -1,15 +1,16 @@
 import { guardedRoute } from "@/lib/access";
-import { parseJsonBody } from "@/lib/validation/request";
+import { CAN_MANAGE_TEAM } from "@/lib/roles";
+import { readJsonBody } from "@/lib/validation/request";
 import { invitationsOf, invite, requireBrowserSession } from "../_lib/team-service";
 import { InviteInput } from "../_lib/validation";
 
-export const GET = guardedRoute(["owner"], async ({ viewer }) =>
+export const GET = guardedRoute(CAN_MANAGE_TEAM, async ({ viewer }) =>
   Response.json({ invitations: await invitationsOf(viewer.orgId) }),
 );
 
 /** Invite someone by e-mail with a role; the invitation expires after 7 days. */
-export const POST = guardedRoute(["owner"], async ({ req, viewer }) => {
+export const POST = guardedRoute(CAN_MANAGE_TEAM, async ({ req, viewer }) => {
   requireBrowserSession(req);
-  const input = await parseJsonBody(req, InviteInput);
+  const input = await readJsonBody(req, InviteInput);
   return Response.json(await invite(req, viewer, input), { status: 201 });
 });

@@ -5,7 +5,7 @@ import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
 import { MapLoader } from "@/app/_components/map/map-loader";
-import { AuditIdParam } from "../params";
+import { idFromParams } from "@/lib/validation/ids";
 
 export const metadata: Metadata = { title: "Audit map" };
 
@@ -13,9 +13,8 @@ export default async function AuditMapPage({ params }: { params: Promise<{ audit
   const viewer = await requirePageViewer();
   // The audit layout answers 404 for a malformed id or another organisation's audit (with the status code); the
   // page may render alongside it, so it checks again rather than assume.
-  const parsed = AuditIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const audit = await getAuditById(await getDb(), { id: parsed.data.auditId, orgId: viewer.orgId });
+  const auditId = idFromParams(await params, "auditId") ?? notFound();
+  const audit = await getAuditById(await getDb(), { id: auditId, orgId: viewer.orgId });
   if (!audit) notFound();
   return (
     <div className="grid gap-4" data-testid="audit-map-page">

@@ -11,7 +11,7 @@ import { ROLE_LABEL, isRole } from "@/lib/roles";
 import type { AuditSummary, DatasetDto } from "@/lib/api-types";
 import { Mark } from "@/app/_components/mark";
 import { formatDate, formatMm } from "@/app/_components/ui";
-import { AuditIdParam } from "../params";
+import { idFromParams } from "@/lib/validation/ids";
 import { ErrorScatterSvg } from "./error-scatter-svg";
 import { PrintButton } from "./print-button";
 
@@ -55,7 +55,7 @@ function Section({ title, children }: { title: string; children: React.ReactNode
 
 export default async function ReportPage({ params }: { params: Promise<{ auditId: string }> }) {
   const viewer = await requirePageViewer();
-  const { auditId } = AuditIdParam.parse(await params);
+  const auditId = idFromParams(await params, "auditId") ?? notFound();
   const db = await getDb();
   const audit = await getAuditById(db, { id: auditId, orgId: viewer.orgId });
   if (!audit) notFound();

@@ -7,12 +7,12 @@ import { getAuditById } from "@/db/queries/audits";
 import { getAuditForReview } from "@/db/queries/review";
 import { listDatasets } from "@/db/queries/datasets";
 import { listProfiles } from "@/db/queries/profiles";
-import { CAN_PREPARE } from "@/lib/roles";
+import { can } from "@/lib/roles";
+import { idFromParams } from "@/lib/validation/ids";
 import { tightestLimit } from "@/lib/review/checklist";
 import { surveyPrecision } from "@/lib/review/server/review-service";
 import { ReviewBar } from "@/app/_components/review/review-bar";
 import { PageTitle } from "@/app/_components/ui";
-import { AuditIdParam } from "../params";
 import { ReviewWorkspace } from "./review-workspace";
 
 export const metadata: Metadata = { title: "Review and sign-off" };
@@ -20,14 +20,14 @@ export const metadata: Metadata = { title: "Review and sign-off" };
 // The audit layout has already answered 404 for another organisation's audit.
 export default async function ReviewPage({ params }: { params: Promise<{ auditId: string }> }) {
   const viewer = await requirePageViewer();
-  const { auditId } = AuditIdParam.parse(await params);
+  const auditId = idFromParams(await params, "auditId") ?? notFound();
   const db = await getDb();
   const [audit, row] = await Promise.all([
     getAuditById(db, { id: auditId, orgId: viewer.orgId }),
     getAuditForReview(db, { id: auditId, orgId: viewer.orgId }),
   ]);
   if (!audit || !row) notFound();
-  const preparer = CAN_PREPARE.includes(viewer.role);
+  const preparer = can(viewer.role, "CAN_PREPARE");
   const [datasets, profiles, filePrecisionM] = await Promise.all([
     preparer ? listDatasets(db, { orgId: viewer.orgId, fieldId: audit.field.id }) : Promise.resolve([]),
     preparer ? listProfiles(db, { orgId: viewer.orgId }) : Promise.resolve([]),

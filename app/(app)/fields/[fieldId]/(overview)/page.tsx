@@ -7,8 +7,8 @@ import { getFieldById } from "@/db/queries/fields";
 import { listAudits } from "@/db/queries/audits";
 import { listDatasets } from "@/db/queries/datasets";
 import { Empty, PageTitle, Panel, formatDate, formatMm } from "@/app/_components/ui";
-import { FieldIdParam } from "@/lib/validation/field";
-import { CAN_PREPARE } from "@/lib/roles";
+import { idFromParams } from "@/lib/validation/ids";
+import { can } from "@/lib/roles";
 import { DeleteDatasetButton } from "./delete-dataset-button";
 
 export const metadata: Metadata = { title: "Field" };
@@ -35,16 +35,15 @@ function ActionLink({ href, children }: { href: string; children: React.ReactNod
 
 export default async function FieldPage({ params }: { params: Promise<{ fieldId: string }> }) {
   const viewer = await requirePageViewer();
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
   const db = await getDb();
-  const field = await getFieldById(db, { id: parsed.data.fieldId, orgId: viewer.orgId });
+  const field = await getFieldById(db, { id: fieldId, orgId: viewer.orgId });
   if (!field) notFound();
   const [datasets, audits] = await Promise.all([
     listDatasets(db, { orgId: viewer.orgId, fieldId: field.id }),
     listAudits(db, { orgId: viewer.orgId, fieldId: field.id }),
   ]);
-  const canPrepare = CAN_PREPARE.includes(viewer.role);
+  const canPrepare = can(viewer.role, "CAN_PREPARE");
   const geometry = [
     field.bedSpacingM ? `beds every ${field.bedSpacingM} m` : null,
     field.rowsPerBed ? `${field.rowsPerBed} rows per bed` : null,

@@ -4,7 +4,7 @@ import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getFieldById, listFields } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { idFromParams } from "@/lib/validation/ids";
 import type { FieldDto } from "@/lib/api-types";
 import { PageTitle } from "@/app/_components/ui";
 import { FieldForm } from "@/app/_components/field-form/field-form";
@@ -13,11 +13,10 @@ export const metadata: Metadata = { title: "Edit field" };
 
 export default async function EditFieldPage({ params }: { params: Promise<{ fieldId: string }> }) {
   const viewer = await requirePageViewer(CAN_PREPARE);
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
   const db = await getDb();
   const [row, fields] = await Promise.all([
-    getFieldById(db, { id: parsed.data.fieldId, orgId: viewer.orgId }),
+    getFieldById(db, { id: fieldId, orgId: viewer.orgId }),
     listFields(db, { orgId: viewer.orgId }),
   ]);
   if (!row) notFound();

@@ -4,7 +4,7 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getFieldMapSummary } from "@/db/queries/map";
-import { FieldIdParam } from "@/lib/validation/field";
+import { idFromParams } from "@/lib/validation/ids";
 import { Empty, Panel, formatDate } from "@/app/_components/ui";
 import { MapLoader } from "@/app/_components/map/map-loader";
 import { BedTable } from "@/app/_components/map/bed-table";
@@ -16,9 +16,8 @@ const mm = (m: number | null) => (m === null ? null : `${(m * 1000).toFixed(0)} 
 
 export default async function FieldMapPage({ params }: { params: Promise<{ fieldId: string }> }) {
   const viewer = await requirePageViewer();
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const view = await getFieldMapSummary(await getDb(), { fieldId: parsed.data.fieldId, orgId: viewer.orgId });
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
+  const view = await getFieldMapSummary(await getDb(), { fieldId: fieldId, orgId: viewer.orgId });
   if (!view) notFound();
   const p = view.profile;
   const limits = p

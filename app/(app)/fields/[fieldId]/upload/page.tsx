@@ -6,7 +6,7 @@ import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { idFromParams } from "@/lib/validation/ids";
 import { FieldSafetyNote, PageTitle } from "@/app/_components/ui";
 import { UploadFlow } from "@/app/_components/upload/upload-flow";
 
@@ -24,9 +24,8 @@ export default async function UploadPage({
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const viewer = await requirePageViewer(CAN_PREPARE);
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const field = await getFieldById(await getDb(), { id: parsed.data.fieldId, orgId: viewer.orgId });
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
+  const field = await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId });
   if (!field) notFound();
   const { kind } = KindParam.parse(await searchParams);
   return (

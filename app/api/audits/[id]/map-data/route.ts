@@ -25,6 +25,7 @@ import { auditForViewer } from "@/lib/services/audit-access";
 import { buildMapArrays } from "@/lib/map/build";
 import { encodeMapPayload, MAP_CONTENT_TYPE } from "@/lib/map/binary";
 import { mapMeta, originFor, projectBoundary } from "@/lib/map/payload";
+import { readQuery } from "@/lib/validation/request";
 
 const Query = z
   .object({
@@ -57,13 +58,7 @@ function remember(key: string, bytes: Uint8Array) {
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {
   const audit = await auditForViewer(viewer, params);
-  const q = Query.safeParse(Object.fromEntries(new URL(req.url).searchParams));
-  if (!q.success)
-    throw new AppError(
-      "invalid_input",
-      q.error.issues.map((i) => i.message).join("; "),
-      q.error.issues.map((i) => ({ path: i.path, message: i.message })),
-    );
+  const q = readQuery(req, Query);
   if (!RESULT_STATES.has(audit.state)) {
     throw new AppError(
       "conflict",
@@ -74,13 +69,13 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, 
   }
   const db = await getDb();
   const orgId = viewer.orgId;
-  if (q.data.pair !== undefined) {
-    const pair = await getMapPair(db, { auditId: audit.id, orgId, seq: q.data.pair });
+  if (q.pair !== undefined) {
+    const pair = await getMapPair(db, { auditId: audit.id, orgId, seq: q.pair });
     if (!pair) throw notFound("Pair");
     return Response.json({ pair });
   }
-  if (q.data.unpaired !== undefined) {
-    const unpaired = await getMapUnpaired(db, { auditId: audit.id, orgId, seq: q.data.unpaired });
+  if (q.unpaired !== undefined) {
+    const unpaired = await getMapUnpaired(db, { auditId: audit.id, orgId, seq: q.unpaired });
     if (!unpaired) throw notFound("Unpaired point");
     return Response.json({ unpaired });
   }

@@ -1,13 +1,13 @@
 import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { ReturnInput } from "@/lib/review/validation";
-import { readBody } from "@/lib/review/server/body";
+import { readJsonBody } from "@/lib/validation/request";
 import { assertMay, returnAudit, reviewAuditFor } from "@/lib/review/server/review-service";
 
 /** Return a submitted audit for correction, with reasons; the submitter and the growers get an e-mail. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("return").roles, async ({ req, viewer, params }) => {
   const { db, audit } = await reviewAuditFor(viewer, params);
   await assertMay(db, viewer, audit, "return");
-  const input = await readBody(req, ReturnInput);
+  const input = await readJsonBody(req, ReturnInput);
   return Response.json({ review: await returnAudit(viewer, db, audit, input) });
 });

@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SignoffInput } from "@/lib/review/validation";
-import { readBody } from "@/lib/review/server/body";
+import { readJsonBody } from "@/lib/validation/request";
 import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/review/server/review-service";
 
 /** Where the audit stands in review (and its sign-off; `?canonical=1` adds the exact JSON that was hashed). */
@@ -19,6 +19,6 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, 
 export const POST = guardedRoute<{ id: string }>(transitionOf("sign_off").roles, async ({ req, viewer, params }) => {
   const { db, audit } = await reviewAuditFor(viewer, params);
   await assertMay(db, viewer, audit, "sign_off");
-  const input = await readBody(req, SignoffInput);
+  const input = await readJsonBody(req, SignoffInput);
   return Response.json({ review: await signOff(viewer, db, audit, input) }, { status: 201 });
 });

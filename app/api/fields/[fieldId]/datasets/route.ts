@@ -4,17 +4,16 @@ import { getFieldById } from "@/db/queries/fields";
 import { listDatasets } from "@/db/queries/datasets";
 import { AppError, notFound } from "@/lib/errors";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { parseInput, routeId } from "@/lib/validation/request";
 import { MAX_UPLOAD_BYTES, UploadFields } from "@/lib/validation/upload";
 import { ingestDataset, type IngestRequest } from "@/lib/services/ingest-dataset";
 import type { UploadStreamLine } from "@/lib/api-types";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
-  const p = FieldIdParam.safeParse(params);
-  if (!p.success) throw notFound("Field");
+  const fieldId = routeId(params, "fieldId", "Field");
   const db = await getDb();
-  if (!(await getFieldById(db, { id: p.data.fieldId, orgId: viewer.orgId }))) throw notFound("Field");
-  return Response.json({ datasets: await listDatasets(db, { orgId: viewer.orgId, fieldId: p.data.fieldId }) });
+  if (!(await getFieldById(db, { id: fieldId, orgId: viewer.orgId }))) throw notFound("Field");
+  return Response.json({ datasets: await listDatasets(db, { orgId: viewer.orgId, fieldId }) });
 });
 
 /**
@@ -22,9 +21,8 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
  * With `Accept: application/x-ndjson` the answer streams progress lines and ends with the result.
  */
 export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
-  const p = FieldIdParam.safeParse(params);
-  if (!p.success) throw notFound("Field");
-  if (!(await getFieldById(await getDb(), { id: p.data.fieldId, orgId: viewer.orgId }))) throw notFound("Field");
+  const fieldId = routeId(params, "fieldId", "Field");
+  if (!(await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId }))) throw notFound("Field");
   const declared = Number(req.headers.get("content-length") ?? 0);
   if (declared > MAX_UPLOAD_BYTES)
     throw new AppError("payload_too_large", `Files up to ${MAX_UPLOAD_BYTES / 1024 / 1024} MB can be uploaded.`);
@@ -40,22 +38,22 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
     throw new AppError("invalid_input", "The 'file' part is missing.", [
       { path: ["file"], message: "Choose a file to upload" },
     ]);
-  const fields = UploadFields.safeParse(Object.fromEntries([...form.entries()].filter(([k]) => k !== "file")));
-  if (!fields.success) {
-    const issues = fields.error.issues.map((i) => ({ path: i.path, message: i.message }));
-    throw new AppError("invalid_input", `Invalid ${issues.map((i) => i.path.join(".")).join(", ")}.`, issues);
-  }
+  const fields = parseInput(
+    UploadFields,
+    Object.fromEntries([...form.entries()].filter(([k]) => k !== "file")),
+    "form",
+  );
   const request: IngestRequest = {
     viewer,
-    fieldId: p.data.fieldId,
-    kind: fields.data.kind,
+    fieldId,
+    kind: fields.kind,
     fileName: file.name || "upload.csv",
     contentType: file.type,
     bytes: new Uint8Array(await file.arrayBuffer()),
-    crs: fields.data.crs,
-    mapping: fields.data.mapping,
-    acceptWarnings: fields.data.acceptWarnings,
-    presetName: fields.data.presetName,
+    crs: fields.crs,
+    mapping: fields.mapping,
+    acceptWarnings: fields.acceptWarnings,
+    presetName: fields.presetName,
   };
 
   if (!(req.headers.get("accept") ?? "").includes("application/x-ndjson")) {

@@ -3,13 +3,12 @@ import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { notFound } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { routeId } from "@/lib/validation/request";
 import { deriveFieldSuggestions } from "@/lib/services/field-derived";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
-  const p = FieldIdParam.safeParse(params);
-  if (!p.success) throw notFound("Field");
-  const field = await getFieldById(await getDb(), { id: p.data.fieldId, orgId: viewer.orgId });
+  const fieldId = routeId(params, "fieldId", "Field");
+  const field = await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId });
   if (!field) throw notFound("Field");
   return Response.json(await deriveFieldSuggestions(field, viewer.orgId));
 });

@@ -3,16 +3,15 @@ import { getDb } from "@/db/client";
 import { getFieldMapSummary } from "@/db/queries/map";
 import { notFound } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { routeId } from "@/lib/validation/request";
 
 /**
  * The grower's view of a field as JSON (FieldMapDto in lib/map/types.ts): the latest audit with results, statistics
  * and one line of guidance per bed, and a summary line. The points themselves come from that audit's map-data.
  */
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
-  const p = FieldIdParam.safeParse(params);
-  if (!p.success) throw notFound("Field");
-  const summary = await getFieldMapSummary(await getDb(), { fieldId: p.data.fieldId, orgId: viewer.orgId });
+  const fieldId = routeId(params, "fieldId", "Field");
+  const summary = await getFieldMapSummary(await getDb(), { fieldId, orgId: viewer.orgId });
   if (!summary) throw notFound("Field");
   return Response.json(summary);
 });

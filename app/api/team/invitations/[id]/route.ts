@@ -1,13 +1,12 @@
 import { guardedRoute } from "@/lib/access";
-import { notFound } from "@/lib/errors";
+import { CAN_MANAGE_TEAM } from "@/lib/roles";
+import { AuthRecordId } from "@/lib/validation/ids";
+import { routeId } from "@/lib/validation/request";
 import { cancel, requireBrowserSession } from "../../_lib/team-service";
-import { InvitationIdParam } from "../../_lib/validation";
 
 /** Withdraw a pending invitation; its link stops working. */
-export const DELETE = guardedRoute<{ id: string }>(["owner"], async ({ req, viewer, params }) => {
+export const DELETE = guardedRoute<{ id: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {
   requireBrowserSession(req);
-  const p = InvitationIdParam.safeParse(params);
-  if (!p.success) throw notFound("Invitation");
-  await cancel(req, viewer, p.data.id);
+  await cancel(req, viewer, routeId(params, "id", "Invitation", AuthRecordId));
   return new Response(null, { status: 204 });
 });

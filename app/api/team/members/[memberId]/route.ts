@@ -1,24 +1,22 @@
 import { guardedRoute } from "@/lib/access";
-import { notFound } from "@/lib/errors";
-import { parseJsonBody } from "@/lib/validation/request";
+import { CAN_MANAGE_TEAM } from "@/lib/roles";
+import { AuthRecordId } from "@/lib/validation/ids";
+import { readJsonBody, routeId } from "@/lib/validation/request";
 import { changeRole, remove, requireBrowserSession } from "../../_lib/team-service";
-import { MemberIdParam, RoleInput } from "../../_lib/validation";
+import { RoleInput } from "../../_lib/validation";
 
 /** Change a member's role. */
-export const PATCH = guardedRoute<{ memberId: string }>(["owner"], async ({ req, viewer, params }) => {
+export const PATCH = guardedRoute<{ memberId: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {
   requireBrowserSession(req);
-  const p = MemberIdParam.safeParse(params);
-  if (!p.success) throw notFound("Member");
-  const { role } = await parseJsonBody(req, RoleInput);
-  const m = await changeRole(req, viewer, p.data.memberId, role);
+  const memberId = routeId(params, "memberId", "Member", AuthRecordId);
+  const { role } = await readJsonBody(req, RoleInput);
+  const m = await changeRole(req, viewer, memberId, role);
   return Response.json({ member: { memberId: m.memberId, name: m.name, email: m.email, role: m.role } });
 });
 
 /** Remove a member from the organisation (their account stays; their past work keeps their name). */
-export const DELETE = guardedRoute<{ memberId: string }>(["owner"], async ({ req, viewer, params }) => {
+export const DELETE = guardedRoute<{ memberId: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {
   requireBrowserSession(req);
-  const p = MemberIdParam.safeParse(params);
-  if (!p.success) throw notFound("Member");
-  await remove(req, viewer, p.data.memberId);
+  await remove(req, viewer, routeId(params, "memberId", "Member", AuthRecordId));
   return new Response(null, { status: 204 });
 });

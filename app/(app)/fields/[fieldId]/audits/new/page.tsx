@@ -4,7 +4,7 @@ import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";
-import { FieldIdParam } from "@/lib/validation/field";
+import { idFromParams } from "@/lib/validation/ids";
 import { PageTitle, TextLink } from "@/app/_components/ui";
 import { NewAuditForm } from "./new-audit-form";
 
@@ -12,9 +12,8 @@ export const metadata: Metadata = { title: "New audit" };
 
 export default async function NewAuditPage({ params }: { params: Promise<{ fieldId: string }> }) {
   const viewer = await requirePageViewer(CAN_PREPARE);
-  const parsed = FieldIdParam.safeParse(await params);
-  if (!parsed.success) notFound();
-  const field = await getFieldById(await getDb(), { id: parsed.data.fieldId, orgId: viewer.orgId });
+  const fieldId = idFromParams(await params, "fieldId") ?? notFound();
+  const field = await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId });
   if (!field) notFound();
   return (
     <>

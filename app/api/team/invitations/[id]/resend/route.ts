@@ -1,12 +1,11 @@
 import { guardedRoute } from "@/lib/access";
-import { notFound } from "@/lib/errors";
+import { CAN_MANAGE_TEAM } from "@/lib/roles";
+import { AuthRecordId } from "@/lib/validation/ids";
+import { routeId } from "@/lib/validation/request";
 import { requireBrowserSession, resend } from "../../../_lib/team-service";
-import { InvitationIdParam } from "../../../_lib/validation";
 
 /** Send the invitation e-mail again with a fresh expiry. */
-export const POST = guardedRoute<{ id: string }>(["owner"], async ({ req, viewer, params }) => {
+export const POST = guardedRoute<{ id: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {
   requireBrowserSession(req);
-  const p = InvitationIdParam.safeParse(params);
-  if (!p.success) throw notFound("Invitation");
-  return Response.json(await resend(req, viewer, p.data.id));
+  return Response.json(await resend(req, viewer, routeId(params, "id", "Invitation", AuthRecordId)));
 });

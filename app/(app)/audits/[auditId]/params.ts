@@ -1,3 +1,0 @@
-import { z } from "zod";
-
-export const AuditIdParam = z.object({ auditId: z.uuid() });
