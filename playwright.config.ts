@@ -32,6 +32,12 @@ export default defineConfig({
     reuseExistingServer: false,
     timeout: 120_000,
     stdout: "pipe",
-    env: { PLOTPROOF_DEMO: "1", OPEN_SIGNUP: "1", AUTH_SIGNIN_PER_MINUTE: "1000", PGLITE_DIR: "data/e2e/db", BETTER_AUTH_URL: BASE },
+    env: {
+      PLOTPROOF_DEMO: "1",
+      OPEN_SIGNUP: "1",
+      AUTH_SIGNIN_PER_MINUTE: "1000",
+      PGLITE_DIR: "data/e2e/db",
+      BETTER_AUTH_URL: BASE,
+    },
   },
 });

@@ -13,8 +13,8 @@ export default async function SignUpPage() {
       <>
         <h1 className="mb-2 text-xl font-semibold">Accounts are by invitation</h1>
         <p className="mb-6 text-sm text-ink-soft" data-testid="signup-closed">
-          Plotproof accounts on this installation are made by invitation. Ask your organisation&apos;s owner to
-          invite you; the e-mail has a link to set your password.
+          Plotproof accounts on this installation are made by invitation. Ask your organisation&apos;s owner to invite
+          you; the e-mail has a link to set your password.
         </p>
         <p className="text-sm text-ink-soft">
           Already have an account?{" "}
