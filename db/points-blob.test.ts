@@ -100,6 +100,13 @@ describe("points blob", () => {
     expect(back.x.length).toBe(2);
   });
 
+  it("decodePoints -- another format or a blob cut short is refused in the blob's own words", () => {
+    const bytes = encodePoints(goldenTable());
+    expect(() => decodePoints(new TextEncoder().encode("PPMD\0\0\0\0{}"))).toThrow("points blob: unknown format");
+    expect(() => decodePoints(bytes.subarray(0, 40))).toThrow("points blob: truncated");
+    expect(() => decodePoints(bytes.subarray(0, bytes.byteLength - 8))).toThrow("points blob: truncated");
+  });
+
   it("encodePoints -- writes the bytes of the golden blob (blobs already saved must keep reading)", () => {
     // fixtures/points-ppt2.bin was written by the encoder as it stood before the shared framing
     // (lib/binary-frame.ts); REGEN=1 rewrites it, on purpose only, and the diff is reviewed.
