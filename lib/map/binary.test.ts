@@ -1,3 +1,5 @@
+import { readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { decodeMapPayload, encodeMapPayload } from "./binary";
 import {
@@ -186,6 +188,23 @@ describe("map payload", () => {
     pairs.plantId = ["A\nB", "C", ""];
     const { arrays, dict } = buildMapArrays(pairs, unpaired);
     expect(decodeMapPayload(encodeMapPayload(meta(3, 3, dict), arrays)).arrays.pairIds).toEqual(["A B", "C", ""]);
+  });
+});
+
+describe("map payload bytes", () => {
+  it("encodeMapPayload -- writes the bytes of the golden payload", () => {
+    // fixtures/map-payload.bin was written by the encoder as it stood before the shared framing
+    // (lib/binary-frame.ts); REGEN=1 rewrites it, on purpose only, and the diff is reviewed.
+    const golden = path.join(import.meta.dirname, "fixtures", "map-payload.bin");
+    const { pairs, unpaired } = sample();
+    const { arrays, dict } = buildMapArrays(pairs, unpaired);
+    const bytes = encodeMapPayload(meta(3, 3, dict), arrays);
+    if (process.env.REGEN) writeFileSync(golden, bytes);
+    expect(Buffer.from(bytes)).toEqual(readFileSync(golden));
+    const back = decodeMapPayload(new Uint8Array(readFileSync(golden)));
+    expect(back.arrays.pairIds).toEqual(["LA-1-1-0006", "", "LA-10-2-0018"]);
+    expect(Array.from(back.arrays.pairD)).toEqual(Array.from(arrays.pairD));
+    expect(Array.from(back.arrays.unpairedCodes.bed)).toEqual(Array.from(arrays.unpairedCodes.bed));
   });
 });
 

@@ -2,7 +2,7 @@
  * The map payload: one binary response per audit that the browser hands to deck.gl as typed arrays
  * (no per-plant JSON objects). Served by GET /api/audits/:id/map-data as `application/octet-stream`.
  *
- * Byte layout (little-endian):
+ * Byte layout (little-endian; the frame of lib/binary-frame.ts):
  *
  *   0      "PPMD"                         4 ASCII bytes
  *   4      u32 H                          byte length of the header
@@ -27,6 +27,7 @@
  * Index i of the pair arrays is the pair's seq in the audit (and of the unpaired arrays, the unpaired seq),
  * which the detail query (?pair=i, ?unpaired=i) takes.
  */
+import { type Frame, FrameError, type FrameProblem, readFrame, writeFrame } from "@/lib/binary-frame";
 import { DICT_NAMES, type DictName, type MapArrays, type MapData, type MapMeta } from "./types";
 
 const MAGIC = "PPMD";
@@ -54,9 +55,13 @@ interface Header extends MapMeta {
   arrays: ArrayEntry[];
 }
 
-const pad8 = (n: number) => (n + 7) & ~7;
 const BYTES: Record<Exclude<ArrayType, "utf8">, number> = { f32: 4, u8: 1, u16: 2 };
 const UNPAIRED_DICTS = ["crop", "bed", "row"] as const;
+const PROBLEM: Record<FrameProblem, string> = {
+  magic: "not a Plotproof map payload",
+  truncated: "truncated header",
+  header: "unreadable header",
+};
 
 function isLittleEndian(): boolean {
   return new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
@@ -98,67 +103,63 @@ export function encodeMapPayload(meta: MapMeta, a: MapArrays): Uint8Array {
   add("unpaired.kind", "u8", 1, m, a.unpairedKind);
   for (const c of UNPAIRED_DICTS) add(`unpaired.code.${c}`, "u16", 1, m, a.unpairedCodes[c]);
 
-  let offset = 0;
-  const arrays: ArrayEntry[] = parts.map((p) => {
-    const e = { name: p.name, type: p.type, size: p.size, count: p.count, offset, byteLength: p.bytes.byteLength };
-    offset = pad8(offset + p.bytes.byteLength);
-    return e;
-  });
-  const header: Header = { ...meta, format: MAP_FORMAT, version: MAP_VERSION, arrays };
-  const headerBytes = new TextEncoder().encode(JSON.stringify(header));
-  const start = pad8(8 + headerBytes.length);
-  const out = new Uint8Array(start + offset);
-  out.set(new TextEncoder().encode(MAGIC), 0);
-  new DataView(out.buffer).setUint32(4, headerBytes.length, true);
-  out.set(headerBytes, 8);
-  parts.forEach((p, i) => out.set(p.bytes, start + arrays[i].offset));
-  return out;
+  return writeFrame(
+    MAGIC,
+    parts.map((p) => p.bytes),
+    (layout): Header => ({
+      ...meta,
+      format: MAP_FORMAT,
+      version: MAP_VERSION,
+      arrays: parts.map((p, i) => ({
+        name: p.name,
+        type: p.type,
+        size: p.size,
+        count: p.count,
+        offset: layout[i].offset,
+        byteLength: p.bytes.byteLength,
+      })),
+    }),
+  );
 }
 
 /**
- * Decodes a payload. The typed arrays are views into `input` (no copy) when it starts on an 8-byte boundary.
+ * Decodes a payload. The typed arrays are views into `input` (no copy) when it starts on an 8-byte boundary
+ * (otherwise copies of the arrays whose position does not suit their element size).
  * Throws "map payload: …" for anything that is not a complete payload of this version.
  *
  * @example const { meta, arrays } = decodeMapPayload(await res.arrayBuffer());
  */
 export function decodeMapPayload(input: ArrayBuffer | Uint8Array): MapData {
   if (!isLittleEndian()) throw new Error("map payload: big-endian platforms are not supported");
-  let bytes = input instanceof Uint8Array ? input : new Uint8Array(input);
-  if (bytes.byteOffset % 8 !== 0) bytes = bytes.slice();
-  if (bytes.byteLength < 8 || new TextDecoder().decode(bytes.subarray(0, 4)) !== MAGIC)
-    throw new Error("map payload: not a Plotproof map payload");
-  const headerLength = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength).getUint32(4, true);
-  if (8 + headerLength > bytes.byteLength) throw new Error("map payload: truncated header");
-  let header: Header;
+  let frame: Frame;
   try {
-    header = JSON.parse(new TextDecoder().decode(bytes.subarray(8, 8 + headerLength))) as Header;
-  } catch {
-    throw new Error("map payload: unreadable header");
+    frame = readFrame(input, [MAGIC]);
+  } catch (e) {
+    throw e instanceof FrameError ? new Error(`map payload: ${PROBLEM[e.problem]}`) : e;
   }
+  const header = frame.header as unknown as Header;
   if (header.format !== MAP_FORMAT || header.version !== MAP_VERSION)
     throw new Error(`map payload: unsupported version ${String(header.version)}`);
-  const start = pad8(8 + headerLength);
   const entries = new Map(header.arrays.map((e) => [e.name, e]));
   const entry = (name: string, type: ArrayType, size: number, count: number) => {
     const e = entries.get(name);
     if (!e) throw new Error(`map payload: array ${name} is missing`);
     if (e.type !== type || e.size !== size || e.count !== count)
       throw new Error(`map payload: array ${name} has the wrong shape`);
-    if (e.offset % 8 !== 0 || start + e.offset + e.byteLength > bytes.byteLength)
+    if (e.offset % 8 !== 0 || e.offset + e.byteLength > frame.dataLength)
       throw new Error(`map payload: array ${name} lies outside the payload (truncated?)`);
     if (type !== "utf8" && e.byteLength !== count * size * BYTES[type])
       throw new Error(`map payload: array ${name} has the wrong length`);
-    return bytes.byteOffset + start + e.offset;
+    return e.offset;
   };
   const n = header.pairs,
     m = header.unpaired;
   const f32 = (name: string, size: number, count: number) =>
-    new Float32Array(bytes.buffer, entry(name, "f32", size, count), size * count);
-  const u8 = (name: string, count: number) => new Uint8Array(bytes.buffer, entry(name, "u8", 1, count), count);
-  const u16 = (name: string, count: number) => new Uint16Array(bytes.buffer, entry(name, "u16", 1, count), count);
-  const idEntry = entries.get("pair.id");
+    frame.array("f32", entry(name, "f32", size, count), size * count);
+  const u8 = (name: string, count: number) => frame.array("u8", entry(name, "u8", 1, count), count);
+  const u16 = (name: string, count: number) => frame.array("u16", entry(name, "u16", 1, count), count);
   const idAt = entry("pair.id", "utf8", 1, n);
-  const idText = new TextDecoder().decode(new Uint8Array(bytes.buffer, idAt, idEntry!.byteLength));
+  const idText = new TextDecoder().decode(frame.array("u8", idAt, entries.get("pair.id")!.byteLength));
   const pairIds = n === 0 ? [] : idText.split("\n");
   if (pairIds.length !== n) throw new Error(`map payload: ${pairIds.length} plant ids for ${n} pairs`);
   const pairCodes = Object.fromEntries(DICT_NAMES.map((c) => [c, u16(`pair.code.${c}`, n)])) as Record<
