@@ -102,6 +102,9 @@ export interface ToleranceProfileDto {
   updatedAt: string;
 }
 
+/** The copy of a tolerance profile an audit keeps (`audit.profile_snapshot`): what it was computed with. */
+export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
+
 export type AuditState = "computing" | "computed" | "failed" | "submitted" | "signed_off" | "returned";
 
 export interface AuditSettingsDto {
@@ -122,7 +125,7 @@ export interface AuditDto {
   field: { id: string; name: string; crs: string; timeZone: string };
   planted: { id: string; fileName: string; sha256: string; rowCount: number } | null;
   survey: { id: string; fileName: string; sha256: string; rowCount: number } | null;
-  profile: Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note"> | null;
+  profile: ProfileSnapshot | null;
   settings: AuditSettingsDto | null;
   summary: AuditSummary | null;
   verdict: Verdict | null;

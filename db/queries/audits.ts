@@ -11,8 +11,8 @@ import type {
   AuditSummary,
   ChartDataDto,
   Page,
+  ProfileSnapshot,
   ResidualRowDto,
-  ToleranceProfileDto,
   UnpairedRowDto,
   Verdict,
 } from "@/lib/api-types";
@@ -84,8 +84,6 @@ export async function listRecentDatasets(
     .limit(limit);
   return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString() }));
 }
-
-export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
 
 export async function createAudit(
   db: DB,

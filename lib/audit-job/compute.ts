@@ -1,13 +1,12 @@
 /**
  * One audit from two point tables, as the web app runs it: prepare (project, check, pair),
  * statistics, verdict, CSV reports and the rows stored per plant. No database and no framework, so
- * it runs on a worker thread (audit-worker.ts) and in re-computation (lib/review/server).
+ * it runs on a worker thread (audit-worker.ts) and in re-computation (lib/server/review).
  */
 import { prepareAudit, type PointTable } from "@/geo";
 import { computeAudit, residualsCsv, summaryCsv, unpairedCsv } from "@/lib/audit";
 import { evaluateVerdict } from "@/lib/audit/verdict";
-import type { AuditSettingsDto } from "@/lib/api-types";
-import type { ProfileSnapshot } from "@/db/queries/audits";
+import type { AuditSettingsDto, ProfileSnapshot } from "@/lib/api-types";
 
 /** Breakdowns an audit computes, each when the files have what it needs. */
 export const GROUP_BY = ["arm", "crop", "bed", "fix", "day"] as const;

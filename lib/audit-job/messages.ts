@@ -2,8 +2,7 @@
 import type { PointTable } from "@/geo";
 import type { AuditSummary } from "@/lib/audit";
 import type { Verdict } from "@/lib/audit/verdict";
-import type { AuditSettingsDto } from "@/lib/api-types";
-import type { ProfileSnapshot } from "@/db/queries/audits";
+import type { AuditSettingsDto, ProfileSnapshot } from "@/lib/api-types";
 import type { ResidualRecordRow, RowsDigest, UnpairedRecordRow } from "@/lib/review/record";
 import type { ComputeStage } from "./compute";
 

@@ -5,7 +5,7 @@ import { listAudits } from "@/db/queries/audits";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { AuditCreateInput } from "@/lib/validation/audit";
 import { parseJsonBody } from "@/lib/validation/request";
-import { startAudit } from "@/lib/services/run-audit";
+import { startAudit } from "@/lib/server/audits/run-audit";
 
 const ListQuery = z.object({ fieldId: z.uuid().optional(), state: z.string().max(20).optional() });
 

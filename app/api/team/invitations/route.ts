@@ -1,7 +1,7 @@
 import { guardedRoute } from "@/lib/access";
 import { parseJsonBody } from "@/lib/validation/request";
-import { invitationsOf, invite, requireBrowserSession } from "../_lib/team-service";
-import { InviteInput } from "../_lib/validation";
+import { invitationsOf, invite, requireBrowserSession } from "@/lib/server/team/team-service";
+import { InviteInput } from "@/lib/validation/team";
 
 export const GET = guardedRoute(["owner"], async ({ viewer }) =>
   Response.json({ invitations: await invitationsOf(viewer.orgId) }),

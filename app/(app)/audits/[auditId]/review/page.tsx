@@ -9,7 +9,7 @@ import { listDatasets } from "@/db/queries/datasets";
 import { listProfiles } from "@/db/queries/profiles";
 import { CAN_PREPARE } from "@/lib/roles";
 import { tightestLimit } from "@/lib/review/checklist";
-import { surveyPrecision } from "@/lib/review/server/review-service";
+import { surveyPrecision } from "@/lib/server/review/review-service";
 import { ReviewBar } from "@/app/_components/review/review-bar";
 import { PageTitle } from "@/app/_components/ui";
 import { AuditIdParam } from "../params";

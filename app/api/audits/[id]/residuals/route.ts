@@ -3,7 +3,7 @@ import { getDb } from "@/db/client";
 import { pageResiduals } from "@/db/queries/audits";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 import { ResidualQuerySchema } from "@/lib/validation/audit";
 
 /** Per-plant residuals, paged, sorted and filtered on the server. */

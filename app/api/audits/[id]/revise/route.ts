@@ -1,8 +1,8 @@
 import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { ReviseInput } from "@/lib/review/validation";
-import { readBody } from "@/lib/review/server/body";
-import { assertMay, reviewAuditFor, reviseAudit } from "@/lib/review/server/review-service";
+import { readBody } from "@/lib/server/review/body";
+import { assertMay, reviewAuditFor, reviseAudit } from "@/lib/server/review/review-service";
 
 /** Re-run a returned audit, with corrections, as its next revision: 202 while computing, 201 with `?wait=1`. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("revise").roles, async ({ req, viewer, params }) => {

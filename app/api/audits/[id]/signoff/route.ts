@@ -2,8 +2,8 @@ import { guardedRoute } from "@/lib/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SignoffInput } from "@/lib/review/validation";
-import { readBody } from "@/lib/review/server/body";
-import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/review/server/review-service";
+import { readBody } from "@/lib/server/review/body";
+import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/server/review/review-service";
 
 /** Where the audit stands in review (and its sign-off; `?canonical=1` adds the exact JSON that was hashed). */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {

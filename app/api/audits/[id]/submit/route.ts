@@ -1,8 +1,8 @@
 import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SubmitInput } from "@/lib/review/validation";
-import { readBody } from "@/lib/review/server/body";
-import { assertMay, reviewAuditFor, submitAudit } from "@/lib/review/server/review-service";
+import { readBody } from "@/lib/server/review/body";
+import { assertMay, reviewAuditFor, submitAudit } from "@/lib/server/review/review-service";
 
 /** Submit a computed audit for sign-off; the QA leads get an e-mail. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("submit").roles, async ({ req, viewer, params }) => {

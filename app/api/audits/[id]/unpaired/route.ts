@@ -3,7 +3,7 @@ import { getDb } from "@/db/client";
 import { pageUnpaired } from "@/db/queries/audits";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 import { UnpairedQuerySchema } from "@/lib/validation/audit";
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {

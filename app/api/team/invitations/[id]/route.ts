@@ -1,7 +1,7 @@
 import { guardedRoute } from "@/lib/access";
 import { notFound } from "@/lib/errors";
-import { cancel, requireBrowserSession } from "../../_lib/team-service";
-import { InvitationIdParam } from "../../_lib/validation";
+import { cancel, requireBrowserSession } from "@/lib/server/team/team-service";
+import { InvitationIdParam } from "@/lib/validation/team";
 
 /** Withdraw a pending invitation; its link stops working. */
 export const DELETE = guardedRoute<{ id: string }>(["owner"], async ({ req, viewer, params }) => {

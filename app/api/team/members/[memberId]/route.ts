@@ -1,8 +1,8 @@
 import { guardedRoute } from "@/lib/access";
 import { notFound } from "@/lib/errors";
 import { parseJsonBody } from "@/lib/validation/request";
-import { changeRole, remove, requireBrowserSession } from "../../_lib/team-service";
-import { MemberIdParam, RoleInput } from "../../_lib/validation";
+import { changeRole, remove, requireBrowserSession } from "@/lib/server/team/team-service";
+import { MemberIdParam, RoleInput } from "@/lib/validation/team";
 
 /** Change a member's role. */
 export const PATCH = guardedRoute<{ memberId: string }>(["owner"], async ({ req, viewer, params }) => {

@@ -1,7 +1,7 @@
 import { guardedRoute } from "@/lib/access";
 import { notFound } from "@/lib/errors";
-import { requireBrowserSession, resend } from "../../../_lib/team-service";
-import { InvitationIdParam } from "../../../_lib/validation";
+import { requireBrowserSession, resend } from "@/lib/server/team/team-service";
+import { InvitationIdParam } from "@/lib/validation/team";
 
 /** Send the invitation e-mail again with a fresh expiry. */
 export const POST = guardedRoute<{ id: string }>(["owner"], async ({ req, viewer, params }) => {
