@@ -98,12 +98,12 @@ export interface ToleranceProfileDto extends ToleranceProfile {
   updatedAt: string;
 }
 
+/** The copy of a tolerance profile an audit keeps (`audit.profile_snapshot`): what it was computed with. */
+export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
+
 export type AuditState = "computing" | "computed" | "failed" | "submitted" | "signed_off" | "returned";
 
 export type AuditSettingsDto = AuditSettings;
-
-/** The copy of the tolerance profile an audit keeps (its `profile_snapshot`). */
-export type ProfileSnapshot = Omit<ToleranceProfileDto, "updatedAt" | "builtIn" | "note">;
 
 export interface AuditDto {
   id: string;

@@ -1,6 +1,7 @@
 #!/usr/bin/env node
-// The whole test suite: types, lint and format, unit + integration (vitest), production build, browser tests (Playwright
-// driving Debian's chromium). Installs chromium with apt-get when it is missing and we are root.
+// The whole test suite: types, lint and format, layer rules (dependency-cruiser), unit + integration (vitest),
+// production build, browser tests (Playwright driving Debian's chromium). Installs chromium with apt-get when it is
+// missing and we are root.
 // Ends with one summary line: "tests: N passed, N failed".
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
@@ -36,6 +37,7 @@ fs.rmSync(".test-report", { recursive: true, force: true });
 fs.mkdirSync(".test-report", { recursive: true });
 run("type check", "npx", ["tsc", "--noEmit", "-p", "."]);
 run("lint and format (Biome)", "npx", ["biome", "check", "."]);
+run("layer rules (dependency-cruiser)", "npm", ["run", "--silent", "deps"]);
 run("unit and integration tests", "npx", [
   "vitest",
   "run",

@@ -11,8 +11,8 @@ import type {
   AuditSummary,
   ChartDataDto,
   Page,
-  ResidualRowDto,
   ProfileSnapshot,
+  ResidualRowDto,
   UnpairedRowDto,
   Verdict,
 } from "@/lib/api-types";

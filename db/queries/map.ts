@@ -3,11 +3,8 @@ import { and, asc, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field } from "@/db/schema";
 import type { ResidualRowDto, UnpairedRowDto } from "@/lib/api-types";
-import { DICT_NAMES, type DictName, type FieldMapDto, type MapProfile } from "@/lib/map/types";
+import type { DictName } from "@/lib/map/types";
 import type { PairColumns, UnpairedColumns } from "@/lib/map/build";
-import { RECORD_ACCURACY_REMINDER, bedGuidance, bedStats, overallGuidance } from "@/lib/map/guidance";
-import { getFieldById } from "./fields";
-import { getAuditById } from "./audits";
 
 /*
  * Queries of the map. Every function takes the audit (or field) id together with the caller's organisation and
@@ -91,11 +88,17 @@ const f4Agg = (expr: string, alias: string) =>
 
 /**
  * Every pair and unpaired point of an audit as columns, coordinates minus `origin` (subtracted in double precision
- * before rounding to float4). Empty when the audit is not in this organisation.
+ * before rounding to float4). `textColumns` are the pair text columns to read (the map's DICT_NAMES, each a column of
+ * audit_residual). Empty when the audit is not in this organisation.
  */
 export async function loadMapColumns(
   db: DB,
-  { auditId, orgId, origin }: { auditId: string; orgId: string; origin: [number, number] },
+  {
+    auditId,
+    orgId,
+    origin,
+    textColumns,
+  }: { auditId: string; orgId: string; origin: [number, number]; textColumns: readonly DictName[] },
 ): Promise<{ pairs: PairColumns; unpaired: UnpairedColumns }> {
   const scope = `audit_id = $1 and exists (select 1 from audit a where a.id = $1 and a.org_id = $2)`;
   const flags = `int2send((
@@ -106,7 +109,7 @@ export async function loadMapColumns(
        ${f4Agg("planted_e - $3", "x")}, ${f4Agg("planted_n - $4", "y")}, ${f4Agg("de", "de")}, ${f4Agg("dn", "dn")},
        ${f4Agg("coalesce(along, 'NaN'::float8)", "along")}, ${f4Agg("coalesce(\"cross\", 'NaN'::float8)", "cross")},
        string_agg(${flags}, ''::bytea order by seq) flags,
-       ${textAgg("plant_id", "plant_id")}, ${DICT_NAMES.map((c) => textAgg(`"${c}"`, `t_${c}`)).join(", ")},
+       ${textAgg("plant_id", "plant_id")}, ${textColumns.map((c) => textAgg(`"${c}"`, `t_${c}`)).join(", ")},
        min(seq) min_seq, max(seq) max_seq
      from audit_residual where ${scope}`,
     [auditId, orgId, origin[0], origin[1]],
@@ -137,7 +140,7 @@ export async function loadMapColumns(
       cross: floatsBE(bytes(pr.cross), n),
       flags: lowBytesBE(bytes(pr.flags), n),
       plantId: texts(pr.plant_id as string | null, n),
-      text: Object.fromEntries(DICT_NAMES.map((c) => [c, texts(pr[`t_${c}`] as string | null, n)])) as Record<
+      text: Object.fromEntries(textColumns.map((c) => [c, texts(pr[`t_${c}`] as string | null, n)])) as Record<
         DictName,
         string[]
       >,
@@ -263,53 +266,5 @@ export async function loadBedColumns(db: DB, { auditId, orgId }: { auditId: stri
     cross: floatsBE(r.cross, n),
     along: floatsBE(r.along, n),
     within: Int8Array.from({ length: n }, (_, i) => (w[i] === "w" ? 1 : w[i] === "o" ? 0 : -1)),
-  };
-}
-
-/**
- * The grower's summary of a field: its latest audit with results, statistics and guidance per bed.
- * Null when the field is not in this organisation.
- */
-export async function getFieldMapSummary(
-  db: DB,
-  { fieldId, orgId }: { fieldId: string; orgId: string },
-): Promise<FieldMapDto | null> {
-  const f = await getFieldById(db, { id: fieldId, orgId });
-  if (!f) return null;
-  const latest = await getLatestMappedAudit(db, { fieldId, orgId });
-  const a = latest ? await getAuditById(db, { id: latest.id, orgId }) : null;
-  const fieldPart = { id: f.id, name: f.name, crs: f.crs };
-  if (!a)
-    return {
-      field: fieldPart,
-      audit: null,
-      profile: null,
-      beds: [],
-      guidance: [],
-      summary: `No audit of ${f.name} has results yet. ${RECORD_ACCURACY_REMINDER}`,
-    };
-  const p = a.profile;
-  const profile: MapProfile | null = p
-    ? {
-        name: p.name,
-        operation: p.operation ?? null,
-        radialM: p.radialM,
-        crossM: p.crossM,
-        alongM: p.alongM,
-        requiredShare: p.requiredShare,
-        confidence: p.confidence,
-        minCheckpoints: p.minCheckpoints,
-      }
-    : null;
-  const cols = await loadBedColumns(db, { auditId: a.id, orgId });
-  const beds = bedStats({ ...cols, confidence: profile?.confidence ?? 0.95 });
-  const guidance = beds.map((s) => bedGuidance(s, profile));
-  return {
-    field: fieldPart,
-    audit: { id: a.id, title: a.title, state: a.state, computedAt: a.computedAt, pairs: cols.bed.length },
-    profile,
-    beds,
-    guidance,
-    summary: overallGuidance(guidance, profile),
   };
 }

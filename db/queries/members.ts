@@ -2,7 +2,8 @@ import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { member, organization, user } from "@/db/schema";
-import { isRole, type Role } from "@/lib/roles";
+import type { Role } from "@/lib/roles";
+import { isStoredRole } from "@/db/roles";
 
 export interface Membership {
   orgId: string;
@@ -25,7 +26,7 @@ export async function getMembershipForUser(
     .where(eq(member.userId, userId))
     .orderBy(asc(member.createdAt));
   const row = rows.find((r) => r.orgId === activeOrgId) ?? rows[0];
-  if (!row || !isRole(row.role)) return null;
+  if (!row || !isStoredRole(row.role)) return null;
   return { orgId: row.orgId, orgName: row.orgName, role: row.role };
 }
 
@@ -45,7 +46,7 @@ export async function listTeamMembers(db: DB, { orgId }: { orgId: string }): Pro
     .where(eq(member.organizationId, orgId))
     .orderBy(asc(user.name));
   return rows
-    .filter((r) => isRole(r.role))
+    .filter((r) => isStoredRole(r.role))
     .map((r) => ({ ...r, role: r.role as Role, joinedAt: r.joinedAt.toISOString() }));
 }
 

@@ -14,13 +14,12 @@ import {
   field,
   user,
 } from "@/db/schema";
-import type { AuditSettingsDto, AuditSummary, Verdict } from "@/lib/api-types";
+import type { AuditSettingsDto, AuditSummary, ProfileSnapshot, Verdict } from "@/lib/api-types";
 import type { LifecycleState } from "@/lib/review/lifecycle";
 import type { ChecklistRecord } from "@/lib/review/checklist";
 import type { ReturnReason } from "@/lib/review/return-reasons";
 import type { RecordDataset, ResidualRecordRow, UnpairedRecordRow } from "@/lib/review/record";
 import type { ReviewEventDto, RevisionLinkDto, SignoffDto } from "@/lib/review/types";
-import type { ProfileSnapshot } from "./audits";
 import { logActivity } from "./activity";
 
 type Tx = Parameters<Parameters<DB["transaction"]>[0]>[0];

@@ -2,7 +2,8 @@ import "server-only";
 import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { invitation, member, organization, user } from "@/db/schema";
-import { isRole, type Role } from "@/lib/roles";
+import type { Role } from "@/lib/roles";
+import { isStoredRole } from "@/db/roles";
 
 export interface InvitationRow {
   id: string;
@@ -30,7 +31,7 @@ function toRow(
   },
   now: Date,
 ): InvitationRow | null {
-  if (!isRole(r.role)) return null;
+  if (!isStoredRole(r.role)) return null;
   const status = r.status === "pending" && r.expiresAt < now ? "expired" : (r.status as InvitationRow["status"]);
   return { ...r, role: r.role, status };
 }
@@ -107,7 +108,7 @@ export async function getMemberInOrg(
     .from(member)
     .innerJoin(user, eq(user.id, member.userId))
     .where(and(eq(member.id, memberId), eq(member.organizationId, orgId)));
-  return row && isRole(row.role) ? { ...row, role: row.role } : null;
+  return row && isStoredRole(row.role) ? { ...row, role: row.role } : null;
 }
 
 /** Members with one of the roles (e-mail recipients). */
@@ -121,7 +122,7 @@ export async function listMembersWithRoles(
     .innerJoin(user, eq(user.id, member.userId))
     .where(and(eq(member.organizationId, orgId), inArray(member.role, roles)))
     .orderBy(asc(user.name));
-  return rows.filter((r) => isRole(r.role)).map((r) => ({ ...r, role: r.role as Role }));
+  return rows.filter((r) => isStoredRole(r.role)).map((r) => ({ ...r, role: r.role as Role }));
 }
 
 export async function getMemberByUser(
@@ -133,7 +134,7 @@ export async function getMemberByUser(
     .from(member)
     .innerJoin(user, eq(user.id, member.userId))
     .where(and(eq(member.userId, userId), eq(member.organizationId, orgId)));
-  return row && isRole(row.role) ? { ...row, role: row.role } : null;
+  return row && isStoredRole(row.role) ? { ...row, role: row.role } : null;
 }
 
 export async function getOrganisationName(db: DB, { orgId }: { orgId: string }): Promise<string | null> {

@@ -4,7 +4,7 @@
  */
 import { clopperPearson } from "./intervals";
 import { quantilesInPlace } from "./quantiles";
-import type { ErrorColumns } from "./summary";
+import type { ErrorColumns } from "./error-columns";
 
 /** Statistics of one group. Metres unless stated. */
 export interface GroupRow {

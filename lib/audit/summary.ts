@@ -7,6 +7,7 @@ import { quantilesInPlace } from "./quantiles";
 import { modelRadii } from "./radii";
 import { mean, rmse, rmseRadial, sampleSd } from "./rmse";
 import { hasLimits, withinToleranceShare, type ToleranceLimits } from "./tolerance";
+import type { ErrorColumns } from "./error-columns";
 import type { HeadlineStats } from "./types";
 
 /**
@@ -18,19 +19,7 @@ export function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
 }
 
-/** Per-pair error columns of one set of pairs (metres), shared by the headline statistics and every breakdown. */
-export interface ErrorColumns {
-  dE: Float64Array;
-  dN: Float64Array;
-  /** Along-row errors, or null without a row bearing. */
-  along: Float64Array | null;
-  /** Cross-row errors, or null without a row bearing. */
-  cross: Float64Array | null;
-  /** Radial errors sqrt(dE² + dN²). */
-  radial: Float64Array;
-  /** Within-tolerance flags, or null without limits. */
-  within: Uint8Array | null;
-}
+export type { ErrorColumns } from "./error-columns";
 
 /**
  * Headline statistics: bias with t-intervals, sample SDs (n − 1), RMSE_E/N/r, empirical and circular-normal CEP/R95,

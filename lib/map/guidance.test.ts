@@ -7,9 +7,8 @@ import {
   listWords,
   overallGuidance,
   RECORD_ACCURACY_REMINDER,
-  type BedStats,
 } from "./guidance";
-import type { MapProfile } from "./types";
+import type { BedStats, MapProfile } from "./types";
 
 const IN_ROW: MapProfile = {
   name: "In-row weeding around plants",

@@ -11,31 +11,11 @@
  */
 import { clopperPearson } from "@/lib/audit/intervals";
 import { quantileSorted } from "@/lib/audit/quantiles";
-import type { MapProfile } from "./types";
+import type { BedGuidance, BedState, BedStats, MapProfile } from "./types";
 
 /** Ends every grower guidance text. */
 export const RECORD_ACCURACY_REMINDER =
   "This map shows how accurate the plant records are, not whether a machine is safe to run.";
-
-export interface BedStats {
-  /** Bed label; "" for checkpoints without one. */
-  bed: string;
-  /** Checkpoints (pairs) in the bed. */
-  n: number;
-  /** Of them with a tolerance verdict, within and out of tolerance. */
-  known: number;
-  within: number;
-  out: number;
-  /** within / known and its Clopper–Pearson interval at the profile's confidence; null when known = 0. */
-  share: number | null;
-  lower: number | null;
-  upper: number | null;
-  /** 95th percentile of radial, |cross-row| and |along-row| error, metres (type 7); null without values. */
-  p95Radial: number | null;
-  p95Cross: number | null;
-  p95Along: number | null;
-  meanRadial: number | null;
-}
 
 const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
 
@@ -121,15 +101,6 @@ export function checkpointsNeeded(share: number, confidence: number): number {
   while (n > 1 && clopperPearson(n - 1, n - 1, confidence)!.lower >= share) n--;
   while (clopperPearson(n, n, confidence)!.lower < share) n++;
   return n;
-}
-
-export type BedState = "relied-on" | "not-relied-on" | "not-shown" | "no-checkpoints" | "no-limits";
-
-export interface BedGuidance {
-  bed: string;
-  state: BedState;
-  /** One sentence for the grower. */
-  line: string;
 }
 
 const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;

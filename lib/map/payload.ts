@@ -6,6 +6,7 @@
 import { convertArrays, toLonLat } from "@/geo";
 import type { AuditDto } from "@/lib/api-types";
 import { chooseOrigin } from "./build";
+import { mapProfile } from "./field-summary";
 import { convexHull } from "./geometry";
 import { gridConvergenceDeg } from "./view";
 import type { DictName, MapArrays, MapMeta } from "./types";
@@ -109,7 +110,6 @@ export function mapMeta(input: {
     const hull = convexHull(all);
     boundary = hull.length >= 3 ? { source: "records", ring: hull.flat() } : { source: "none", ring: [] };
   }
-  const p = audit.profile;
   return {
     audit: {
       id: audit.id,
@@ -130,18 +130,7 @@ export function mapMeta(input: {
       rowSpacingM: input.field.rowSpacingM,
     },
     boundary,
-    profile: p
-      ? {
-          name: p.name,
-          operation: p.operation ?? null,
-          radialM: p.radialM,
-          crossM: p.crossM,
-          alongM: p.alongM,
-          requiredShare: p.requiredShare,
-          confidence: p.confidence,
-          minCheckpoints: p.minCheckpoints,
-        }
-      : null,
+    profile: mapProfile(audit.profile),
     pairs: arrays.pairFlags.length,
     unpaired: arrays.unpairedKind.length,
     dict: input.dict,

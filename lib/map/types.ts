@@ -90,14 +90,45 @@ export interface MapData {
   arrays: MapArrays;
 }
 
+/** Statistics of the checkpoints of one bed (see bedStats in guidance.ts). */
+export interface BedStats {
+  /** Bed label; "" for checkpoints without one. */
+  bed: string;
+  /** Checkpoints (pairs) in the bed. */
+  n: number;
+  /** Of them with a tolerance verdict, within and out of tolerance. */
+  known: number;
+  within: number;
+  out: number;
+  /** within / known and its Clopper–Pearson interval at the profile's confidence; null when known = 0. */
+  share: number | null;
+  lower: number | null;
+  upper: number | null;
+  /** 95th percentile of radial, |cross-row| and |along-row| error, metres (type 7); null without values. */
+  p95Radial: number | null;
+  p95Cross: number | null;
+  p95Along: number | null;
+  meanRadial: number | null;
+}
+
+/** How far the records of one bed can be relied on (see bedGuidance in guidance.ts). */
+export type BedState = "relied-on" | "not-relied-on" | "not-shown" | "no-checkpoints" | "no-limits";
+
+export interface BedGuidance {
+  bed: string;
+  state: BedState;
+  /** One sentence for the grower. */
+  line: string;
+}
+
 /** GET /api/fields/:fieldId/map — the grower's view of the field's latest computed audit. */
 export interface FieldMapDto {
   field: { id: string; name: string; crs: string };
   /** The latest audit with stored results; null when the field has none yet. */
   audit: { id: string; title: string; state: string; computedAt: string | null; pairs: number } | null;
   profile: MapProfile | null;
-  beds: import("./guidance").BedStats[];
-  guidance: import("./guidance").BedGuidance[];
+  beds: BedStats[];
+  guidance: BedGuidance[];
   /** One line over all beds, ending with the reminder that the map shows record accuracy, not machine safety. */
   summary: string;
 }

@@ -1,6 +1,6 @@
 /**
  * Per-plant rows of a fresh computation, in the stored columns, so a verification can digest them the
- * same way as the rows in the database; lib/services/run-audit.ts stores exactly these rows. Pure.
+ * same way as the rows in the database; lib/server/audits/run-audit.ts stores exactly these rows. Pure.
  */
 import { PAIRED_BY_ID, type PointTable, type ProjectedTable } from "@/geo";
 import { localDay, type AuditResult } from "@/lib/audit";

@@ -17,7 +17,7 @@ let invitationRoute: typeof import("@/app/api/team/invitations/[id]/route");
 let resendRoute: typeof import("@/app/api/team/invitations/[id]/resend/route");
 let memberRoute: typeof import("@/app/api/team/members/[memberId]/route");
 let meRoute: typeof import("@/app/api/me/route");
-let accept: typeof import("@/app/(auth)/invite/[invitationId]/accept");
+let accept: typeof import("@/lib/server/invites/accept");
 
 const person = (role: string) => DEMO_PEOPLE.find((p) => p.role === role)!;
 const invite = (cookie: string, body: unknown) =>
@@ -44,7 +44,7 @@ beforeAll(async () => {
   resendRoute = await import("@/app/api/team/invitations/[id]/resend/route");
   memberRoute = await import("@/app/api/team/members/[memberId]/route");
   meRoute = await import("@/app/api/me/route");
-  accept = await import("@/app/(auth)/invite/[invitationId]/accept");
+  accept = await import("@/lib/server/invites/accept");
 }, 120_000);
 
 afterAll(async () => {

@@ -5,7 +5,7 @@ import { requirePageViewer } from "@/lib/access";
 import { can } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listOrgActivity } from "@/db/queries/activity";
-import { toActivityDtos } from "@/lib/review/server/activity";
+import { toActivityDtos } from "@/lib/server/review/activity";
 import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
 
 export const metadata: Metadata = { title: "Activity" };

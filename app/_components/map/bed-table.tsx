@@ -1,4 +1,4 @@
-import type { BedGuidance, BedState, BedStats } from "@/lib/map/guidance";
+import type { BedGuidance, BedState, BedStats } from "@/lib/map/types";
 import { bedName } from "@/lib/map/guidance";
 
 const STATE_MARK: Record<BedState, { text: string; cls: string }> = {

@@ -6,7 +6,7 @@ import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { AuditCreateInput } from "@/lib/validation/audit";
 import { RecordId } from "@/lib/validation/ids";
 import { readJsonBody, readQuery } from "@/lib/validation/request";
-import { startAudit } from "@/lib/services/run-audit";
+import { startAudit } from "@/lib/server/audits/run-audit";
 
 /** A malformed filter lists without any filter, as if none was given. */
 const ListQuery = z

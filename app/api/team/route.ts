@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { listTeamMembers } from "@/db/queries/members";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
-import { invitationsOf } from "./_lib/team-service";
+import { invitationsOf } from "@/lib/server/team/team-service";
 
 /** Members and invitations of the owner's organisation. */
 export const GET = guardedRoute(CAN_MANAGE_TEAM, async ({ viewer }) => {

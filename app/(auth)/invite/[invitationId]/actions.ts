@@ -1,55 +1,28 @@
 "use server";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { z } from "zod";
-import { PASSWORD_MIN, fieldErrors } from "@/lib/validation/account";
-import { acceptSignedIn, acceptWithNewAccount, acceptWithSignIn, type AcceptResult } from "./accept";
+import {
+  type InviteState,
+  type InviteSubmission,
+  submitNewAccount,
+  submitSignedIn,
+  submitSignIn,
+} from "@/lib/server/invites/forms";
 
-export interface InviteState {
-  errors: Record<string, string>;
-  formError?: string;
-  name?: string;
-}
-
-const NewAccount = z
-  .object({
-    invitationId: z.string().min(1).max(100),
-    name: z.string().trim().min(1, "Enter your name.").max(100),
-    password: z
-      .string()
-      .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters.`)
-      .max(128, "Use at most 128 characters."),
-    confirm: z.string(),
-  })
-  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
-
-const SignIn = z.object({
-  invitationId: z.string().min(1).max(100),
-  password: z.string().min(1, "Enter your password."),
-});
-const SignedIn = z.object({ invitationId: z.string().min(1).max(100) });
-
-function outcome(r: AcceptResult, name?: string): InviteState {
-  if (r.ok) redirect("/");
-  return { errors: r.errors ?? {}, formError: r.formError, name };
+function shown(s: InviteSubmission): InviteState {
+  if (s.accepted) redirect("/");
+  return s.state;
 }
 
 /** Public by nature (the invitee has no account yet): the invitation link is the proof of the e-mail address. */
 export async function acceptNewAccountAction(_prev: InviteState, formData: FormData): Promise<InviteState> {
-  const parsed = NewAccount.safeParse(Object.fromEntries(formData));
-  if (!parsed.success) return { errors: fieldErrors(parsed.error), name: String(formData.get("name") ?? "") };
-  const { invitationId, name, password } = parsed.data;
-  return outcome(await acceptWithNewAccount(invitationId, { name, password }, await headers()), name);
+  return shown(await submitNewAccount(formData, await headers()));
 }
 
 export async function acceptSignInAction(_prev: InviteState, formData: FormData): Promise<InviteState> {
-  const parsed = SignIn.safeParse(Object.fromEntries(formData));
-  if (!parsed.success) return { errors: fieldErrors(parsed.error) };
-  return outcome(await acceptWithSignIn(parsed.data.invitationId, { password: parsed.data.password }, await headers()));
+  return shown(await submitSignIn(formData, await headers()));
 }
 
 export async function acceptSignedInAction(_prev: InviteState, formData: FormData): Promise<InviteState> {
-  const parsed = SignedIn.safeParse(Object.fromEntries(formData));
-  if (!parsed.success) return { errors: {}, formError: "This invitation link is incomplete." };
-  return outcome(await acceptSignedIn(parsed.data.invitationId, await headers()));
+  return shown(await submitSignedIn(formData, await headers()));
 }

@@ -1,7 +1,8 @@
 "use client";
 import { useActionState } from "react";
 import { FormError, SubmitButton, TextField } from "@/app/_components/form";
-import { acceptNewAccountAction, acceptSignInAction, acceptSignedInAction, type InviteState } from "./actions";
+import type { InviteState } from "@/lib/server/invites/forms";
+import { acceptNewAccountAction, acceptSignInAction, acceptSignedInAction } from "./actions";
 
 export function NewAccountForm({ invitationId, email }: { invitationId: string; email: string }) {
   const [state, action, pending] = useActionState<InviteState, FormData>(acceptNewAccountAction, { errors: {} });

@@ -6,7 +6,7 @@ import { getDb } from "@/db/client";
 import { getInvitation, userExistsWithEmail } from "@/db/queries/team";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
 import { formatDate } from "@/app/_components/ui";
-import { invitationProblem } from "./accept";
+import { invitationProblem } from "@/lib/server/invites/accept";
 import { AcceptSignedInForm, ExistingAccountForm, NewAccountForm } from "./invite-forms";
 
 export const metadata: Metadata = { title: "Invitation" };

@@ -1,6 +1,6 @@
 import { guardedRoute } from "@/lib/access";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) =>
   Response.json({ audit: await auditForViewer(viewer, params) }),

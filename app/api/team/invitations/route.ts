@@ -1,8 +1,8 @@
 import { guardedRoute } from "@/lib/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { readJsonBody } from "@/lib/validation/request";
-import { invitationsOf, invite, requireBrowserSession } from "../_lib/team-service";
-import { InviteInput } from "../_lib/validation";
+import { invitationsOf, invite, requireBrowserSession } from "@/lib/server/team/team-service";
+import { InviteInput } from "@/lib/validation/team";
 
 export const GET = guardedRoute(CAN_MANAGE_TEAM, async ({ viewer }) =>
   Response.json({ invitations: await invitationsOf(viewer.orgId) }),

@@ -10,7 +10,7 @@ import { listProfiles } from "@/db/queries/profiles";
 import { can } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { tightestLimit } from "@/lib/review/checklist";
-import { surveyPrecision } from "@/lib/review/server/review-service";
+import { surveyPrecision } from "@/lib/server/review/review-service";
 import { ReviewBar } from "@/app/_components/review/review-bar";
 import { PageTitle } from "@/app/_components/ui";
 import { ReviewWorkspace } from "./review-workspace";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/access";
 import { getDb } from "@/db/client";
-import { getFieldMapSummary } from "@/db/queries/map";
+import { getFieldMapSummary } from "@/lib/server/map/field-map";
 import { idFromParams } from "@/lib/validation/ids";
 import { Empty, Panel, formatDate } from "@/app/_components/ui";
 import { MapLoader } from "@/app/_components/map/map-loader";

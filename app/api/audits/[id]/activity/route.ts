@@ -1,8 +1,8 @@
 import { guardedRoute } from "@/lib/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { listAuditActivity } from "@/db/queries/activity";
-import { reviewAuditFor } from "@/lib/review/server/review-service";
-import { toActivityDtos } from "@/lib/review/server/activity";
+import { reviewAuditFor } from "@/lib/server/review/review-service";
+import { toActivityDtos } from "@/lib/server/review/activity";
 
 /** Who uploaded, computed, submitted, signed, returned, verified and downloaded this audit, oldest first. */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {

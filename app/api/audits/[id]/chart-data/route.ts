@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { chartData } from "@/db/queries/audits";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const audit = await auditForViewer(viewer, params);

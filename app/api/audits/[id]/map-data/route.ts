@@ -21,11 +21,12 @@ import { getDb } from "@/db/client";
 import { getMapContext, getMapExtent, getMapPair, getMapUnpaired, loadMapColumns } from "@/db/queries/map";
 import { AppError, notFound } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 import { buildMapArrays } from "@/lib/map/build";
 import { encodeMapPayload, MAP_CONTENT_TYPE } from "@/lib/map/binary";
 import { mapMeta, originFor, projectBoundary } from "@/lib/map/payload";
 import { readQuery } from "@/lib/validation/request";
+import { DICT_NAMES } from "@/lib/map/types";
 
 const Query = z
   .object({
@@ -96,7 +97,7 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, 
     const workCrs = audit.settings?.workCrs ?? audit.field.crs;
     const boundaryEN = projectBoundary(context.boundary, workCrs);
     const origin = originFor(await getMapExtent(db, { auditId: audit.id, orgId }), boundaryEN);
-    const columns = await loadMapColumns(db, { auditId: audit.id, orgId, origin });
+    const columns = await loadMapColumns(db, { auditId: audit.id, orgId, origin, textColumns: DICT_NAMES });
     const { arrays, dict } = buildMapArrays(columns.pairs, columns.unpaired);
     body = encodeMapPayload(mapMeta({ audit, field: context, origin, boundaryEN, arrays, dict }), arrays);
   }

@@ -1,6 +1,6 @@
 import { guardedRoute } from "@/lib/access";
 import { ANY_ROLE } from "@/lib/roles";
-import { downloadReport } from "@/lib/services/report-download";
+import { downloadReport } from "@/lib/server/audits/report-download";
 
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) =>
   downloadReport(viewer, params, "residuals"),

@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { getDb } from "@/db/client";
 import { pageResiduals } from "@/db/queries/audits";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 import { ResidualQuerySchema } from "@/lib/validation/audit";
 import { readQuery } from "@/lib/validation/request";
 

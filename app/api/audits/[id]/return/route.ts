@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { ReturnInput } from "@/lib/review/validation";
 import { readJsonBody } from "@/lib/validation/request";
-import { assertMay, returnAudit, reviewAuditFor } from "@/lib/review/server/review-service";
+import { assertMay, returnAudit, reviewAuditFor } from "@/lib/server/review/review-service";
 
 /** Return a submitted audit for correction, with reasons; the submitter and the growers get an e-mail. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("return").roles, async ({ req, viewer, params }) => {

@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { ReviseInput } from "@/lib/review/validation";
 import { readJsonBody } from "@/lib/validation/request";
-import { assertMay, reviewAuditFor, reviseAudit } from "@/lib/review/server/review-service";
+import { assertMay, reviewAuditFor, reviseAudit } from "@/lib/server/review/review-service";
 
 /** Re-run a returned audit, with corrections, as its next revision: 202 while computing, 201 with `?wait=1`. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("revise").roles, async ({ req, viewer, params }) => {

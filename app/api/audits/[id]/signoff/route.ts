@@ -3,7 +3,7 @@ import { ANY_ROLE } from "@/lib/roles";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SignoffInput } from "@/lib/review/validation";
 import { readJsonBody } from "@/lib/validation/request";
-import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/review/server/review-service";
+import { assertMay, buildReview, reviewAuditFor, signOff } from "@/lib/server/review/review-service";
 
 /** Where the audit stands in review (and its sign-off; `?canonical=1` adds the exact JSON that was hashed). */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ req, viewer, params }) => {

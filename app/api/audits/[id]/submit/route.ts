@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SubmitInput } from "@/lib/review/validation";
 import { readJsonBody } from "@/lib/validation/request";
-import { assertMay, reviewAuditFor, submitAudit } from "@/lib/review/server/review-service";
+import { assertMay, reviewAuditFor, submitAudit } from "@/lib/server/review/review-service";
 
 /** Submit a computed audit for sign-off; the QA leads get an e-mail. */
 export const POST = guardedRoute<{ id: string }>(transitionOf("submit").roles, async ({ req, viewer, params }) => {

@@ -1,7 +1,7 @@
 import { guardedRoute } from "@/lib/access";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
-import { auditForViewer } from "@/lib/services/audit-access";
+import { auditForViewer } from "@/lib/server/audits/audit-access";
 
 /** The engine's JSON summary, with the same keys as `npm run audit`. */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {

@@ -6,7 +6,7 @@ import { AppError, notFound } from "@/lib/errors";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { parseInput, routeId } from "@/lib/validation/request";
 import { MAX_UPLOAD_BYTES, UploadFields } from "@/lib/validation/upload";
-import { ingestDataset, type IngestRequest } from "@/lib/services/ingest-dataset";
+import { ingestDataset, type IngestRequest } from "@/lib/server/datasets/ingest-dataset";
 import type { UploadStreamLine } from "@/lib/api-types";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {

@@ -4,7 +4,7 @@ import { getFieldById } from "@/db/queries/fields";
 import { notFound } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
 import { routeId } from "@/lib/validation/request";
-import { deriveFieldSuggestions } from "@/lib/services/field-derived";
+import { deriveFieldSuggestions } from "@/lib/server/fields/field-derived";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const fieldId = routeId(params, "fieldId", "Field");

@@ -1,6 +1,6 @@
 import { guardedRoute } from "@/lib/access";
 import { getDb } from "@/db/client";
-import { getFieldMapSummary } from "@/db/queries/map";
+import { getFieldMapSummary } from "@/lib/server/map/field-map";
 import { notFound } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
 import { routeId } from "@/lib/validation/request";

@@ -2,7 +2,7 @@ import { guardedRoute } from "@/lib/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { AuthRecordId } from "@/lib/validation/ids";
 import { routeId } from "@/lib/validation/request";
-import { cancel, requireBrowserSession } from "../../_lib/team-service";
+import { cancel, requireBrowserSession } from "@/lib/server/team/team-service";
 
 /** Withdraw a pending invitation; its link stops working. */
 export const DELETE = guardedRoute<{ id: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {

@@ -2,8 +2,8 @@ import { guardedRoute } from "@/lib/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { AuthRecordId } from "@/lib/validation/ids";
 import { readJsonBody, routeId } from "@/lib/validation/request";
-import { changeRole, remove, requireBrowserSession } from "../../_lib/team-service";
-import { RoleInput } from "../../_lib/validation";
+import { changeRole, remove, requireBrowserSession } from "@/lib/server/team/team-service";
+import { RoleInput } from "@/lib/validation/team";
 
 /** Change a member's role. */
 export const PATCH = guardedRoute<{ memberId: string }>(CAN_MANAGE_TEAM, async ({ req, viewer, params }) => {

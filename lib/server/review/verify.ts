@@ -2,10 +2,10 @@ import "server-only";
 import type { DB } from "@/db/client";
 import { getSignoff, recordVerification, type AuditReviewRow } from "@/db/queries/review";
 import type { Viewer } from "@/lib/access";
-import { sha256Hex } from "../hash";
-import { hashRecord, type RecordSigner, type SignedRecord } from "../record";
-import { jsonDifferences } from "../diff";
-import type { VerificationCheckDto, VerificationDto } from "../types";
+import { sha256Hex } from "@/lib/review/hash";
+import { hashRecord, type RecordSigner, type SignedRecord } from "@/lib/review/record";
+import { jsonDifferences } from "@/lib/review/diff";
+import type { VerificationCheckDto, VerificationDto } from "@/lib/review/types";
 import { recomputeRecordBody, storedRecordBody, withSigner, type RecordBody } from "./record-sources";
 import { actorOf } from "./review-service";
 

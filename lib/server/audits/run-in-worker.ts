@@ -7,7 +7,7 @@ import { on } from "node:events";
 import { Worker } from "node:worker_threads";
 import { tableBuffers } from "@/geo";
 import { workerBundle } from "@/lib/workers/bundle";
-import type { AuditJobInput, AuditJobMessage, AuditJobRequest } from "./messages";
+import type { AuditJobInput, AuditJobMessage, AuditJobRequest } from "@/lib/audit-job/messages";
 
 export interface AuditWorkerJob {
   /** The worker's messages; ends when the worker exits, throws if it crashes. */

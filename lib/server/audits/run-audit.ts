@@ -1,7 +1,7 @@
 import "server-only";
 import type { AuditStage } from "@/lib/audit/run";
 import type { AuditJobMessage } from "@/lib/audit-job/messages";
-import { startAuditWorker, type AuditWorkerJob } from "@/lib/audit-job/run-in-worker";
+import { startAuditWorker, type AuditWorkerJob } from "@/lib/server/audits/run-in-worker";
 import { getDb, type DB } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";

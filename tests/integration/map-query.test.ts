@@ -1,12 +1,12 @@
 /**
- * The map's SQL (db/queries/map.ts) against an in-memory database with the real migrations: the aggregated
- * columns must equal the stored rows, stay inside the organisation, and feed the same guidance as the pure helpers.
+ * The map's SQL (db/queries/map.ts) and the field summary built on it (lib/server/map/field-map.ts) against an
+ * in-memory database with the real migrations: the aggregated columns must equal the stored rows, stay inside the
+ * organisation, and feed the same guidance as the pure helpers.
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { openDb, type DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field, organization } from "@/db/schema";
 import {
-  getFieldMapSummary,
   getLatestMappedAudit,
   getMapContext,
   getMapExtent,
@@ -15,9 +15,11 @@ import {
   loadBedColumns,
   loadMapColumns,
 } from "@/db/queries/map";
-import { buildMapArrays, pairFlags } from "./build";
-import { decodeMapPayload, encodeMapPayload } from "./binary";
-import { bedGuidance, bedStats } from "./guidance";
+import { getFieldMapSummary } from "@/lib/server/map/field-map";
+import { buildMapArrays, pairFlags } from "@/lib/map/build";
+import { decodeMapPayload, encodeMapPayload } from "@/lib/map/binary";
+import { bedGuidance, bedStats } from "@/lib/map/guidance";
+import { DICT_NAMES } from "@/lib/map/types";
 
 const ORG = "org-kestrel",
   OTHER = "org-saltings";
@@ -202,7 +204,12 @@ beforeAll(async () => {
 describe("map queries", () => {
   it("loadMapColumns -- every stored value comes back, relative to the origin, in seq order", async () => {
     const origin: [number, number] = [662_412, 5_821_335];
-    const { pairs, unpaired } = await loadMapColumns(db, { auditId: AUDIT, orgId: ORG, origin });
+    const { pairs, unpaired } = await loadMapColumns(db, {
+      auditId: AUDIT,
+      orgId: ORG,
+      origin,
+      textColumns: DICT_NAMES,
+    });
     expect(pairs.count).toBe(12);
     PAIRS.forEach((p, i) => {
       expect(pairs.x[i]).toBeCloseTo(p.plantedE - origin[0], 5);
@@ -246,7 +253,12 @@ describe("map queries", () => {
   });
 
   it("loadMapColumns -- another organisation reads nothing", async () => {
-    const { pairs, unpaired } = await loadMapColumns(db, { auditId: AUDIT, orgId: OTHER, origin: [0, 0] });
+    const { pairs, unpaired } = await loadMapColumns(db, {
+      auditId: AUDIT,
+      orgId: OTHER,
+      origin: [0, 0],
+      textColumns: DICT_NAMES,
+    });
     expect(pairs.count).toBe(0);
     expect(unpaired.count).toBe(0);
     expect(await getMapExtent(db, { auditId: AUDIT, orgId: OTHER })).toBeNull();

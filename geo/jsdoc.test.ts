@@ -1,9 +1,9 @@
 import { readdirSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { impurities } from "@/tests/purity-rules";
 
-// The core is pure (rules in tests/purity-rules.ts); this test scans geo/ sources (not tests).
+// Style notes, habit 6: every exported core function has a JSDoc comment. (Purity is checked by dependency-cruiser
+// and Biome: .dependency-cruiser.cjs, biome.jsonc.)
 function sources(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {
     const p = path.join(dir, f);
@@ -12,14 +12,12 @@ function sources(dir: string): string[] {
   });
 }
 
-describe("purity", () => {
-  it("geo sources -- no I/O, clock, environment or framework", () => {
-    expect(impurities(import.meta.dirname, sources(path.resolve(import.meta.dirname)))).toEqual([]);
-  });
-
+describe("jsdoc", () => {
   it("geo sources -- every exported function has a JSDoc comment", () => {
+    const files = sources(path.resolve(import.meta.dirname));
+    expect(files.length).toBeGreaterThan(20);
     const missing: string[] = [];
-    for (const file of sources(path.resolve(import.meta.dirname))) {
+    for (const file of files) {
       const lines = readFileSync(file, "utf8").split("\n");
       lines.forEach((l, i) => {
         if (/^export (async )?function/.test(l) && !/\*\/\s*$/.test(lines[i - 1] ?? ""))

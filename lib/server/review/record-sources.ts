@@ -3,10 +3,10 @@ import { formatFromName, readPoints, type ColumnMapping, type PointFileFormat, t
 import type { DB } from "@/db/client";
 import { loadDatasetPoints } from "@/db/queries/datasets";
 import { getRawFile, loadRecordMaterial, type AuditReviewRow } from "@/db/queries/review";
-import { startAuditWorker } from "@/lib/audit-job/run-in-worker";
+import { startAuditWorker } from "@/lib/server/audits/run-in-worker";
 import { AppError } from "@/lib/errors";
 import type { AuditSettingsDto } from "@/lib/api-types";
-import { sha256Hex } from "../hash";
+import { sha256Hex } from "@/lib/review/hash";
 import {
   buildRecord,
   reportHashes,
@@ -15,7 +15,7 @@ import {
   type RecordDataset,
   type RecordSigner,
   type SignedRecord,
-} from "../record";
+} from "@/lib/review/record";
 
 export type RecordBody = Omit<SignedRecord, "schema" | "signoff">;
 

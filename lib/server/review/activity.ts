@@ -1,7 +1,7 @@
 import "server-only";
 import type { ActivityRow } from "@/db/queries/activity";
-import { activityHref, activityText } from "../activity-text";
-import type { ActivityDto } from "../types";
+import { activityHref, activityText } from "@/lib/review/activity-text";
+import type { ActivityDto } from "@/lib/review/types";
 
 export function toActivityDtos(rows: ActivityRow[]): ActivityDto[] {
   return rows.map((r) => ({

@@ -15,24 +15,24 @@ import {
   type Actor,
   type AuditReviewRow,
 } from "@/db/queries/review";
-import { computeStoredAudit } from "@/lib/services/run-audit";
+import { computeStoredAudit } from "@/lib/server/audits/run-audit";
 import { notifyDecision, notifySubmitted } from "@/lib/mail/notify";
 import { AppError, notFound } from "@/lib/errors";
 import type { Viewer } from "@/lib/access";
 import type { AuditDto } from "@/lib/api-types";
 import { buildAuditSettings } from "@/lib/audit/settings";
 import { routeId } from "@/lib/validation/request";
-import { allowedActions, refusal, STATE_NAME, type ReviewAction } from "../lifecycle";
-import { evaluateChecklist, medianFinite, namesMatch, tightestLimit } from "../checklist";
-import { hashRecord } from "../record";
-import type { ReviewDto } from "../types";
+import { allowedActions, refusal, STATE_NAME, type ReviewAction } from "@/lib/review/lifecycle";
+import { evaluateChecklist, medianFinite, namesMatch, tightestLimit } from "@/lib/review/checklist";
+import { hashRecord } from "@/lib/review/record";
+import type { ReviewDto } from "@/lib/review/types";
 import {
   DEVIATION_COMMENT_MIN,
   type ReturnInput,
   type ReviseInput,
   type SignoffInput,
   type SubmitInput,
-} from "../validation";
+} from "@/lib/review/validation";
 import { requireResults, storedRecordBody, withSigner } from "./record-sources";
 
 const HAS_RESULTS = new Set(["computed", "submitted", "signed_off", "returned"]);
