@@ -7,6 +7,7 @@ import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { parseInput, routeId } from "@/lib/validation/request";
 import { MAX_UPLOAD_BYTES, UploadFields } from "@/lib/validation/upload";
 import { ingestDataset, type IngestRequest } from "@/lib/server/datasets/ingest-dataset";
+import { readUploadForm } from "@/lib/server/datasets/read-upload-form";
 import type { UploadStreamLine } from "@/lib/api-types";
 
 export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, params }) => {
@@ -23,33 +24,20 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
 export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
   const fieldId = routeId(params, "fieldId", "Field");
   if (!(await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId }))) throw notFound("Field");
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > MAX_UPLOAD_BYTES)
-    throw new AppError("payload_too_large", `Files up to ${MAX_UPLOAD_BYTES / 1024 / 1024} MB can be uploaded.`);
-
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new AppError("invalid_input", "Send the upload as multipart/form-data with a 'file' part.");
-  }
-  const file = form.get("file");
-  if (!(file instanceof File))
+  const form = await readUploadForm(req, { fileBytes: MAX_UPLOAD_BYTES });
+  const file = form.file;
+  if (!file)
     throw new AppError("invalid_input", "The 'file' part is missing.", [
       { path: ["file"], message: "Choose a file to upload" },
     ]);
-  const fields = parseInput(
-    UploadFields,
-    Object.fromEntries([...form.entries()].filter(([k]) => k !== "file")),
-    "form",
-  );
+  const fields = parseInput(UploadFields, form.fields, "form");
   const request: IngestRequest = {
     viewer,
     fieldId,
     kind: fields.kind,
     fileName: file.name || "upload.csv",
     contentType: file.type,
-    bytes: new Uint8Array(await file.arrayBuffer()),
+    bytes: file.bytes,
     crs: fields.crs,
     mapping: fields.mapping,
     acceptWarnings: fields.acceptWarnings,
