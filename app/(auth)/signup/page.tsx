@@ -16,12 +16,7 @@ export default async function SignUpPage() {
           Plotproof accounts on this installation are made by invitation. Ask your organisation&apos;s owner to invite
           you; the e-mail has a link to set your password.
         </p>
-        <p className="text-sm text-ink-soft">
-          Already have an account?{" "}
-          <Link href="/login" className="font-medium text-leaf hover:underline">
-            Sign in
-          </Link>
-        </p>
+        <SignInLink />
       </>
     );
   }
@@ -32,12 +27,18 @@ export default async function SignUpPage() {
         You become its owner and can invite QA leads, technicians and growers.
       </p>
       <SignUpForm />
-      <p className="mt-6 text-sm text-ink-soft">
-        Already have an account?{" "}
-        <Link href="/login" className="font-medium text-leaf hover:underline">
-          Sign in
-        </Link>
-      </p>
+      <SignInLink className="mt-6" />
     </>
+  );
+}
+
+function SignInLink({ className = "" }: { className?: string }) {
+  return (
+    <p className={`${className} text-sm text-ink-soft`}>
+      Already have an account?{" "}
+      <Link href="/login" className="font-medium text-leaf hover:underline">
+        Sign in
+      </Link>
+    </p>
   );
 }
