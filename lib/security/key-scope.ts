@@ -22,6 +22,13 @@ export const SCOPE_ALLOWS: Record<ApiKeyScope, string> = {
   read: "reading (GET requests) whatever its creator's role may read",
 };
 
+/** One line each for the keys page: what the scope is for and may do. */
+export const SCOPE_PURPOSE: Record<ApiKeyScope, string> = {
+  full: "acts with everything its creator's current role may do",
+  upload: "for a planting machine's nightly push: lists and reads fields, uploads files to a field, reads the files",
+  read: "for reporting: reads whatever its creator may read and changes nothing",
+};
+
 const READS = new Set(["GET", "HEAD"]);
 
 /** Method and path patterns an upload key may use; `*` is one path segment. */
