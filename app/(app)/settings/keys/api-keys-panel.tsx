@@ -134,7 +134,7 @@ export function ApiKeysPanel() {
               {data.keys.map((k) => {
                 const expiry = expiryOf(k, now);
                 return (
-                  <tr key={k.id}>
+                  <tr key={k.id} data-key-name={k.name}>
                     <td className="py-2">
                       {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
                     </td>
