@@ -42,10 +42,10 @@ export async function getViewer(headers: Headers, asked: AskedFor): Promise<View
     const found = await findLiveApiKey(db, { hash: hashApiKey(key) });
     if (!found) return null;
     if (found.expiredAt) throw keyExpired(found.expiredAt);
-    if (!keyScopeAllows(found.scope, asked.method, asked.pathname))
-      throw new AppError("forbidden", scopeRefusal(found.scope, asked.method, asked.pathname));
     const membership = await getMembershipForUser(db, { userId: found.userId, activeOrgId: found.orgId });
     if (!membership || membership.orgId !== found.orgId) return null;
+    if (!keyScopeAllows(found.scope, asked.method, asked.pathname))
+      throw new AppError("forbidden", scopeRefusal(found.scope, asked.method, asked.pathname));
     return { userId: found.userId, name: found.name, email: found.email, ...membership, keyScope: found.scope };
   }
   const auth = await getAuth();
@@ -116,7 +116,8 @@ export async function requirePageViewer(roles: readonly Role[] = ANY_ROLE): Prom
   try {
     viewer = await getViewer(h, { method: "GET", pathname: askedPath(h) });
   } catch (err) {
-    if (err instanceof AppError && err.code === "forbidden") forbidden();
+    if (!(err instanceof AppError)) throw err;
+    if (err.code === "forbidden") forbidden();
     viewer = null; // an expired key: sign in instead
   }
   if (!viewer) redirect(loginUrl(h));
