@@ -13,8 +13,11 @@ import {
   primaryKey,
   customType,
   real,
+  check,
   type AnyPgColumn,
 } from "drizzle-orm/pg-core";
+import { sql } from "drizzle-orm";
+import type { ApiKeyScope } from "@/lib/security/key-scope";
 
 /** Raw bytes (uploaded files, columnar point blobs). */
 const bytea = customType<{ data: Uint8Array; driverData: Uint8Array }>({ dataType: () => "bytea" });
@@ -273,8 +276,15 @@ export const apiKey = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
     revokedAt: timestamp("revoked_at", { withTimezone: true }),
+    /** What the key may do within its creator's role: full, upload or read (lib/security/key-scope.ts). */
+    scope: text("scope").$type<ApiKeyScope>().notNull().default("full"),
+    /** From this instant on the key answers 401; null for a key that does not expire. */
+    expiresAt: timestamp("expires_at", { withTimezone: true }),
   },
-  (t) => [index("api_key_org_idx").on(t.orgId)],
+  (t) => [
+    index("api_key_org_idx").on(t.orgId),
+    check("api_key_scope_known", sql`${t.scope} in ('full', 'upload', 'read')`),
+  ],
 );
 
 /** One comparison of a survey against as-planted records. */

@@ -8,6 +8,7 @@ import { findLiveApiKey } from "@/db/queries/api-keys";
 import { bearerKey, hashApiKey } from "@/lib/api-keys";
 import { AppError, errorResponse, notSignedIn, wrongRole } from "@/lib/errors";
 import { ANY_ROLE, ROLE_LABEL, type Role } from "@/lib/roles";
+import { type ApiKeyScope, keyScopeAllows, scopeRefusal } from "@/lib/security/key-scope";
 
 /** The signed-in person and the organisation and role they act in. */
 export interface Viewer {
@@ -17,21 +18,35 @@ export interface Viewer {
   orgId: string;
   orgName: string;
   role: Role;
+  /** Set when the request came with an API key: what that key may do within `role`. */
+  keyScope?: ApiKeyScope;
+}
+
+/** What is being asked for: the key scope check needs it (a page is a GET, a server action a POST). */
+export interface AskedFor {
+  method: string;
+  /** Path without the query string, e.g. /api/fields. */
+  pathname: string;
 }
 
 /**
  * Session (or API key) → membership. Null when not signed in, the key is unknown or revoked, or the
- * person is not a member of the organisation. A key acts with its creator's current role in the key's organisation.
+ * person is not a member of the organisation. A key acts with its creator's current role in the key's organisation,
+ * narrowed by its scope: an expired key throws 401 saying when it expired, a request outside the key's scope 403
+ * naming the scope. Every route handler, page and server action comes through here, so this is the one place.
  */
-export async function getViewer(headers: Headers): Promise<Viewer | null> {
+export async function getViewer(headers: Headers, asked: AskedFor): Promise<Viewer | null> {
   const key = bearerKey(headers);
   if (key) {
     const db = await getDb();
-    const owner = await findLiveApiKey(db, { hash: hashApiKey(key) });
-    if (!owner) return null;
-    const membership = await getMembershipForUser(db, { userId: owner.userId, activeOrgId: owner.orgId });
-    if (!membership || membership.orgId !== owner.orgId) return null;
-    return { userId: owner.userId, name: owner.name, email: owner.email, ...membership };
+    const found = await findLiveApiKey(db, { hash: hashApiKey(key) });
+    if (!found) return null;
+    if (found.expiredAt) throw keyExpired(found.expiredAt);
+    const membership = await getMembershipForUser(db, { userId: found.userId, activeOrgId: found.orgId });
+    if (!membership || membership.orgId !== found.orgId) return null;
+    if (!keyScopeAllows(found.scope, asked.method, asked.pathname))
+      throw new AppError("forbidden", scopeRefusal(found.scope, asked.method, asked.pathname));
+    return { userId: found.userId, name: found.name, email: found.email, ...membership, keyScope: found.scope };
   }
   const auth = await getAuth();
   const session = await auth.api.getSession({ headers });
@@ -45,13 +60,25 @@ export async function getViewer(headers: Headers): Promise<Viewer | null> {
   return { userId: session.user.id, name: session.user.name, email: session.user.email, ...membership };
 }
 
+function keyExpired(at: Date): AppError {
+  const [day, time] = at.toISOString().slice(0, 16).split("T");
+  return new AppError(
+    "unauthenticated",
+    `This API key expired on ${day} at ${time} UTC. An owner can create a new key under API keys.`,
+  );
+}
+
 /**
- * The one access check. 401 without a session, 403 for a role not in `roles`.
- * Organisation scoping is the caller's next step: every query takes `viewer.orgId`,
+ * The one access check. 401 without a session, 403 for a role not in `roles` or a request outside the API key's
+ * scope. Organisation scoping is the caller's next step: every query takes `viewer.orgId`,
  * and a record of another organisation is reported as not found (404), never as forbidden.
  */
-export async function requireViewer(headers: Headers, roles: readonly Role[] = ANY_ROLE): Promise<Viewer> {
-  const viewer = await getViewer(headers);
+export async function requireViewer(
+  headers: Headers,
+  asked: AskedFor,
+  roles: readonly Role[] = ANY_ROLE,
+): Promise<Viewer> {
+  const viewer = await getViewer(headers, asked);
   if (!viewer) throw notSignedIn();
   if (!roles.includes(viewer.role)) throw wrongRole(roles.map((r) => ROLE_LABEL[r]).join(" or "));
   return viewer;
@@ -69,7 +96,11 @@ export function guardedRoute<P = Record<string, never>>(
 ) {
   return async (req: Request, ctx: RouteContext<P>): Promise<Response> => {
     try {
-      const viewer = await requireViewer(req.headers, roles);
+      const viewer = await requireViewer(
+        req.headers,
+        { method: req.method, pathname: new URL(req.url).pathname },
+        roles,
+      );
       const params = ctx?.params ? await ctx.params : ({} as P);
       return await fn({ req, viewer, params });
     } catch (err) {
@@ -78,13 +109,25 @@ export function guardedRoute<P = Record<string, never>>(
   };
 }
 
-/** For server components: sign-in page without a session, 403 page for the wrong role. */
+/** For server components: sign-in page without a session, 403 page for the wrong role or an API key's scope. */
 export async function requirePageViewer(roles: readonly Role[] = ANY_ROLE): Promise<Viewer> {
   const h = await nextHeaders();
-  const viewer = await getViewer(h);
+  let viewer: Viewer | null;
+  try {
+    viewer = await getViewer(h, { method: "GET", pathname: askedPath(h) });
+  } catch (err) {
+    if (!(err instanceof AppError)) throw err;
+    if (err.code === "forbidden") forbidden();
+    viewer = null; // an expired key: sign in instead
+  }
   if (!viewer) redirect(loginUrl(h));
   if (!roles.includes(viewer.role)) forbidden();
   return viewer;
+}
+
+/** The path of the page or action asked for (proxy.ts passes it in x-plotproof-path), without its query string. */
+function askedPath(h: Headers): string {
+  return (h.get("x-plotproof-path") ?? "").split("?")[0];
 }
 
 /** The sign-in page, returning to the page asked for (proxy.ts passes it in x-plotproof-path). */
@@ -95,9 +138,10 @@ function loginUrl(h: Headers): string {
     : "/login";
 }
 
-/** For server actions: the same checks, reported as a typed error state instead of a throw. */
+/** For server actions (a POST to the page's path): the same checks, reported as a typed error state instead of a throw. */
 export async function actionViewer(roles: readonly Role[]): Promise<Viewer> {
-  return requireViewer(await nextHeaders(), roles);
+  const h = await nextHeaders();
+  return requireViewer(h, { method: "POST", pathname: askedPath(h) }, roles);
 }
 
 export { AppError };

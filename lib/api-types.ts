@@ -8,6 +8,7 @@ import type { ToleranceProfile } from "@/lib/audit/profile";
 import type { AuditSettings } from "@/lib/audit/settings";
 import type { Verdict } from "@/lib/audit/verdict";
 import type { Role } from "@/lib/roles";
+import type { ApiKeyScope } from "@/lib/security/key-scope";
 
 export type { Verdict, Criterion } from "@/lib/audit/verdict";
 export type { AuditSummary } from "@/lib/audit/types";
@@ -199,6 +200,10 @@ export interface ApiKeyDto {
   createdAt: string;
   lastUsedAt: string | null;
   revokedAt: string | null;
+  /** What the key may do within its creator's role. */
+  scope: ApiKeyScope;
+  /** From this instant on the key is refused; null when it does not expire. */
+  expiresAt: string | null;
 }
 
 export interface MeDto {

@@ -3,6 +3,7 @@ import { and, desc, eq, isNull } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { apiKey, user } from "@/db/schema";
 import type { ApiKeyDto } from "@/lib/api-types";
+import type { ApiKeyScope } from "@/lib/security/key-scope";
 import { logActivity } from "./activity";
 
 export async function listApiKeys(db: DB, { orgId }: { orgId: string }): Promise<ApiKeyDto[]> {
@@ -15,6 +16,8 @@ export async function listApiKeys(db: DB, { orgId }: { orgId: string }): Promise
       createdAt: apiKey.createdAt,
       lastUsedAt: apiKey.lastUsedAt,
       revokedAt: apiKey.revokedAt,
+      scope: apiKey.scope,
+      expiresAt: apiKey.expiresAt,
     })
     .from(apiKey)
     .innerJoin(user, eq(user.id, apiKey.userId))
@@ -25,12 +28,21 @@ export async function listApiKeys(db: DB, { orgId }: { orgId: string }): Promise
     createdAt: r.createdAt.toISOString(),
     lastUsedAt: r.lastUsedAt?.toISOString() ?? null,
     revokedAt: r.revokedAt?.toISOString() ?? null,
+    expiresAt: r.expiresAt?.toISOString() ?? null,
   }));
 }
 
 export async function insertApiKey(
   db: DB,
-  k: { orgId: string; userId: string; name: string; prefix: string; hash: string },
+  k: {
+    orgId: string;
+    userId: string;
+    name: string;
+    prefix: string;
+    hash: string;
+    scope: ApiKeyScope;
+    expiresAt: Date | null;
+  },
 ): Promise<string> {
   return db.transaction(async (tx) => {
     const [row] = await tx.insert(apiKey).values(k).returning({ id: apiKey.id });
@@ -40,7 +52,7 @@ export async function insertApiKey(
       action: "api_key.created",
       subjectType: "api_key",
       subjectId: row.id,
-      detail: { name: k.name, prefix: k.prefix },
+      detail: { name: k.name, prefix: k.prefix, scope: k.scope, expiresAt: k.expiresAt?.toISOString() ?? null },
     });
     return row.id;
   });
@@ -68,17 +80,47 @@ export async function revokeApiKey(
   });
 }
 
-/** The live key with this hash: its organisation and creator. Touches last-used time. */
+/** A key that is not revoked: who made it, in which organisation, with which scope and expiry. */
+export interface LiveApiKey {
+  orgId: string;
+  userId: string;
+  name: string;
+  email: string;
+  scope: ApiKeyScope;
+  /** Set when the key expired at or before `now`; such a key must be refused. */
+  expiredAt: Date | null;
+}
+
+/**
+ * The unrevoked key with this hash, or null. An expired key is returned with `expiredAt` set (so the caller can
+ * say when it expired) and its last-used time is left alone; a live key's last-used time is touched.
+ */
 export async function findLiveApiKey(
   db: DB,
-  { hash }: { hash: string },
-): Promise<{ orgId: string; userId: string; name: string; email: string } | null> {
+  { hash, now = new Date() }: { hash: string; now?: Date },
+): Promise<LiveApiKey | null> {
   const [row] = await db
-    .select({ id: apiKey.id, orgId: apiKey.orgId, userId: apiKey.userId, name: user.name, email: user.email })
+    .select({
+      id: apiKey.id,
+      orgId: apiKey.orgId,
+      userId: apiKey.userId,
+      name: user.name,
+      email: user.email,
+      scope: apiKey.scope,
+      expiresAt: apiKey.expiresAt,
+    })
     .from(apiKey)
     .innerJoin(user, eq(user.id, apiKey.userId))
     .where(and(eq(apiKey.hash, hash), isNull(apiKey.revokedAt)));
   if (!row) return null;
-  await db.update(apiKey).set({ lastUsedAt: new Date() }).where(eq(apiKey.id, row.id));
-  return { orgId: row.orgId, userId: row.userId, name: row.name, email: row.email };
+  const expiredAt = row.expiresAt && row.expiresAt.getTime() <= now.getTime() ? row.expiresAt : null;
+  if (!expiredAt) await db.update(apiKey).set({ lastUsedAt: now }).where(eq(apiKey.id, row.id));
+  return {
+    orgId: row.orgId,
+    userId: row.userId,
+    name: row.name,
+    email: row.email,
+    scope: row.scope,
+    expiredAt,
+  };
 }

@@ -5,20 +5,34 @@ import { fetcher, sendJson, ApiError } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { ApiKeyDto } from "@/lib/api-types";
 import { Panel, formatDate } from "@/app/_components/ui";
+import { API_KEY_SCOPES, type ApiKeyScope, SCOPE_LABEL, SCOPE_PURPOSE } from "@/lib/security/key-scope";
+
+/** The expiry date a key stops working on (YYYY-MM-DD, UTC), and whether that has passed. */
+function expiryOf(k: ApiKeyDto, now: number): { day: string; passed: boolean } | null {
+  return k.expiresAt ? { day: k.expiresAt.slice(0, 10), passed: Date.parse(k.expiresAt) <= now } : null;
+}
 
 export function ApiKeysPanel() {
   const { data, mutate } = useSWR<{ keys: ApiKeyDto[] }>(keys.apiKeys(), fetcher);
+  const now = Date.now();
   const [name, setName] = useState("");
+  const [scope, setScope] = useState<ApiKeyScope>("upload");
+  const [expiresOn, setExpiresOn] = useState("");
   const [error, setError] = useState<string | null>(null);
-  const [created, setCreated] = useState<{ name: string; key: string } | null>(null);
+  const [created, setCreated] = useState<{ name: string; key: string; scope: ApiKeyScope } | null>(null);
 
   async function create(e: React.FormEvent) {
     e.preventDefault();
     setError(null);
     try {
-      const res = await sendJson<{ name: string; key: string }>(keys.apiKeys(), "POST", { name });
+      const res = await sendJson<{ name: string; key: string; scope: ApiKeyScope }>(keys.apiKeys(), "POST", {
+        name,
+        scope,
+        expiresOn: expiresOn || null,
+      });
       setCreated(res);
       setName("");
+      setExpiresOn("");
       await mutate();
     } catch (err) {
       setError(err instanceof ApiError ? err.message : "Could not create the key.");
@@ -47,6 +61,32 @@ export function ApiKeysPanel() {
               className="w-72 rounded-plot border border-chalk-line px-3 py-2"
             />
           </div>
+          <div>
+            <label htmlFor="key-expiry" className="mb-1 block text-sm font-medium">
+              Stops working on <span className="font-normal text-ink-faint">(optional, UTC)</span>
+            </label>
+            <input
+              id="key-expiry"
+              type="date"
+              value={expiresOn}
+              onChange={(e) => setExpiresOn(e.target.value)}
+              className="rounded-plot border border-chalk-line px-3 py-2"
+            />
+          </div>
+          <fieldset className="basis-full">
+            <legend className="mb-1 text-sm font-medium">What the key may do</legend>
+            <div className="grid gap-1">
+              {API_KEY_SCOPES.map((s) => (
+                <label key={s} className="flex items-baseline gap-2 text-sm">
+                  <input type="radio" name="key-scope" value={s} checked={scope === s} onChange={() => setScope(s)} />
+                  <span>
+                    <span className="font-medium">{SCOPE_LABEL[s]}</span>
+                    <span className="text-ink-soft"> — {SCOPE_PURPOSE[s]}.</span>
+                  </span>
+                </label>
+              ))}
+            </div>
+          </fieldset>
           <button type="submit" className="rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep">
             Create key
           </button>
@@ -58,7 +98,10 @@ export function ApiKeysPanel() {
         ) : null}
         {created ? (
           <div className="mt-4 rounded-plot border-l-4 border-stake bg-stake-pale p-3 text-sm" role="status">
-            <p className="font-semibold">Copy the key for “{created.name}” now — it is shown only once.</p>
+            <p className="font-semibold">
+              Copy the key for “{created.name}” ({SCOPE_LABEL[created.scope].toLowerCase()}) now — it is shown only
+              once.
+            </p>
             <code className="mt-1 block break-all font-mono text-xs" data-testid="new-api-key">
               {created.key}
             </code>
@@ -79,35 +122,58 @@ export function ApiKeysPanel() {
               <tr>
                 <th className="py-1 font-medium">Name</th>
                 <th className="font-medium">Starts with</th>
+                <th className="font-medium">May do</th>
                 <th className="font-medium">Created</th>
                 <th className="font-medium">Last used</th>
+                <th className="font-medium">Expiry</th>
                 <th className="font-medium">State</th>
                 <th />
               </tr>
             </thead>
             <tbody className="divide-y divide-chalk-deep">
-              {data.keys.map((k) => (
-                <tr key={k.id}>
-                  <td className="py-2">
-                    {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
-                  </td>
-                  <td className="font-mono text-xs">{k.prefix}…</td>
-                  <td>{formatDate(k.createdAt)}</td>
-                  <td>{k.lastUsedAt ? formatDate(k.lastUsedAt) : "never"}</td>
-                  <td>{k.revokedAt ? <span className="text-alarm">revoked</span> : "live"}</td>
-                  <td className="text-right">
-                    {k.revokedAt ? null : (
-                      <button
-                        type="button"
-                        onClick={() => revoke(k.id)}
-                        className="text-sm font-medium text-alarm hover:underline"
-                      >
-                        Revoke
-                      </button>
-                    )}
-                  </td>
-                </tr>
-              ))}
+              {data.keys.map((k) => {
+                const expiry = expiryOf(k, now);
+                return (
+                  <tr key={k.id} data-key-name={k.name}>
+                    <td className="py-2">
+                      {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
+                    </td>
+                    <td className="font-mono text-xs">{k.prefix}…</td>
+                    <td title={SCOPE_PURPOSE[k.scope]}>{SCOPE_LABEL[k.scope]}</td>
+                    <td>{formatDate(k.createdAt)}</td>
+                    <td>{k.lastUsedAt ? formatDate(k.lastUsedAt) : "never"}</td>
+                    <td>
+                      {!expiry ? (
+                        <span className="text-ink-faint">none</span>
+                      ) : expiry.passed ? (
+                        <span className="text-alarm">expired {expiry.day}</span>
+                      ) : (
+                        <span>expires {expiry.day}</span>
+                      )}
+                    </td>
+                    <td>
+                      {k.revokedAt ? (
+                        <span className="text-alarm">revoked</span>
+                      ) : expiry?.passed ? (
+                        <span className="font-medium text-alarm">expired</span>
+                      ) : (
+                        "live"
+                      )}
+                    </td>
+                    <td className="text-right">
+                      {k.revokedAt ? null : (
+                        <button
+                          type="button"
+                          onClick={() => revoke(k.id)}
+                          className="text-sm font-medium text-alarm hover:underline"
+                        >
+                          Revoke
+                        </button>
+                      )}
+                    </td>
+                  </tr>
+                );
+              })}
             </tbody>
           </table>
         )}

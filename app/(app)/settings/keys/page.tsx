@@ -11,7 +11,7 @@ export default async function ApiKeysPage() {
   return (
     <>
       <PageTitle
-        sub={`Keys let ${viewer.orgName}'s own scripts use the API without a browser, e.g. to push the planting machine's nightly export. A key acts as its creator (owner role) in this organisation.`}
+        sub={`Keys let ${viewer.orgName}'s own scripts use the API without a browser, e.g. to push the planting machine's nightly export. A key acts as its creator in this organisation, limited to what its scope allows, until it is revoked or its expiry date comes.`}
       >
         API keys
       </PageTitle>
