@@ -15,7 +15,7 @@ export async function register() {
     console.log(demoCredentialsText());
     if (!process.env.SMTP_HOST) {
       // Demo e-mail goes to a fake SMTP server in this process; owners read it on /outbox.
-      const { ensureDemoMailCapture } = await import("./lib/mail/demo");
+      const { ensureDemoMailCapture } = await import("./lib/server/mail/demo");
       const smtp = await ensureDemoMailCapture();
       console.log(
         `[plotproof] demo e-mail is captured by a fake SMTP server on ${smtp.host}:${smtp.port}; owners read it on /outbox.`,

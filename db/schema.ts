@@ -500,7 +500,7 @@ export const auditSignoff = pgTable(
 );
 
 /**
- * Messages captured by the fake SMTP server of demo mode (lib/mail/fake-smtp.ts), shown to
+ * Messages captured by the fake SMTP server of demo mode (lib/server/mail/fake-smtp.ts), shown to
  * owners on /outbox. Nothing is stored here when a real SMTP relay is configured.
  */
 export const mailCapture = pgTable(
@@ -523,7 +523,7 @@ export const mailCapture = pgTable(
 
 /**
  * Consecutive failed sign-ins per e-mail address (known or not, so the answer never tells which),
- * for the per-account backoff in lib/auth.ts. A successful sign-in deletes the row.
+ * for the per-account backoff in lib/server/auth.ts. A successful sign-in deletes the row.
  */
 export const signInFailure = pgTable("sign_in_failure", {
   email: text("email").primaryKey(),

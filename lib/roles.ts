@@ -51,7 +51,7 @@ export function can(role: Role, permission: Permission): boolean {
   return PERMISSIONS[permission].includes(role);
 }
 
-// Who is told by e-mail (lib/mail/notify.ts).
+// Who is told by e-mail (lib/server/mail/notify.ts).
 
 /** "Waiting for your sign-off" goes to the QA leads; to the owners when the organisation has no QA lead. */
 export const MAILED_ON_SUBMIT: readonly (readonly Role[])[] = [["qa_lead"], ["owner"]];

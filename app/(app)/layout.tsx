@@ -1,4 +1,4 @@
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { AppHeader } from "@/app/_components/app-header";
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { requirePageViewer, type Viewer } from "@/lib/access";
+import { requirePageViewer, type Viewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import { listAudits, listRecentDatasets } from "@/db/queries/audits";

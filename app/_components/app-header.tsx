@@ -10,7 +10,7 @@ import {
   ROLE_LABEL,
   type Role,
 } from "@/lib/roles";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 
 // Each link is shown to the roles its page admits (the page checks the same list).
 const NAV: { href: string; label: string; roles: readonly Role[] }[] = [

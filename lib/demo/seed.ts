@@ -3,8 +3,8 @@ import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { user } from "@/db/schema";
 import { createField } from "@/db/queries/fields";
-import { addMember, createAccountWithOrganisation } from "@/lib/onboarding";
-import { getAuth } from "@/lib/auth";
+import { addMember, createAccountWithOrganisation } from "@/lib/server/onboarding";
+import { getAuth } from "@/lib/server/auth";
 import {
   DEMO_CRS,
   DEMO_FIELDS,

@@ -6,7 +6,7 @@ import { cookieFor, ctx, req, useMemoryDb } from "./helpers";
 import type { DB } from "@/db/client";
 import { member, user } from "@/db/schema";
 import { insertApiKey } from "@/db/queries/api-keys";
-import { hashApiKey } from "@/lib/api-keys";
+import { hashApiKey } from "@/lib/server/api-keys";
 import { DEMO_PASSWORD, DEMO_PEOPLE, OTHER_OWNER } from "@/lib/demo/farm";
 import type { ApiKeyScope } from "@/lib/security/key-scope";
 

@@ -4,7 +4,7 @@ import { forwardedForToPass, trustedProxyList } from "@/lib/server/http/peer-add
 import { useMemoryDb } from "./helpers";
 
 let db: DB;
-let createAuth: typeof import("@/lib/auth").createAuth;
+let createAuth: typeof import("@/lib/server/auth").createAuth;
 let openBefore: boolean;
 let openAfter: boolean;
 const BASE = "http://localhost:3000";
@@ -12,8 +12,8 @@ const PERSON = { name: "Odile Marsh", email: "odile@kestrelfen.example", passwor
 
 beforeAll(async () => {
   db = await useMemoryDb();
-  ({ createAuth } = await import("@/lib/auth"));
-  const { signUpOpen } = await import("@/lib/onboarding");
+  ({ createAuth } = await import("@/lib/server/auth"));
+  const { signUpOpen } = await import("@/lib/server/onboarding");
   openBefore = await signUpOpen();
   const auth = createAuth(db, { baseURL: BASE, secret: "s".repeat(40), signInPerMinute: 1000 });
   await auth.api.signUpEmail({ body: PERSON });

@@ -12,7 +12,7 @@ export async function useMemoryDb(): Promise<DB> {
 
 /** Sign in through better-auth and return the Cookie header a browser would send. */
 export async function cookieFor(email: string, password: string): Promise<string> {
-  const { getAuth } = await import("@/lib/auth");
+  const { getAuth } = await import("@/lib/server/auth");
   const res = await (await getAuth()).api.signInEmail({ body: { email, password }, asResponse: true });
   if (!res.ok) throw new Error(`sign-in failed for ${email}: ${res.status}`);
   return res.headers

@@ -11,8 +11,8 @@ import {
   type Actor,
   type ReviewWorld,
 } from "./review-helpers";
-import { captureMail, type MailCapture } from "@/lib/mail/testing";
-import { findLink } from "@/lib/mail/mime";
+import { captureMail, type MailCapture } from "@/lib/server/mail/testing";
+import { findLink } from "@/lib/server/mail/mime";
 import { sql } from "drizzle-orm";
 import type { ReviewDto } from "@/lib/review/types";
 

@@ -4,8 +4,8 @@ import { cookieFor, ctx, req, useMemoryDb } from "./helpers";
 import type { DB } from "@/db/client";
 import { invitation, member, user } from "@/db/schema";
 import { DEMO_PASSWORD, DEMO_PEOPLE, OTHER_OWNER } from "@/lib/demo/farm";
-import { captureMail, type MailCapture } from "@/lib/mail/testing";
-import { findLink } from "@/lib/mail/mime";
+import { captureMail, type MailCapture } from "@/lib/server/mail/testing";
+import { findLink } from "@/lib/server/mail/mime";
 import type { InvitationDto } from "@/lib/review/types";
 
 let db: DB;
@@ -294,7 +294,7 @@ describe("team -- roles and removal", () => {
 
 describe("password reset by e-mail", () => {
   it("reset -- the link in the e-mail sets a new password once; the old one stops working", async () => {
-    const { getAuth } = await import("@/lib/auth");
+    const { getAuth } = await import("@/lib/server/auth");
     const auth = await getAuth();
     mail.clear();
     await auth.api.requestPasswordReset({ body: { email: person("grower").email, redirectTo: "/reset-password" } });
@@ -311,7 +311,7 @@ describe("password reset by e-mail", () => {
   });
 
   it("reset -- an unknown address sends nothing and says nothing", async () => {
-    const { getAuth } = await import("@/lib/auth");
+    const { getAuth } = await import("@/lib/server/auth");
     mail.clear();
     const r = await (await getAuth()).api.requestPasswordReset({
       body: { email: "nobody@kestrelfen.example", redirectTo: "/reset-password" },

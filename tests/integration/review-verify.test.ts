@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sql } from "drizzle-orm";
 import { ctx, req } from "./helpers";
 import { cloneAudit, setUpReviewWorld, signoffBody, type ReviewWorld } from "./review-helpers";
-import { captureMail, type MailCapture } from "@/lib/mail/testing";
+import { captureMail, type MailCapture } from "@/lib/server/mail/testing";
 import type { VerificationDto } from "@/lib/review/types";
 
 let w: ReviewWorld;

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { z } from "zod";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { can } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listOrgActivity } from "@/db/queries/activity";

@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { CAN_READ_OUTBOX } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listCapturedMail } from "@/db/queries/outbox";
-import { mailConfig } from "@/lib/mail/config";
+import { mailConfig } from "@/lib/server/mail/config";
 import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
 
 export const metadata: Metadata = { title: "Outbox" };

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { can } from "@/lib/roles";
 import { PageTitle } from "@/app/_components/ui";
 import { ProfilesManager } from "./profiles-manager";

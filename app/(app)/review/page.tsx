@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listAuditsInState, type ReviewListItem } from "@/db/queries/review";
 import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";

@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
-import { mailConfig } from "@/lib/mail/config";
+import { mailConfig } from "@/lib/server/mail/config";
 import { PageTitle } from "@/app/_components/ui";
 import { TeamManager } from "./team-manager";
 

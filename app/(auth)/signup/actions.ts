@@ -3,7 +3,7 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { isAPIError } from "better-auth/api";
 import { SignUpInput, fieldErrors } from "@/lib/validation/account";
-import { createAccountWithOrganisation, signUpOpen } from "@/lib/onboarding";
+import { createAccountWithOrganisation, signUpOpen } from "@/lib/server/onboarding";
 
 export interface SignUpState {
   errors: Record<string, string>;

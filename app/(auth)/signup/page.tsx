@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { signUpOpen } from "@/lib/onboarding";
+import { signUpOpen } from "@/lib/server/onboarding";
 import { SignUpForm } from "./signup-form";
 
 export const metadata: Metadata = { title: "Set up your organisation" };

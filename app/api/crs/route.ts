@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { findCrs, listCrs } from "@/geo";
 import { ANY_ROLE } from "@/lib/roles";
 import type { CrsDto } from "@/lib/api-types";

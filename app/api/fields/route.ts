@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { createField, fieldNameTaken, listFields } from "@/db/queries/fields";
 import { AppError } from "@/lib/errors";

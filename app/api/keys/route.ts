@@ -1,7 +1,7 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { insertApiKey, listApiKeys } from "@/db/queries/api-keys";
-import { newApiKey } from "@/lib/api-keys";
+import { newApiKey } from "@/lib/server/api-keys";
 import { CAN_MANAGE_KEYS } from "@/lib/roles";
 import { apiKeyInput } from "@/lib/validation/api-key";
 import { readJsonBody } from "@/lib/validation/request";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listPresets, savePreset } from "@/db/queries/presets";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";

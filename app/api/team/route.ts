@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listTeamMembers } from "@/db/queries/members";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";

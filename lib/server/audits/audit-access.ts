@@ -2,7 +2,7 @@ import "server-only";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
 import { notFound } from "@/lib/errors";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 import { routeId } from "@/lib/validation/request";
 import type { AuditDto } from "@/lib/api-types";
 

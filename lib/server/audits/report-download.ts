@@ -4,7 +4,7 @@ import { getAuditReport } from "@/db/queries/audits";
 import { logActivity } from "@/db/queries/activity";
 import { AppError } from "@/lib/errors";
 import { contentDisposition, fileSlug } from "@/lib/http";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 import { auditForViewer } from "./audit-access";
 
 /** A stored CSV report as a download named after field, audit and computation date. */

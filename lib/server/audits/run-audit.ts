@@ -18,7 +18,7 @@ import { AppError, notFound } from "@/lib/errors";
 import type { AuditDto } from "@/lib/api-types";
 import { buildAuditSettings } from "@/lib/audit/settings";
 import type { AuditCreateInput } from "@/lib/validation/audit";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 
 /**
  * Check the request, create the audit ("computing") and start the computation in the background.

@@ -18,7 +18,7 @@ import { getFieldById } from "@/db/queries/fields";
 import { createDataset } from "@/db/queries/datasets";
 import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 
 export interface IngestRequest {
   viewer: Viewer;

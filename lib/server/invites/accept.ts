@@ -1,6 +1,6 @@
 import "server-only";
 import { isAPIError } from "better-auth/api";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { logActivity } from "@/db/queries/activity";
 import { deleteUserById } from "@/db/queries/organisations";

@@ -16,9 +16,9 @@ import {
   type AuditReviewRow,
 } from "@/db/queries/review";
 import { computeStoredAudit } from "@/lib/server/audits/run-audit";
-import { notifyDecision, notifySubmitted } from "@/lib/mail/notify";
+import { notifyDecision, notifySubmitted } from "@/lib/server/mail/notify";
 import { AppError, notFound } from "@/lib/errors";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 import type { AuditDto } from "@/lib/api-types";
 import { buildAuditSettings } from "@/lib/audit/settings";
 import { routeId } from "@/lib/validation/request";

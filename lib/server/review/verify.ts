@@ -1,7 +1,7 @@
 import "server-only";
 import type { DB } from "@/db/client";
 import { getSignoff, recordVerification, type AuditReviewRow } from "@/db/queries/review";
-import type { Viewer } from "@/lib/access";
+import type { Viewer } from "@/lib/server/access";
 import { sha256Hex } from "@/lib/review/hash";
 import { hashRecord, type RecordSigner, type SignedRecord } from "@/lib/review/record";
 import { jsonDifferences } from "@/lib/review/diff";

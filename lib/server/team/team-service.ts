@@ -1,13 +1,13 @@
 import "server-only";
 import { isAPIError } from "better-auth/api";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { latestActivityFor, logActivity } from "@/db/queries/activity";
 import { getInvitationInOrg, getMemberInOrg, listInvitations, type InvitationRow } from "@/db/queries/team";
-import { bearerKey } from "@/lib/api-keys";
+import { bearerKey } from "@/lib/server/api-keys";
 import { AppError, notFound } from "@/lib/errors";
-import { invitationLink } from "@/lib/mail/notify";
-import type { Viewer } from "@/lib/access";
+import { invitationLink } from "@/lib/server/mail/notify";
+import type { Viewer } from "@/lib/server/access";
 import type { Role } from "@/lib/roles";
 import type { InvitationDto } from "@/lib/review/types";
 

@@ -1,5 +1,5 @@
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
 import { idFromParams } from "@/lib/validation/ids";

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { can } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { AuditResult } from "@/app/_components/audit/audit-result";

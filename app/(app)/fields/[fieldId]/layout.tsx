@@ -1,5 +1,5 @@
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { idFromParams } from "@/lib/validation/ids";

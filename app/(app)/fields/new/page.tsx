@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { CAN_MANAGE_KEYS } from "@/lib/roles";
 import { PageTitle } from "@/app/_components/ui";
 import { ApiKeysPanel } from "./api-keys-panel";

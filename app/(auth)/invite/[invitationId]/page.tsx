@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { headers } from "next/headers";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { getInvitation, userExistsWithEmail } from "@/db/queries/team";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";

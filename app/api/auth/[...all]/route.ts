@@ -1,4 +1,4 @@
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 
 // better-auth's own endpoints: sign-in, sign-up, sign-out, session, organisation.
 export async function GET(req: Request) {

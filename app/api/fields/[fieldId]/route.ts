@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { fieldNameTaken, getFieldById, updateField } from "@/db/queries/fields";
 import { listAudits } from "@/db/queries/audits";

@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { deletePreset } from "@/db/queries/presets";
 import { notFound } from "@/lib/errors";

@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { deleteProfile, getProfileById, profileNameTaken, updateProfile } from "@/db/queries/profiles";
 import { logActivity } from "@/db/queries/activity";

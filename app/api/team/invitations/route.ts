@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { readJsonBody } from "@/lib/validation/request";
 import { invitationsOf, invite, requireBrowserSession } from "@/lib/server/team/team-service";

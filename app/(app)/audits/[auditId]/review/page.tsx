@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
 import { getAuditForReview } from "@/db/queries/review";

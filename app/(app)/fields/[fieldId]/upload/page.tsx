@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { z } from "zod";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";

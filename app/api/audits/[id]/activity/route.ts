@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { listAuditActivity } from "@/db/queries/activity";
 import { reviewAuditFor } from "@/lib/server/review/review-service";

@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { chartData } from "@/db/queries/audits";
 import { ANY_ROLE } from "@/lib/roles";

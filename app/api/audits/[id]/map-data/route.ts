@@ -16,7 +16,7 @@
  */
 import { createHash } from "node:crypto";
 import { z } from "zod";
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getMapContext, getMapExtent, getMapPair, getMapUnpaired, loadMapColumns } from "@/db/queries/map";
 import { AppError, notFound } from "@/lib/errors";

@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { ReturnInput } from "@/lib/review/validation";
 import { readJsonBody } from "@/lib/validation/request";

@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { transitionOf } from "@/lib/review/lifecycle";
 import { SignoffInput } from "@/lib/review/validation";

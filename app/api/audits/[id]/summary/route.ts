@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
 import { auditForViewer } from "@/lib/server/audits/audit-access";

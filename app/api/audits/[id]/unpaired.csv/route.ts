@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { ANY_ROLE } from "@/lib/roles";
 import { downloadReport } from "@/lib/server/audits/report-download";
 

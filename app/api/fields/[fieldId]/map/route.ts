@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldMapSummary } from "@/lib/server/map/field-map";
 import { notFound } from "@/lib/errors";

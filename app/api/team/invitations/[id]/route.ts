@@ -1,4 +1,4 @@
-import { guardedRoute } from "@/lib/access";
+import { guardedRoute } from "@/lib/server/access";
 import { CAN_MANAGE_TEAM } from "@/lib/roles";
 import { AuthRecordId } from "@/lib/validation/ids";
 import { routeId } from "@/lib/validation/request";

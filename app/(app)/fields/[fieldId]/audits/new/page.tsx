@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { requirePageViewer } from "@/lib/access";
+import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { CAN_PREPARE } from "@/lib/roles";

@@ -1,11 +1,11 @@
 import "server-only";
 import { headers as nextHeaders } from "next/headers";
 import { forbidden, redirect } from "next/navigation";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { getMembershipForUser } from "@/db/queries/members";
 import { findLiveApiKey } from "@/db/queries/api-keys";
-import { bearerKey, hashApiKey } from "@/lib/api-keys";
+import { bearerKey, hashApiKey } from "@/lib/server/api-keys";
 import { AppError, errorResponse, notSignedIn, wrongRole } from "@/lib/errors";
 import { ANY_ROLE, ROLE_LABEL, type Role } from "@/lib/roles";
 import { type ApiKeyScope, keyScopeAllows, scopeRefusal } from "@/lib/security/key-scope";

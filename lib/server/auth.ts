@@ -8,8 +8,8 @@ import { createAccessControl } from "better-auth/plugins/access";
 import { defaultStatements, ownerAc, memberAc } from "better-auth/plugins/organization/access";
 import * as schema from "@/db/schema";
 import { getDb, type DB } from "@/db/client";
-import { env } from "@/lib/env";
-import { sendInvitationMail, sendPasswordResetMail } from "@/lib/mail/notify";
+import { env } from "@/lib/server/env";
+import { sendInvitationMail, sendPasswordResetMail } from "@/lib/server/mail/notify";
 import { clearSignInFailures, getSignInFailures, saveSignInFailures } from "@/db/queries/sign-in-failures";
 import { afterFailure, secondsLocked } from "@/lib/security/sign-in-backoff";
 
@@ -17,7 +17,7 @@ import { afterFailure, secondsLocked } from "@/lib/security/sign-in-backoff";
 const RESET_LINK_SECONDS = 60 * 60;
 
 // better-auth's organisation permissions (members, invitations) for our four roles.
-// Plotproof's own permissions are checked by role name in lib/access.ts.
+// Plotproof's own permissions are checked by role name in lib/server/access.ts.
 const ac = createAccessControl(defaultStatements);
 const orgRoles = {
   owner: ac.newRole(ownerAc.statements),

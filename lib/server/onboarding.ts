@@ -1,9 +1,9 @@
 import "server-only";
 import crypto from "node:crypto";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { anyAccountExists, deleteUserById, slugFor } from "@/db/queries/organisations";
-import { env } from "@/lib/env";
+import { env } from "@/lib/server/env";
 import { logActivity } from "@/db/queries/activity";
 import { seedDefaultProfiles } from "@/db/queries/profiles";
 import type { SignUpInput } from "@/lib/validation/account";
