@@ -4,6 +4,7 @@
  */
 export * from "./types";
 export { readPoints, formatFromName, type PointFileFormat } from "./read";
+export { MAX_FIELD_CHARS, MAX_LINE_CHARS } from "./read/csv";
 export { readCsv, detectDelimiter, type ReadOptions, type ReadResult } from "./read/csv";
 export { readGeoJson } from "./read/geojson";
 export { appendReadResults } from "./read/merge";
@@ -42,6 +43,14 @@ export {
 } from "./project";
 export { validateTable, type TableCheckOptions } from "./validate/table";
 export { validateFiles, type FilesCheckOptions, type FileInCrs } from "./validate/files";
+export {
+  checkAgainstField,
+  checkFileKind,
+  lonLatBox,
+  type FieldReference,
+  type FieldFileCounts,
+  type FieldFitOptions,
+} from "./validate/field";
 export { IssueCollector, formatIssue, hasErrors, DEFAULT_ISSUE_CAP } from "./validate/issues";
 export { indexIds, findDuplicateIds, fnv1a, IdColumn, IdColumnBuilder, type IdIndex } from "./ids";
 export {

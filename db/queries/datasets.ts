@@ -228,3 +228,51 @@ export async function latestPlantedDatasetId(
     .limit(1);
   return row?.id ?? null;
 }
+
+/** Earlier uploads of the same bytes (same SHA-256) to a field, oldest first. */
+export async function findDatasetsBySha(
+  db: DB,
+  { orgId, fieldId, sha256 }: { orgId: string; fieldId: string; sha256: string },
+): Promise<{ fileName: string; kind: string; uploadedAt: string }[]> {
+  const rows = await db
+    .select({ fileName: dataset.fileName, kind: dataset.kind, uploadedAt: dataset.uploadedAt })
+    .from(dataset)
+    .where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId), eq(dataset.sha256, sha256)))
+    .orderBy(dataset.uploadedAt);
+  return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString() }));
+}
+
+/** The field's saved files (newest first, at most `limit`) with their parsed points, to compare a new file with. */
+export async function listFieldPoints(
+  db: DB,
+  { orgId, fieldId, limit }: { orgId: string; fieldId: string; limit: number },
+): Promise<{ fileName: string; kind: string; crs: string; rowCount: number; table: PointTable }[]> {
+  const rows = await db
+    .select({
+      fileName: dataset.fileName,
+      kind: dataset.kind,
+      crs: dataset.crs,
+      rowCount: dataset.rowCount,
+      points: dataset.points,
+    })
+    .from(dataset)
+    .where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId)))
+    .orderBy(desc(dataset.uploadedAt))
+    .limit(limit);
+  return rows.filter((r) => r.points).map(({ points, ...r }) => ({ ...r, table: decodePoints(points as Uint8Array) }));
+}
+
+/** Row counts of all of a field's files, by kind. */
+export async function fieldRowCounts(
+  db: DB,
+  { orgId, fieldId }: { orgId: string; fieldId: string },
+): Promise<{ planted: number[]; survey: number[] }> {
+  const rows = await db
+    .select({ kind: dataset.kind, rowCount: dataset.rowCount })
+    .from(dataset)
+    .where(and(eq(dataset.orgId, orgId), eq(dataset.fieldId, fieldId)));
+  return {
+    planted: rows.filter((r) => r.kind === "planted").map((r) => r.rowCount),
+    survey: rows.filter((r) => r.kind === "survey").map((r) => r.rowCount),
+  };
+}

@@ -69,7 +69,20 @@ export function normaliseHeader(name: string): string {
 
 /** Accepted names (already normalised) per role and coordinate kind. Own list; common spellings in exports. */
 const NAMES = {
-  id: ["plantid", "id", "plant", "plantno", "plantnumber"],
+  id: [
+    "plantid",
+    "id",
+    "plant",
+    "plantno",
+    "plantnumber",
+    "pointid",
+    "point",
+    "pointname",
+    "pointno",
+    "name",
+    "station",
+    "checkpoint",
+  ],
   lat: ["lat", "latitude"],
   lon: ["lon", "lng", "long", "longitude"],
   easting: ["easting", "x", "e", "east"],

@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { detectDelimiter, readCsv } from "./csv";
+import { detectDelimiter, MAX_FIELD_CHARS, MAX_LINE_CHARS, readCsv } from "./csv";
 import { parseSpanTo } from "./sink";
 
 // Sources: RFC 4180 (quoting rules; the oracle used below is papaparse's own Papa.parse on the whole
@@ -246,5 +246,41 @@ describe("csv", () => {
     expect(detectDelimiter("id;lat;lon")).toBe(";");
     expect(detectDelimiter("id\tlat\tlon")).toBe("\t");
     expect(detectDelimiter('"a;b",lat,lon')).toBe(",");
+  });
+});
+
+describe("readCsv limits", () => {
+  it("readCsv -- a field over 1,000 characters is an error naming line and column, fast and quoted paths alike", async () => {
+    // common practice, no source: limits of our own so a pasted blob is never stored and sent back
+    const long = "x".repeat(MAX_FIELD_CHARS + 1);
+    for (const cell of [long, `"${long}"`]) {
+      const r = await readCsv(`plant_id,crop,lat,lon\nP1,lettuce,52.1,9.2\nP2,${cell},52.1,9.2\n`, {
+        source: "long.csv",
+        role: "planted",
+      });
+      expect(r.table).toBeNull();
+      expect(r.issues).toEqual([
+        expect.objectContaining({ severity: "error", code: "field-too-long", line: 3, column: "crop" }),
+      ]);
+      expect(r.issues[0].message).toContain("1,001 characters");
+    }
+  });
+
+  it("readCsv -- a line over 10,000 characters is an error naming the line", async () => {
+    // common practice, no source
+    const many = Array.from({ length: 30 }, () => "y".repeat(400)).join(",");
+    const r = await readCsv(`plant_id,lat,lon,notes\nP1,52.1,9.2,${many}\n`, { source: "wide.csv", role: "planted" });
+    expect(r.table).toBeNull();
+    expect(r.issues).toEqual([expect.objectContaining({ code: "line-too-long", line: 2 })]);
+    expect(r.issues[0].message).toContain(`at most ${MAX_LINE_CHARS.toLocaleString("en")}`);
+  });
+
+  it("readCsv -- a 2 MB value in the last column is refused, not stored", async () => {
+    const r = await readCsv(`plant_id,lat,lon,crop\nP1,52.1,9.2,${"z".repeat(2 << 20)}\n`, {
+      source: "huge.csv",
+      role: "planted",
+    });
+    expect(r.table).toBeNull();
+    expect(r.issues[0]).toMatchObject({ code: "field-too-long", line: 2, column: "crop" });
   });
 });

@@ -3,7 +3,7 @@ import type { FileRole, InputIssue, PointTable } from "../types";
 import { IssueCollector } from "../validate/issues";
 import { planColumns, type ColumnGuess, type ColumnMapping } from "./columns";
 import { RowSink, tallyIssues, type Tally } from "./sink";
-import { NotTextError, textChunks, type TextInput } from "./text";
+import { encodingIssue, NotTextError, textChunks, type TextInput, type TextReport } from "./text";
 import { parseNumber } from "./values";
 
 /** Options of the file readers. */
@@ -65,6 +65,11 @@ export function headerEnd(text: string, newline: string): number {
 /** A quoted field longer than this (unbalanced quote) stops reading. */
 const MAX_PENDING = 32 << 20;
 
+/** The longest field (cell) a file may hold, in characters; a longer one is an error naming line and column. */
+export const MAX_FIELD_CHARS = 1000;
+/** The longest line a file may hold, in characters; a longer one is an error naming the line. */
+export const MAX_LINE_CHARS = 10_000;
+
 const EMPTY_GUESS: ColumnGuess = { header: [], columns: {}, coordinates: null, rawCoordinates: null, unused: [] };
 
 /**
@@ -124,6 +129,37 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   let stopped = false;
   let sawHeader = false;
   let sawQuote = false;
+  const encoding: TextReport = { encoding: "utf-8", firstNonAsciiLine: -1, firstNonAsciiText: "" };
+
+  /** A line or field over the limits: an error, the row is left out. */
+  const tooLong = (at: number, lineChars: number, fieldIndex: number, fieldChars: number, sample: string): void => {
+    if (fieldChars <= MAX_FIELD_CHARS) {
+      issues.add({
+        severity: "error",
+        code: "line-too-long",
+        file,
+        line: at,
+        value: `${sample.slice(0, 40)}…`,
+        message: `the line is ${lineChars.toLocaleString("en")} characters long; lines may be at most ${MAX_LINE_CHARS.toLocaleString("en")}`,
+      });
+      return;
+    }
+    issues.add({
+      severity: "error",
+      code: "field-too-long",
+      file,
+      line: at,
+      column: columns.header[fieldIndex] ?? `field ${fieldIndex + 1}`,
+      value: `${sample.slice(0, 40)}…`,
+      message: `the value is ${fieldChars.toLocaleString("en")} characters long; a value may be at most ${MAX_FIELD_CHARS.toLocaleString("en")}`,
+    });
+  };
+
+  /** Index of the first field over MAX_FIELD_CHARS, or -1. */
+  const longField = (row: readonly string[]): number => {
+    for (let k = 0; k < row.length; k++) if (row[k].length > MAX_FIELD_CHARS) return k;
+    return -1;
+  };
 
   const start = (text: string): boolean => {
     // Decide newline and delimiter from the first line.
@@ -150,6 +186,14 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       line++;
       first++;
       sawHeader = true;
+      const longHeader = longField(header);
+      const headerChars = header.reduce((n, h) => n + h.length + 1, -1);
+      if (longHeader >= 0 || headerChars > MAX_LINE_CHARS) {
+        const k = Math.max(longHeader, 0);
+        tooLong(1, headerChars, k, header[k].length, header[k]);
+        stopped = true;
+        return;
+      }
       if (header.every((h) => h.trim() !== "" && Number.isFinite(parseNumber(h, delimiter !== ",") ?? NaN))) {
         issues.add({
           severity: "error",
@@ -185,6 +229,12 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       if (slowPath)
         for (const cell of row) for (let k = cell.indexOf("\n"); k >= 0; k = cell.indexOf("\n", k + 1)) line++;
       if (row.length === 1 && row[0].trim() === "") continue;
+      const long = longField(row);
+      const rowChars = row.reduce((n, c) => n + c.length + 1, -1);
+      if (long >= 0 || rowChars > MAX_LINE_CHARS) {
+        tooLong(at, rowChars, Math.max(long, 0), long >= 0 ? row[long].length : 0, row[Math.max(long, 0)]);
+        continue;
+      }
       const err = errorRows.get(r);
       if (err !== undefined) {
         issues.add({
@@ -221,7 +271,8 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       // One pass over the row's characters: field boundaries up to the newline.
       let f = 0,
         a = pos,
-        j = pos;
+        j = pos,
+        longAt = -1;
       for (; j < n; j++) {
         const c = text.charCodeAt(j);
         if (c === dc) {
@@ -229,6 +280,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
             starts[f] = a;
             ends[f] = j;
           }
+          if (j - a > MAX_FIELD_CHARS && longAt < 0) longAt = f;
           f++;
           a = j + 1;
         } else if (c === nlCode) break;
@@ -236,6 +288,19 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
       if (j >= n && !last) break; // unfinished row: carried to the next slice
       let end = j;
       if (crlf && end > a && text.charCodeAt(end - 1) === 13) end--;
+      if (longAt >= 0 || end - a > MAX_FIELD_CHARS || end - pos > MAX_LINE_CHARS) {
+        line++;
+        const k = longAt >= 0 ? longAt : end - a > MAX_FIELD_CHARS ? f : -1;
+        let fs = pos,
+          fe = end;
+        if (k >= 0) {
+          for (let q = 0; q < k; q++) fs = text.indexOf(delimiter, fs) + 1;
+          if (k < f) fe = text.indexOf(delimiter, fs);
+        }
+        tooLong(line, end - pos, Math.max(k, 0), k < 0 ? 0 : fe - fs, text.substring(fs, Math.min(fe, fs + 40)));
+        pos = j + 1;
+        continue;
+      }
       if (f <= lastNeeded) {
         starts[f] = a;
         ends[f] = end;
@@ -284,7 +349,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   };
 
   try {
-    for await (const chunk of textChunks(input, options.sliceChars)) {
+    for await (const chunk of textChunks(input, options.sliceChars, encoding)) {
       if (stopped) break;
       let text = pending + chunk;
       if (parser === null) {
@@ -318,12 +383,15 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
   } catch (e) {
     issues.add({
       severity: "error",
-      code: e instanceof NotTextError ? "file-not-text" : "file-unreadable",
+      code: e instanceof NotTextError ? e.code : "file-unreadable",
       file,
+      line: e instanceof NotTextError ? e.line : undefined,
       message: e instanceof Error ? e.message : String(e),
     });
     return { table: null, issues: issues.finish(), columns };
   }
+  const notUtf8 = encodingIssue(encoding, file);
+  if (notUtf8) issues.add(notUtf8);
 
   if (!sawHeader && !issues.hasErrors()) {
     issues.add({

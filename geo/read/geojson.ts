@@ -1,8 +1,8 @@
 import { IssueCollector } from "../validate/issues";
-import type { ReadOptions, ReadResult } from "./csv";
+import { MAX_FIELD_CHARS, type ReadOptions, type ReadResult } from "./csv";
 import { planColumns, type ColumnGuess, type CoordinateKind } from "./columns";
 import { RowSink, tallyIssues } from "./sink";
-import { NotTextError, readAllText, type TextInput } from "./text";
+import { encodingIssue, NotTextError, readAllText, type TextInput, type TextReport } from "./text";
 
 const FEATURE_ID = "@id";
 
@@ -24,8 +24,9 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   const file = options.source;
   const empty: ColumnGuess = { header: [], columns: {}, coordinates: null, rawCoordinates: null, unused: [] };
   let doc: unknown;
+  const encoding: TextReport = { encoding: "utf-8", firstNonAsciiLine: -1, firstNonAsciiText: "" };
   try {
-    const text = await readAllText(input);
+    const text = await readAllText(input, encoding);
     if (text.trim() === "") {
       issues.add({
         severity: "error",
@@ -39,13 +40,15 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   } catch (e) {
     issues.add({
       severity: "error",
-      code:
-        e instanceof NotTextError ? "file-not-text" : e instanceof SyntaxError ? "geojson-invalid" : "file-unreadable",
+      code: e instanceof NotTextError ? e.code : e instanceof SyntaxError ? "geojson-invalid" : "file-unreadable",
       file,
+      line: e instanceof NotTextError ? e.line : undefined,
       message: e instanceof SyntaxError ? `not valid JSON: ${e.message}` : e instanceof Error ? e.message : String(e),
     });
     return { table: null, issues: issues.finish(), columns: empty };
   }
+  const notUtf8 = encodingIssue(encoding, file);
+  if (notUtf8) issues.add({ ...notUtf8, line: undefined });
   const fc = doc as { type?: unknown; features?: unknown; crs?: { properties?: { name?: unknown } } };
   if (!fc || typeof fc !== "object" || fc.type !== "FeatureCollection" || !Array.isArray(fc.features)) {
     issues.add({
@@ -188,6 +191,19 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
     const p = f.properties ?? {};
     for (let k = 0; k < keys.length; k++) row[k] = cellText(p[keys[k]]);
     if (header[keys.length] === FEATURE_ID) row[keys.length] = cellText(f.id);
+    const long = row.findIndex((v) => v.length > MAX_FIELD_CHARS);
+    if (long >= 0) {
+      issues.add({
+        severity: "error",
+        code: "field-too-long",
+        file,
+        line,
+        column: header[long],
+        value: `${row[long].slice(0, 40)}…`,
+        message: `the value is ${row[long].length.toLocaleString("en")} characters long; a value may be at most ${MAX_FIELD_CHARS.toLocaleString("en")}`,
+      });
+      continue;
+    }
     sink.add(row, line, c[0], c[1]);
   }
   const table = sink.finish();

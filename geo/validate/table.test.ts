@@ -98,4 +98,38 @@ describe("validateTable", () => {
     ]);
     expect(issues[0].message).toContain("rtk-fixed: 2, rtk-float: 1");
   });
+
+  it("validateTable -- repeated survey point names are an error naming both lines", () => {
+    // common practice, no source: a checkpoint measured twice would count twice in the statistics
+    const ids = IdColumn.from(["CP1", "CP2", "CP1"]);
+    const issues = validateTable(t([9.77, 9.7701, 9.7702], [52.3, 52.3, 52.3], { role: "survey", id: ids }), WGS, {
+      minCheckpoints: 1,
+    });
+    expect(issues).toEqual([
+      expect.objectContaining({ severity: "error", code: "id-duplicate", value: "CP1", line: 4 }),
+    ]);
+    expect(issues[0].message).toContain('survey point name "CP1" appears 2 times, on lines 2, 4');
+  });
+
+  it("validateTable -- a precision column in millimetres inside a metres file is a warning suggesting millimetres", () => {
+    // common practice, no source: RTK and total-station checkpoints state mm to cm, never metres
+    const mm = validateTable(
+      t([9.77, 9.7701, 9.7702], [52.3, 52.3, 52.3], { role: "survey", precision: Float64Array.from([4, 1.5, 2]) }),
+      WGS,
+      { minCheckpoints: 1 },
+    );
+    expect(mm).toEqual([
+      expect.objectContaining({ severity: "warning", code: "precision-implausible", value: "2", line: 2 }),
+    ]);
+    expect(mm[0].message).toContain("millimetres");
+    const metres = validateTable(
+      t([9.77, 9.7701, 9.7702], [52.3, 52.3, 52.3], {
+        role: "survey",
+        precision: Float64Array.from([0.004, 0.0015, 0.002]),
+      }),
+      WGS,
+      { minCheckpoints: 1 },
+    );
+    expect(metres).toEqual([]);
+  });
 });

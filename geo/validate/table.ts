@@ -14,6 +14,17 @@ export interface TableCheckOptions {
   issueCap?: number;
 }
 
+/** A median stated precision above this (metres) is implausible for positions an audit can use (common practice, no source). */
+export const MAX_PLAUSIBLE_PRECISION_M = 0.5;
+
+/** Median of finite values (NaN for none). */
+function median(values: number[]): number {
+  if (values.length === 0) return NaN;
+  const s = values.sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
 /** How many lines to list in one duplicate-id message. */
 const LINES_PER_DUPLICATE = 10;
 
@@ -28,7 +39,9 @@ const LINES_PER_DUPLICATE = 10;
  *   the CRS's area of use (3° of slack), else the axes swapped or the values divided by 1000
  *   (millimetres) are tried and named when they fit.
  * - Plant ids must be unique (an error listing the lines of each repeated id).
- * - Warnings: mixed fix qualities; fewer survey points than `minCheckpoints`.
+ * - Survey point names must be unique too (an error naming each repeated name's lines).
+ * - Warnings: mixed fix qualities; fewer survey points than `minCheckpoints`; a stated precision whose median
+ *   exceeds `MAX_PLAUSIBLE_PRECISION_M` (0.5 m), which suggests millimetres in a metres column.
  *
  * @example validateTable(table, resolveCrs("EPSG:4326")) // [] for a clean file
  */
@@ -183,9 +196,29 @@ export function validateTable(table: PointTable, crs: CrsEntry, options: TableCh
           line: lines[1],
           column: cols.id ?? "id",
           value: id,
-          message: `plant id "${id}" appears ${lines.length} times, on lines ${lines.slice(0, LINES_PER_DUPLICATE).join(", ")}${lines.length > LINES_PER_DUPLICATE ? ", …" : ""}; ids must be unique`,
+          message: `${table.role === "survey" ? "survey point name" : "plant id"} "${id}" appears ${lines.length} times, on lines ${lines.slice(0, LINES_PER_DUPLICATE).join(", ")}${lines.length > LINES_PER_DUPLICATE ? ", …" : ""}; ${table.role === "survey" ? "each checkpoint needs its own name (a point measured twice would count twice)" : "ids must be unique"}`,
         });
       }
+    }
+  }
+
+  // Stated precision in metres: RTK and total-station checkpoints state millimetres to centimetres.
+  const precision = table.precision;
+  if (precision) {
+    const finite = Array.from(precision).filter(Number.isFinite);
+    const stated = median(finite);
+    if (finite.length > 0 && stated > MAX_PLAUSIBLE_PRECISION_M) {
+      const lines: number[] = [];
+      for (let i = 0; i < n && lines.length < 5; i++) if (precision[i] > MAX_PLAUSIBLE_PRECISION_M) lines.push(line[i]);
+      issues.add({
+        severity: "warning",
+        code: "precision-implausible",
+        file,
+        line: lines[0],
+        column: cols.precision ?? "precision",
+        value: String(stated),
+        message: `the stated precision has a median of ${fmt(stated)}, implausible in metres for surveyed or RTK positions (lines ${lines.join(", ")}, …); the column looks like millimetres. Export it in metres (e.g. 0.004 for 4 mm)`,
+      });
     }
   }
 

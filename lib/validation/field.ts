@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { crsProblem } from "@/geo/crs/check";
 
 const crsPattern = /^(EPSG:\d{4,5}|\+proj=.+)$/;
 
@@ -30,7 +31,11 @@ export const FieldInput = z.object({
   crs: z
     .string()
     .trim()
-    .regex(crsPattern, "Use an EPSG code such as EPSG:25831, or a proj string starting with +proj="),
+    .regex(crsPattern, "Use an EPSG code such as EPSG:25831, or a proj string starting with +proj=")
+    .superRefine((spec, ctx) => {
+      const problem = crsPattern.test(spec) ? crsProblem(spec) : null;
+      if (problem) ctx.addIssue({ code: "custom", message: problem });
+    }),
   timeZone: z.string().trim().refine(isIanaZone, "Use an IANA time zone such as Europe/Amsterdam."),
   rowBearingDeg: z.number().min(0).max(180).nullable().default(null),
   bedSpacingM: z.number().positive().max(20).nullable().default(null),

@@ -5,6 +5,7 @@
  */
 import Papa from "papaparse";
 import { detectDelimiter } from "@/geo";
+import { ByteDecoder } from "@/geo/read/text";
 import type { CsvPreview, GeoJsonPreview, PreviewFailure, PreviewRequest, PreviewResult } from "./preview-types";
 
 const HEAD_BYTES = 1 << 20;
@@ -38,10 +39,8 @@ function binaryProblem(b: Uint8Array): string | null {
   }
   if (b.length >= 2 && b[0] === 0x1f && b[1] === 0x8b)
     return "This file is gzip-compressed. Unpack it first and choose the .csv inside.";
-  if (b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff))) {
-    return 'This file is UTF-16 text. Save it as UTF-8 ("CSV UTF-8" in most spreadsheet programs) and choose it again.';
-  }
-  if (b.subarray(0, 4096).includes(0))
+  const utf16 = b.length >= 2 && ((b[0] === 0xff && b[1] === 0xfe) || (b[0] === 0xfe && b[1] === 0xff));
+  if (!utf16 && b.subarray(0, 4096).includes(0))
     return "This file contains binary data, not text. Choose the CSV or GeoJSON export of the machine.";
   return null;
 }
@@ -56,7 +55,14 @@ async function preview(id: number, file: File, rows: number): Promise<PreviewRes
 
 function previewCsv(id: number, file: File, bytes: Uint8Array, rows: number): CsvPreview | PreviewFailure {
   const whole = bytes.length >= file.size;
-  let text = new TextDecoder("utf-8").decode(bytes);
+  // The same choice of encoding as the server's reader (UTF-8, UTF-16 with a byte-order mark, else Windows-1252).
+  const decoder = new ByteDecoder();
+  let text: string;
+  try {
+    text = decoder.push(bytes) + (whole ? decoder.end() : "");
+  } catch (e) {
+    return { id, ok: false, message: `This file cannot be read as text: ${(e as Error).message}.` };
+  }
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   const nl = text.indexOf("\n");
   const cr = text.indexOf("\r");

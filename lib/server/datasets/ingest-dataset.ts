@@ -19,6 +19,7 @@ import { createDataset } from "@/db/queries/datasets";
 import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
 import type { Viewer } from "@/lib/server/access";
+import { checkFileInField } from "./field-checks";
 
 export interface IngestRequest {
   viewer: Viewer;
@@ -91,6 +92,20 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   }
   issues.push(...validateTable(read.table, crs, { columns: read.columns }));
   if (hasErrors(issues)) throw fileError(r.fileName, issues);
+  const sha256 = crypto.createHash("sha256").update(r.bytes).digest("hex");
+  issues.push(
+    ...(await checkFileInField(db, {
+      orgId: r.viewer.orgId,
+      field,
+      kind: r.kind,
+      fileName: r.fileName,
+      table: read.table,
+      crs,
+      columns: read.columns,
+      sha256,
+    })),
+  );
+  if (hasErrors(issues)) throw fileError(r.fileName, issues);
   const warnings = issues.filter((i) => i.severity === "warning");
   if (warnings.length > 0 && !r.acceptWarnings) {
     throw new AppError(
@@ -112,7 +127,6 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     ...read.columns.columns,
     ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}),
   };
-  const sha256 = crypto.createHash("sha256").update(r.bytes).digest("hex");
   const saved = await createDataset(db, {
     orgId: r.viewer.orgId,
     fieldId: field.id,
