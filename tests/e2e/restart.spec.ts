@@ -15,6 +15,9 @@ const PLANTS = 100_000;
 
 let server: ChildProcess | null = null;
 let output = "";
+// Shared with the second test, which runs on the same server and the same uploaded files.
+let port = 0;
+let audit: { fieldId: string; plantedDatasetId: string; surveyDatasetId: string; profileId: string } | null = null;
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -74,6 +77,8 @@ async function auditOf(request: APIRequestContext, id: string): Promise<AuditDto
   return ((await res.json()) as { audit: AuditDto }).audit;
 }
 
+test.describe.configure({ mode: "serial" });
+
 test.afterAll(async () => {
   if (server) await killServer(server);
   server = null;
@@ -84,7 +89,7 @@ test("restart -- an audit killed with SIGKILL while computing is computed again 
 }) => {
   test.setTimeout(180_000);
   fs.rmSync(DATA, { recursive: true, force: true });
-  const port = await freePort();
+  port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   server = await startServer(port);
 
@@ -118,9 +123,8 @@ test("restart -- an audit killed with SIGKILL while computing is computed again 
   const profile = ((await profiles.json()) as { profiles: { id: string; name: string }[] }).profiles.find(
     (p) => p.name === "Inter-row hoeing",
   )!;
-  const started = await page.request.post("/api/audits", {
-    data: { fieldId, plantedDatasetId, surveyDatasetId, profileId: profile.id, title: "Great Drove killed" },
-  });
+  audit = { fieldId, plantedDatasetId, surveyDatasetId, profileId: profile.id };
+  const started = await page.request.post("/api/audits", { data: { ...audit, title: "Great Drove killed" } });
   expect(started.status()).toBe(202);
   const id = ((await started.json()) as { audit: AuditDto }).audit.id;
 
@@ -164,5 +168,54 @@ test("restart -- an audit killed with SIGKILL while computing is computed again 
   await result.waitUntilComputed();
   await expect(result.verdict).toBeVisible();
   await expect(page.getByTestId("audit-failed")).toHaveCount(0);
+  await context.close();
+});
+
+test("restart -- an audit interrupted three times is marked failed with the reason, and Compute again computes it", async ({
+  browser,
+}) => {
+  test.setTimeout(150_000);
+  expect(server && audit, "the first test set up the server and the files").toBeTruthy();
+  const context = await browser.newContext({ baseURL: `http://127.0.0.1:${port}` });
+  const page = await context.newPage();
+  await new SignInPage(page).signInAs("technician");
+  const started = await page.request.post("/api/audits", { data: { ...audit!, title: "Great Drove killed thrice" } });
+  expect(started.status()).toBe(202);
+  const id = ((await started.json()) as { audit: AuditDto }).audit.id;
+  const resumed = async () => {
+    const res = await page.request.get(`/api/audits/${id}/activity`);
+    return ((await res.json()) as { activity: { action: string }[] }).activity.filter(
+      (a) => a.action === "audit.resumed",
+    ).length;
+  };
+
+  // Killed while computing, then twice more right after each restart has started it again.
+  for (let resumptions = 0; resumptions < 2; resumptions++) {
+    await expect.poll(resumed, { timeout: 30_000, intervals: [50] }).toBe(resumptions);
+    expect((await auditOf(page.request, id)).state).toBe("computing");
+    await killServer(server!);
+    output = "";
+    server = await startServer(port);
+    expect(output).toContain(`[plotproof] audit ${id} (Great Drove killed thrice) was interrupted at stage`);
+    expect(output).toContain(`(resumption ${resumptions + 1} of 2)`);
+  }
+  await expect.poll(resumed, { timeout: 30_000, intervals: [50] }).toBe(2);
+  expect((await auditOf(page.request, id)).state).toBe("computing");
+  await killServer(server!);
+  output = "";
+  server = await startServer(port);
+  expect(output).toMatch(/was interrupted at stage \w+ for the third time: marked failed/);
+
+  // The technician sees why, and computes it again from the same files.
+  await page.goto(`/audits/${id}`);
+  const failed = page.getByTestId("audit-failed");
+  await expect(failed).toContainText(/The server stopped while this audit was computing \(stage: [^)]+\), 3 times;/);
+  await page.getByTestId("recompute").click();
+  const result = new AuditResultPage(page);
+  await result.waitUntilComputed();
+  await expect(result.verdict).toBeVisible();
+  await expect(failed).toHaveCount(0);
+  const residuals = await page.request.get(`/api/audits/${id}/residuals?pageSize=1`);
+  expect(((await residuals.json()) as { total: number }).total).toBe(PLANTS);
   await context.close();
 });
