@@ -2,7 +2,18 @@
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { getDb } = await import("./db/client");
-  await getDb();
+  const db = await getDb();
+  // Audits left "computing" by a server that stopped (kill, crash, power): compute them again, or mark them
+  // failed after repeated interruptions. Before the demo seed and any request, so none of this process's own
+  // computations is mistaken for an interrupted one; the computing itself goes on in the background.
+  // Once per process: a second register() (the dev server may load this file again) would find this process's own
+  // computations "computing".
+  const g = globalThis as { __plotproofRecovered?: boolean };
+  if (!g.__plotproofRecovered) {
+    g.__plotproofRecovered = true;
+    const { recoverInterruptedAudits } = await import("./lib/server/audits/recovery");
+    await recoverInterruptedAudits(db);
+  }
   // Bundle the audit worker now (about a second when its sources changed) rather than on the first audit.
   const { workerBundle } = await import("./lib/workers/bundle");
   void workerBundle("lib/audit-job/audit-worker.ts").catch((err) =>

@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { copyRows } from "@/db/copy";
-import { audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
+import { activity, audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
 import type {
   AuditDto,
   AuditListItemDto,
@@ -245,10 +245,114 @@ export async function storeAuditResult(
 
 /** Remove the result rows of an audit that did not finish computing. */
 export async function removeAuditRows(db: DB, { id }: { id: string }): Promise<void> {
-  await db.transaction(async (tx) => {
-    await tx.delete(auditResidual).where(eq(auditResidual.auditId, id));
-    await tx.delete(auditUnpaired).where(eq(auditUnpaired.auditId, id));
-    await tx.delete(auditReport).where(eq(auditReport.auditId, id));
+  await db.transaction((tx) => deleteResultRows(tx, id));
+}
+
+type Tx = Parameters<Parameters<DB["transaction"]>[0]>[0];
+
+async function deleteResultRows(tx: Tx, id: string): Promise<void> {
+  await tx.delete(auditResidual).where(eq(auditResidual.auditId, id));
+  await tx.delete(auditUnpaired).where(eq(auditUnpaired.auditId, id));
+  await tx.delete(auditReport).where(eq(auditReport.auditId, id));
+}
+
+/** An audit left "computing" by a server that stopped, as found at start-up. */
+export interface InterruptedAudit {
+  id: string;
+  orgId: string;
+  title: string;
+  /** The progress stage it had reached (`queued`, `loading`, `computing`, `pairing`, `statistics`, `saving`). */
+  stage: string;
+  /** How often it was already started again since it last began computing (created or computed again). */
+  resumptions: number;
+}
+
+/**
+ * Every audit still "computing", of every organisation. Only meaningful at start-up, before this process
+ * starts a computation of its own: PGlite allows one process per data directory, so none of them is running.
+ */
+export async function listInterruptedAudits(db: DB): Promise<InterruptedAudit[]> {
+  const rows = await db
+    .select({ id: audit.id, orgId: audit.orgId, title: audit.title, stage: audit.progressStage })
+    .from(audit)
+    .where(eq(audit.state, "computing"))
+    .orderBy(asc(audit.createdAt));
+  const out: InterruptedAudit[] = [];
+  for (const r of rows) {
+    const events = await db
+      .select({ action: activity.action })
+      .from(activity)
+      .where(
+        and(
+          eq(activity.orgId, r.orgId),
+          eq(activity.subjectType, "audit"),
+          eq(activity.subjectId, r.id),
+          inArray(activity.action, ["audit.resumed", "audit.recomputed"]),
+        ),
+      )
+      .orderBy(asc(activity.id));
+    const lastRestart = events.findLastIndex((e) => e.action === "audit.recomputed");
+    const resumptions = events.slice(lastRestart + 1).filter((e) => e.action === "audit.resumed").length;
+    out.push({ ...r, stage: r.stage ?? "queued", resumptions });
+  }
+  return out;
+}
+
+/**
+ * Start an interrupted audit again: its partial rows go, progress starts over, and the activity log counts the
+ * resumption with the stage it had reached. The audit stays "computing"; false when it no longer is.
+ */
+export async function resumeInterruptedAudit(
+  db: DB,
+  r: { id: string; orgId: string; stage: string; resumption: number; limit: number },
+): Promise<boolean> {
+  return db.transaction(async (tx) => {
+    const moved = await tx
+      .update(audit)
+      .set({ progress: 0, progressStage: "queued", updatedAt: new Date() })
+      .where(and(eq(audit.id, r.id), eq(audit.orgId, r.orgId), eq(audit.state, "computing")))
+      .returning({ id: audit.id });
+    if (moved.length === 0) return false;
+    await deleteResultRows(tx, r.id);
+    await logActivity(tx, {
+      orgId: r.orgId,
+      actorId: null,
+      action: "audit.resumed",
+      subjectType: "audit",
+      subjectId: r.id,
+      detail: { stage: r.stage, resumption: r.resumption, limit: r.limit },
+    });
+    return true;
+  });
+}
+
+/**
+ * Put a failed audit back to "computing" with its stored files, profile copy and settings (the caller then
+ * computes it). Any rows a failed computation left are removed. False when the audit is not failed (any more).
+ */
+export async function restartFailedAudit(db: DB, r: { id: string; orgId: string; actorId: string }): Promise<boolean> {
+  return db.transaction(async (tx) => {
+    const [before] = await tx
+      .select({ error: audit.error })
+      .from(audit)
+      .where(and(eq(audit.id, r.id), eq(audit.orgId, r.orgId)));
+    const moved = await tx
+      .update(audit)
+      .set({ state: "computing", error: null, progress: 0, progressStage: "queued", updatedAt: new Date() })
+      .where(and(eq(audit.id, r.id), eq(audit.orgId, r.orgId), eq(audit.state, "failed")))
+      .returning({ id: audit.id });
+    if (moved.length === 0) return false;
+    await deleteResultRows(tx, r.id);
+    await logActivity(tx, {
+      orgId: r.orgId,
+      actorId: r.actorId,
+      action: "audit.recomputed",
+      subjectType: "audit",
+      subjectId: r.id,
+      // The failure it had: the audit row no longer shows it, the log keeps it.
+      detail: { previousError: before?.error ?? null },
+    });
+    return true;
   });
 }
 

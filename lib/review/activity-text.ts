@@ -39,6 +39,10 @@ export function activityText(action: string, actorName: string | null, detail: u
       return `The audit was computed: ${str(d?.pairs)} pairs, ${d?.passed ? "passed" : "did not pass"} its profile.`;
     case "audit.failed":
       return `The audit could not be computed: ${str(d?.error)}`;
+    case "audit.resumed":
+      return `The server stopped while the audit was computing (stage ${str(d?.stage)}); it was started again${d?.resumption ? ` (${str(d.resumption)} of ${str(d.limit)})` : ""}.`;
+    case "audit.recomputed":
+      return `${who} started the failed audit again with the same files and settings.`;
     case "report.downloaded":
       return `${who} downloaded the ${str(d?.kind)} CSV.`;
     case "report.opened":

@@ -8,6 +8,7 @@ const EXPECTED: [LifecycleState, LifecycleState, Role[]][] = [
   ["submitted", "signed_off", ["owner", "qa_lead"]],
   ["submitted", "returned", ["owner", "qa_lead"]],
   ["returned", "computing", ["owner", "qa_lead", "technician"]],
+  ["failed", "computing", ["owner", "qa_lead", "technician"]],
 ];
 
 describe("lifecycle", () => {
@@ -36,6 +37,8 @@ describe("lifecycle", () => {
     expect(allowedActions("owner", "submitted")).toEqual(["sign_off", "return"]);
     expect(allowedActions("technician", "submitted")).toEqual([]);
     expect(allowedActions("technician", "computed")).toEqual(["submit"]);
+    expect(allowedActions("technician", "failed")).toEqual(["recompute"]);
+    expect(allowedActions("grower", "failed")).toEqual([]);
   });
 
   it("refusal -- the role is judged before the state (403), then the state (409)", () => {
@@ -48,5 +51,11 @@ describe("lifecycle", () => {
     expect(refusal("owner", "signed_off", "return")?.message).toMatch(/signed off.*can no longer be changed/);
     expect(refusal("technician", "returned", "revise", { hasRevision: true })?.status).toBe(409);
     expect(refusal("technician", "returned", "revise")).toBeNull();
+    expect(refusal("grower", "failed", "recompute")?.status).toBe(403);
+    expect(refusal("technician", "computing", "recompute")).toEqual({
+      status: 409,
+      message: "Compute again is only possible for an audit that failed to compute; it is computing.",
+    });
+    expect(refusal("technician", "failed", "recompute")).toBeNull();
   });
 });

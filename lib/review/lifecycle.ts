@@ -4,7 +4,9 @@
  * Pure and free of server imports, so client components can ask it which buttons to show; the route
  * handlers ask the same table before changing anything.
  *
- *   computing → computed | failed                       (the engine)
+ *   computing → computed | failed                       (the engine; at start-up an interrupted computation
+ *                                                        starts again, and fails after two more interruptions)
+ *   failed    → computing (the same row)                recompute  owner, QA lead, technician
  *   computed  → submitted                               submit     owner, QA lead, technician
  *   submitted → signed_off                              sign off   owner, QA lead
  *   submitted → returned                                return     owner, QA lead
@@ -16,7 +18,7 @@ import { CAN_PREPARE, CAN_REVIEW, type Role } from "@/lib/roles";
 export const AUDIT_STATES = ["computing", "computed", "failed", "submitted", "signed_off", "returned"] as const;
 export type LifecycleState = (typeof AUDIT_STATES)[number];
 
-export const REVIEW_ACTIONS = ["submit", "sign_off", "return", "revise"] as const;
+export const REVIEW_ACTIONS = ["submit", "sign_off", "return", "revise", "recompute"] as const;
 export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
 
 export interface Transition {
@@ -32,6 +34,8 @@ export const TRANSITIONS: readonly Transition[] = [
   { action: "sign_off", from: "submitted", to: "signed_off", roles: CAN_REVIEW },
   { action: "return", from: "submitted", to: "returned", roles: CAN_REVIEW },
   { action: "revise", from: "returned", to: "computing", roles: CAN_PREPARE },
+  // The same files, profile copy and settings again (a failure such as the server stopping may not recur).
+  { action: "recompute", from: "failed", to: "computing", roles: CAN_PREPARE },
 ];
 
 /** Plain names of the states, our own wording. */
@@ -49,6 +53,7 @@ export const ACTION_NAME: Record<ReviewAction, string> = {
   sign_off: "Sign off",
   return: "Return for correction",
   revise: "Start a corrected revision",
+  recompute: "Compute again",
 };
 
 export function isLifecycleState(s: unknown): s is LifecycleState {
@@ -94,7 +99,7 @@ export function refusal(
   if (state !== t.from) {
     return {
       status: 409,
-      message: `${ACTION_NAME[action]} is only possible when the audit is ${STATE_NAME[t.from].toLowerCase()}; it is ${STATE_NAME[state].toLowerCase()}.`,
+      message: `${ACTION_NAME[action]} is only possible ${t.from === "failed" ? "for an audit that failed to compute" : `when the audit is ${STATE_NAME[t.from].toLowerCase()}`}; it is ${STATE_NAME[state].toLowerCase()}.`,
     };
   }
   if (action === "revise" && opts.hasRevision) {

@@ -13,6 +13,7 @@ import { UnpairedLists } from "./unpaired";
 import { AuditCharts } from "./charts";
 import { DownloadLinks } from "./downloads";
 import { AuditProgress } from "./progress";
+import { RecomputeButton } from "./recompute";
 import { STATE_NAME } from "@/lib/review/lifecycle";
 import { ReviewBar } from "@/app/_components/review/review-bar";
 import { ScopeCaution, TermsExplained } from "./glossary";
@@ -107,7 +108,13 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
           <h2 className="text-base font-semibold">The audit could not be computed</h2>
           <p className="mt-1 text-sm">{audit.error ?? "No reason was recorded."}</p>
           {canPrepare ? (
-            <p className="mt-2 text-sm">Check the two files and the pairing settings, then run the audit again.</p>
+            <>
+              <p className="mt-2 text-sm">
+                If the reason lies in the files or the pairing settings, run a new audit with corrected ones; if it does
+                not (the server stopped, for example), compute this audit again.
+              </p>
+              <RecomputeButton auditId={audit.id} />
+            </>
           ) : null}
         </section>
       ) : null}

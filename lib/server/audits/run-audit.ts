@@ -10,6 +10,7 @@ import {
   createAudit,
   failAudit,
   getAuditById,
+  restartFailedAudit,
   setAuditProgress,
   storeAuditResult,
   type RowBatch,
@@ -74,6 +75,27 @@ export async function startAudit(
   if (opts.wait) await run;
   else void run;
   return (await getAuditById(db, { id, orgId }))!;
+}
+
+/**
+ * Compute a failed audit again, as the same audit: its stored files, profile copy and settings. The caller has
+ * checked role and state (lib/review/lifecycle.ts, "recompute"); a second click that lost the race gets 409.
+ */
+export async function recomputeAudit(
+  viewer: Viewer,
+  db: DB,
+  auditId: string,
+  opts: { wait?: boolean } = {},
+): Promise<AuditDto> {
+  const orgId = viewer.orgId;
+  const restarted = await restartFailedAudit(db, { id: auditId, orgId, actorId: viewer.userId });
+  if (!restarted) throw new AppError("conflict", "This audit is no longer failed: someone started it again first.");
+  const run = computeStoredAudit(db, { id: auditId, orgId });
+  if (opts.wait) await run;
+  else void run;
+  const audit = await getAuditById(db, { id: auditId, orgId });
+  if (!audit) throw notFound("Audit");
+  return audit;
 }
 
 /** Progress shown while each stage runs (saving then moves from 0.5 to 0.95 with the rows stored). */
