@@ -11,13 +11,15 @@ import { FormError } from "@/app/_components/form";
 import { InputRow, issuesByField, parseDecimal } from "@/app/_components/audit/form-bits";
 import { formatMm, formatPct } from "@/app/_components/audit/format";
 import { Empty, Panel, formatDate } from "@/app/_components/ui";
+import { TOLERANCE_LIMIT_CEILING_M } from "@/lib/audit/profile";
 
 const profileUrl = (id: string) => `${keys.profiles()}/${encodeURIComponent(id)}`;
 
+const CEILING_MM = TOLERANCE_LIMIT_CEILING_M * 1000;
 const optionalMm = z.string().refine((s) => {
   const v = parseDecimal(s);
-  return v === null || (v > 0 && v <= 1000);
-}, "Enter millimetres between 0 and 1000, or leave empty to not check this limit.");
+  return v === null || (v > 0 && v <= CEILING_MM);
+}, `Enter millimetres between 0 and ${CEILING_MM}, or leave empty to not check this limit.`);
 
 const Schema = z
   .object({
