@@ -110,6 +110,8 @@ export interface AuditDto {
   id: string;
   title: string;
   state: AuditState;
+  /** 1 for the first audit of a series, 2 for its first corrected revision, … */
+  revision: number;
   progress: number;
   progressStage: string | null;
   error: string | null;

@@ -362,6 +362,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
       id: audit.id,
       title: audit.title,
       state: audit.state,
+      revision: audit.revision,
       progress: audit.progress,
       progressStage: audit.progressStage,
       error: audit.error,
@@ -395,6 +396,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
     id: row.id,
     title: row.title,
     state: row.state as AuditState,
+    revision: row.revision,
     progress: row.progress,
     progressStage: row.progressStage,
     error: row.error,
@@ -505,6 +507,20 @@ export async function pageUnpaired(
     .limit(pageSize)
     .offset((page - 1) * pageSize);
   return { rows: rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })), total, page, pageSize };
+}
+
+/** Up to `limit` residual rows after `afterSeq` in pairing order (keyset paging for downloads made from the rows). */
+export async function residualRowsAfter(
+  db: DB,
+  { auditId, afterSeq, limit }: { auditId: string; afterSeq: number; limit: number },
+): Promise<ResidualRowDto[]> {
+  const rows = await db
+    .select(residualCols)
+    .from(auditResidual)
+    .where(and(eq(auditResidual.auditId, auditId), sql`${auditResidual.seq} > ${afterSeq}`))
+    .orderBy(asc(auditResidual.seq))
+    .limit(limit);
+  return rows.map((r) => ({ ...r, pairedBy: r.pairedBy as ResidualRowDto["pairedBy"] }));
 }
 
 const CHART_MAX = 20_000;
