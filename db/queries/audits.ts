@@ -33,8 +33,11 @@ export async function listAudits(
       id: audit.id,
       title: audit.title,
       state: audit.state,
+      revision: audit.revision,
+      profileName: sql<string | null>`${audit.profileSnapshot}->>'name'`,
       fieldId: audit.fieldId,
       fieldName: field.name,
+      fieldTimeZone: field.timeZone,
       updatedAt: audit.updatedAt,
       summary: audit.summary,
       verdict: audit.verdict,
@@ -60,6 +63,7 @@ export interface DatasetListItem {
   rowCount: number;
   fieldId: string;
   fieldName: string;
+  fieldTimeZone: string;
   uploadedAt: string;
 }
 
@@ -75,6 +79,7 @@ export async function listRecentDatasets(
       rowCount: dataset.rowCount,
       fieldId: dataset.fieldId,
       fieldName: field.name,
+      fieldTimeZone: field.timeZone,
       uploadedAt: dataset.uploadedAt,
     })
     .from(dataset)
