@@ -126,6 +126,14 @@ test("walk -- the QA lead's review list names each revision's own profile", asyn
   const row = lead.getByTestId("review-returned").locator(`tr[data-audit-id="${returned.id}"]`);
   await expect(row).toContainText("In-row weeding around plants");
   await expect(row.getByTestId("field-time")).toHaveAttribute("title", /UTC$/);
+  // The revision's review page names its number; the returned one's history shows the field's local times.
+  await lead.goto(`/audits/${revision.id}/review`);
+  await expect(lead.getByRole("heading", { level: 1 })).toContainText("revision 2");
+  await lead.goto(`/audits/${returned.id}/review`);
+  await expect(lead.getByRole("heading", { level: 1 })).not.toContainText("revision");
+  const when = lead.getByTestId("review-events").getByTestId("field-time").first();
+  await expect(when).toHaveText(/CES?T$/);
+  await expect(when).toHaveAttribute("title", /UTC$/);
   await lead.context().close();
 });
 
@@ -133,11 +141,13 @@ test("walk -- revoking an API key asks first; keeping it leaves it live", async 
   await new SignInPage(page).signInAs("owner");
   await page.goto("/settings/keys");
   const keysPage = new ApiKeysPage(page);
-  await keysPage.create("Walk test key", { scope: "Read only" });
-  const row = keysPage.row("Walk test key");
+  // A name of its own, so a database kept from an earlier run holds no second row of that name.
+  const name = `Walk test key ${Date.now()}`;
+  await keysPage.create(name, { scope: "Read only" });
+  const row = keysPage.row(name);
   await expect(row).toContainText("live");
   await row.getByRole("button", { name: "Revoke" }).click();
-  await expect(row.getByTestId("revoke-confirm")).toContainText("Revoke “Walk test key”?");
+  await expect(row.getByTestId("revoke-confirm")).toContainText(`Revoke “${name}”?`);
   await row.getByRole("button", { name: "Keep it" }).click();
   await expect(row.getByTestId("revoke-confirm")).toHaveCount(0);
   await expect(row).toContainText("live");
