@@ -110,6 +110,8 @@ export interface AuditDto {
   id: string;
   title: string;
   state: AuditState;
+  /** 1 for the first audit of a series, 2 for its first corrected revision, … */
+  revision: number;
   progress: number;
   progressStage: string | null;
   error: string | null;
@@ -129,8 +131,14 @@ export interface AuditListItemDto {
   id: string;
   title: string;
   state: AuditState;
+  /** Revision number within its series (1 for the first audit). */
+  revision: number;
+  /** Name of the tolerance profile this revision was computed against. */
+  profileName: string | null;
   fieldId: string;
   fieldName: string;
+  /** The field's IANA time zone, for showing times as the field's local time. */
+  fieldTimeZone: string;
   rmseR: number | null;
   passed: boolean | null;
   updatedAt: string;

@@ -4,8 +4,18 @@ import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import { listAudits, listRecentDatasets } from "@/db/queries/audits";
 import { listTeamMembers } from "@/db/queries/members";
-import { Empty, FieldSafetyNote, PageTitle, Panel, TextLink, formatDate, formatMm } from "@/app/_components/ui";
+import {
+  Empty,
+  FieldSafetyNote,
+  FieldTime,
+  PageTitle,
+  Panel,
+  RevisionTag,
+  TextLink,
+  formatMm,
+} from "@/app/_components/ui";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
+import { STATE_NAME, stateName } from "@/lib/review/lifecycle";
 
 export const metadata: Metadata = { title: "Home" };
 
@@ -53,12 +63,14 @@ async function TechnicianHome({ viewer }: { viewer: Viewer }) {
           ) : (
             <ul className="divide-y divide-chalk-deep text-sm">
               {datasets.map((d) => (
-                <li key={d.id} className="flex justify-between py-2">
+                <li key={d.id} className="flex justify-between gap-3 py-2" data-testid="home-upload">
                   <span>
-                    <span className="font-medium">{d.fileName}</span> · {d.kind === "planted" ? "as-planted" : "survey"}{" "}
-                    · {d.fieldName}
+                    <TextLink href={`/fields/${d.fieldId}`}>{d.fileName}</TextLink> ·{" "}
+                    {d.kind === "planted" ? "as-planted" : "survey"} · {d.fieldName}
                   </span>
-                  <span className="text-ink-faint">{d.rowCount} rows</span>
+                  <span className="text-ink-faint">
+                    {d.rowCount} rows · <FieldTime iso={d.uploadedAt} timeZone={d.fieldTimeZone} />
+                  </span>
                 </li>
               ))}
             </ul>
@@ -78,7 +90,7 @@ async function QaLeadHome({ viewer }: { viewer: Viewer }) {
   ]);
   return (
     <div className="grid gap-6 md:grid-cols-2">
-      <AuditList title="Waiting for review" audits={waiting} empty="Nothing is waiting for your review." />
+      <AuditList title="Waiting for review" audits={waiting} empty="Nothing is waiting for your review." toReview />
       <AuditList title="Recent audits" audits={recent} empty="No audits yet." />
     </div>
   );
@@ -106,7 +118,11 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
                   <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>{" "}
                   <span className="text-ink-faint">· {f.farm}</span>
                 </td>
-                <td>{f.latestAudit ? `${f.latestAudit.title} (${f.latestAudit.state})` : "Not audited yet"}</td>
+                <td>
+                  {f.latestAudit
+                    ? `${f.latestAudit.title} (${stateName(f.latestAudit.state).toLowerCase()})`
+                    : "Not audited yet"}
+                </td>
                 <td>{formatMm(f.latestAudit?.rmseR)}</td>
               </tr>
             ))}
@@ -157,10 +173,13 @@ function AuditList({
   title,
   audits,
   empty,
+  toReview = false,
 }: {
   title: string;
   audits: Awaited<ReturnType<typeof listAudits>>;
   empty: string;
+  /** Link each item to its review page rather than its result. */
+  toReview?: boolean;
 }) {
   return (
     <Panel title={title}>
@@ -169,12 +188,14 @@ function AuditList({
       ) : (
         <ul className="divide-y divide-chalk-deep text-sm">
           {audits.map((a) => (
-            <li key={a.id} className="flex justify-between py-2">
+            <li key={a.id} className="flex justify-between gap-3 py-2" data-testid="home-audit" data-state={a.state}>
               <span>
-                <span className="font-medium">{a.title}</span> · {a.fieldName}
+                <TextLink href={toReview ? `/audits/${a.id}/review` : `/audits/${a.id}`}>{a.title}</TextLink>
+                <RevisionTag revision={a.revision} /> · {a.fieldName}
+                {a.profileName ? <span className="text-ink-faint"> · {a.profileName}</span> : null}
               </span>
               <span className="text-ink-faint">
-                {a.state} · {formatDate(a.updatedAt)}
+                {STATE_NAME[a.state]} · <FieldTime iso={a.updatedAt} timeZone={a.fieldTimeZone} />
               </span>
             </li>
           ))}

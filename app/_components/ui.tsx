@@ -67,3 +67,34 @@ export function formatMm(metres: number | null | undefined): string {
 export function formatDate(iso: string): string {
   return new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
 }
+
+/** A time in an IANA time zone with the zone's short name, e.g. "14 Apr 2026, 23:40 CEST". */
+export function formatInZone(iso: string, timeZone: string): string {
+  return new Date(iso).toLocaleString("en-GB", {
+    day: "numeric",
+    month: "short",
+    year: "numeric",
+    hour: "2-digit",
+    minute: "2-digit",
+    timeZone,
+    timeZoneName: "short",
+  });
+}
+
+/** A time shown in the field's time zone; the same instant in UTC on hover. */
+export function FieldTime({ iso, timeZone }: { iso: string; timeZone: string }) {
+  return (
+    <time dateTime={iso} title={formatDate(iso)} data-testid="field-time">
+      {formatInZone(iso, timeZone)}
+    </time>
+  );
+}
+
+/** "revision 2" after a title when the audit is a corrected revision; nothing for the first. */
+export function RevisionTag({ revision }: { revision: number }) {
+  return revision > 1 ? (
+    <span className="ml-1 rounded-plot border border-chalk-line px-1 text-xs text-ink-soft" data-testid="revision-tag">
+      revision {revision}
+    </span>
+  ) : null;
+}

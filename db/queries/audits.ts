@@ -33,8 +33,11 @@ export async function listAudits(
       id: audit.id,
       title: audit.title,
       state: audit.state,
+      revision: audit.revision,
+      profileName: sql<string | null>`${audit.profileSnapshot}->>'name'`,
       fieldId: audit.fieldId,
       fieldName: field.name,
+      fieldTimeZone: field.timeZone,
       updatedAt: audit.updatedAt,
       summary: audit.summary,
       verdict: audit.verdict,
@@ -60,6 +63,7 @@ export interface DatasetListItem {
   rowCount: number;
   fieldId: string;
   fieldName: string;
+  fieldTimeZone: string;
   uploadedAt: string;
 }
 
@@ -75,6 +79,7 @@ export async function listRecentDatasets(
       rowCount: dataset.rowCount,
       fieldId: dataset.fieldId,
       fieldName: field.name,
+      fieldTimeZone: field.timeZone,
       uploadedAt: dataset.uploadedAt,
     })
     .from(dataset)
@@ -362,6 +367,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
       id: audit.id,
       title: audit.title,
       state: audit.state,
+      revision: audit.revision,
       progress: audit.progress,
       progressStage: audit.progressStage,
       error: audit.error,
@@ -395,6 +401,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
     id: row.id,
     title: row.title,
     state: row.state as AuditState,
+    revision: row.revision,
     progress: row.progress,
     progressStage: row.progressStage,
     error: row.error,
@@ -505,6 +512,20 @@ export async function pageUnpaired(
     .limit(pageSize)
     .offset((page - 1) * pageSize);
   return { rows: rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })), total, page, pageSize };
+}
+
+/** Up to `limit` residual rows after `afterSeq` in pairing order (keyset paging for downloads made from the rows). */
+export async function residualRowsAfter(
+  db: DB,
+  { auditId, afterSeq, limit }: { auditId: string; afterSeq: number; limit: number },
+): Promise<ResidualRowDto[]> {
+  const rows = await db
+    .select(residualCols)
+    .from(auditResidual)
+    .where(and(eq(auditResidual.auditId, auditId), sql`${auditResidual.seq} > ${afterSeq}`))
+    .orderBy(asc(auditResidual.seq))
+    .limit(limit);
+  return rows.map((r) => ({ ...r, pairedBy: r.pairedBy as ResidualRowDto["pairedBy"] }));
 }
 
 const CHART_MAX = 20_000;

@@ -544,6 +544,9 @@ export interface ReviewListItem {
   revision: number;
   fieldId: string;
   fieldName: string;
+  fieldTimeZone: string;
+  /** Name of the tolerance profile this revision was computed against. */
+  profileName: string | null;
   passed: boolean | null;
   /** When it entered its current state, and who moved it there. */
   since: string;
@@ -572,6 +575,8 @@ export async function listAuditsInState(
       revision: audit.revision,
       fieldId: field.id,
       fieldName: field.name,
+      fieldTimeZone: field.timeZone,
+      profileName: sql<string | null>`${audit.profileSnapshot}->>'name'`,
       verdict: audit.verdict,
       updatedAt: audit.updatedAt,
       sha256: auditSignoff.sha256,
@@ -599,6 +604,8 @@ export async function listAuditsInState(
     revision: r.revision,
     fieldId: r.fieldId,
     fieldName: r.fieldName,
+    fieldTimeZone: r.fieldTimeZone,
+    profileName: r.profileName,
     passed: (r.verdict as Verdict | null)?.passed ?? null,
     since: r.atMs !== null && r.atMs !== undefined ? new Date(Number(r.atMs)).toISOString() : r.updatedAt.toISOString(),
     by: r.by,

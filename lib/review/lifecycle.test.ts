@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { AUDIT_STATES, allowedActions, canTransition, refusal, type LifecycleState } from "./lifecycle";
+import { AUDIT_STATES, allowedActions, canTransition, refusal, stateName, type LifecycleState } from "./lifecycle";
 import { ROLES, type Role } from "@/lib/roles";
 
 // The whole table, written out by hand: [from, to, roles that may].
@@ -57,5 +57,13 @@ describe("lifecycle", () => {
       message: "Compute again is only possible for an audit that failed to compute; it is computing.",
     });
     expect(refusal("technician", "failed", "recompute")).toBeNull();
+  });
+});
+
+describe("stateName", () => {
+  it("stateName -- a stored code reads as its plain name; an unknown text never shows as a code", () => {
+    expect(stateName("signed_off")).toBe("Signed off");
+    expect(stateName("returned")).toBe("Returned for correction");
+    expect(stateName("archived")).toBe("Unknown state");
   });
 });

@@ -56,6 +56,11 @@ export const ACTION_NAME: Record<ReviewAction, string> = {
   recompute: "Compute again",
 };
 
+/** The plain name of a state read as text (e.g. from a list query); never the stored code. */
+export function stateName(state: string): string {
+  return isLifecycleState(state) ? STATE_NAME[state] : "Unknown state";
+}
+
 export function isLifecycleState(s: unknown): s is LifecycleState {
   return typeof s === "string" && (AUDIT_STATES as readonly string[]).includes(s);
 }

@@ -5,6 +5,7 @@ import {
   maxDistanceMSchema,
   rowBearingDegSchema,
 } from "@/lib/audit/settings";
+import { SHEET_SEPARATORS, SHEET_UNITS } from "@/lib/audit/spreadsheet-csv";
 import { RecordId } from "./ids";
 
 /** Body of POST /api/audits. Lengths in metres. */
@@ -44,3 +45,14 @@ export const UnpairedQuerySchema = z.object({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(500).default(50),
 });
+
+/**
+ * Query of GET /api/audits/:id/residuals.csv and summary.csv. Neither parameter: the report exactly as the engine
+ * wrote it (the bytes hashed at sign-off). Either one: a spreadsheet variant made from the stored rows, errors in
+ * `units` (default mm), cells separated by `sep` (default comma; "semicolon" also writes decimal commas).
+ */
+export const ReportFormatQuery = z.object({
+  units: z.enum(SHEET_UNITS).optional(),
+  sep: z.enum(SHEET_SEPARATORS).optional(),
+});
+export type ReportFormatQuery = z.infer<typeof ReportFormatQuery>;

@@ -112,8 +112,8 @@ test("audit -- technician creates an audit for Long Acre, reads the verdict, sor
   }
 
   // The per-plant CSV: one row per pair, largest radial errors from bed 3 (the RTK-float stretch).
-  const { download, text } = await result.download("Per-plant errors (CSV)");
-  expect(download.suggestedFilename()).toMatch(/\.csv$/);
+  const { download, text } = await result.download("per-plant errors", "downloads-as-computed");
+  expect(download.suggestedFilename()).toMatch(/_residuals\.csv$/);
   const rows = parseCsv(text);
   expect(rows.length).toBe(s.pairs);
   const byRadial = [...rows].sort((a, b) => Number(b.radial_m) - Number(a.radial_m));
@@ -132,11 +132,26 @@ test("audit -- grower reads the result and downloads, but cannot create audits",
   await expect(result.verdict).toBeVisible();
   await expect(page.getByTestId("headline-figures")).toBeVisible();
 
-  const { text } = await result.download("Per-plant errors (CSV)");
+  const { text } = await result.download("per-plant errors", "downloads-as-computed");
   expect(parseCsv(text).length).toBe(pairs);
-  const summary = await result.download("Summary (CSV)");
+  const summary = await result.download("summary", "downloads-as-computed");
   expect(summary.text).toMatch(/^key,value/m);
   expect(summary.text).toContain(`pairs,${pairs}`);
+
+  // The spreadsheet variants: the browser's locale (en-US: decimal point) picks the comma; millimetres by default.
+  const sheet = await result.download("Per-plant errors (CSV)");
+  expect(sheet.download.suggestedFilename()).toMatch(/_residuals-mm-comma\.csv$/);
+  const sheetLines = sheet.text
+    .replace(/^\uFEFF/, "")
+    .trim()
+    .split("\r\n");
+  expect(sheetLines).toHaveLength(pairs + 1);
+  expect(sheetLines[0]).toContain("distance (mm)");
+  await page.getByLabel("Spreadsheet style").selectOption("semicolon");
+  const semi = await result.download("Summary (CSV)");
+  expect(semi.download.suggestedFilename()).toMatch(/_summary-mm-semicolon\.csv$/);
+  expect(semi.text).toContain("label;value;unit");
+  expect(semi.text).toMatch(/\r\nHorizontal RMSE;\d+,\d;mm\r\n/);
 
   await expect(page.getByTestId("new-audit-link")).toHaveCount(0);
   await expect(page.getByRole("button", { name: /run the audit|new|edit|delete/i })).toHaveCount(0);

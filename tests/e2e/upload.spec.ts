@@ -276,6 +276,10 @@ test("upload -- the survey file needs one column corrected, and its warning acce
 
   await upload.save();
   await expect(page.getByTestId("warning-table")).toContainText("have no plant id");
+  // Warnings are a caution to read (amber), not a red stop: the server step is shown as paused, not stopped.
+  await expect(upload.warnings).toHaveCSS("background-color", "rgb(251, 240, 214)");
+  await expect(page.locator('[aria-label="Server steps"] [data-step-state="paused"]')).toHaveCount(1);
+  await expect(page.locator('[aria-label="Server steps"] [data-step-state="stopped"]')).toHaveCount(0);
   expect(await fileCount(page.request, fieldId)).toBe(0);
   await expect(page.getByRole("button", { name: "Save with these warnings" })).toBeDisabled();
   await upload.acceptWarningsAndSave();

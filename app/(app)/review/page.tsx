@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listAuditsInState, type ReviewListItem } from "@/db/queries/review";
-import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, FieldTime, PageTitle, Panel } from "@/app/_components/ui";
 import { StateBadge } from "@/app/_components/review/state-badge";
 import { CAN_REVIEW } from "@/lib/roles";
 
@@ -28,6 +28,7 @@ function AuditRows({
           <th className="py-1 font-medium">Audit</th>
           <th className="font-medium">Field</th>
           <th className="font-medium">Profile</th>
+          <th className="font-medium">Verdict</th>
           <th className="font-medium">{by}</th>
           <th className="font-medium">When</th>
         </tr>
@@ -42,6 +43,7 @@ function AuditRows({
               {a.revision > 1 ? <span className="text-ink-faint"> · revision {a.revision}</span> : null}
             </td>
             <td>{a.fieldName}</td>
+            <td>{a.profileName ?? "–"}</td>
             <td>
               {a.passed === null ? (
                 "–"
@@ -52,7 +54,9 @@ function AuditRows({
               )}
             </td>
             <td>{a.by ?? "–"}</td>
-            <td className="text-ink-soft">{formatDate(a.since)}</td>
+            <td className="text-ink-soft">
+              <FieldTime iso={a.since} timeZone={a.fieldTimeZone} />
+            </td>
           </tr>
         ))}
       </tbody>

@@ -4,7 +4,7 @@ import useSWR from "swr";
 import { ApiError, fetcher } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { AuditDto, AuditState } from "@/lib/api-types";
-import { formatDate } from "@/app/_components/ui";
+import { FieldTime, RevisionTag } from "@/app/_components/ui";
 import { VerdictPanel } from "./verdict";
 import { HeadlineFigures } from "./headline";
 import { BreakdownTables } from "./groups";
@@ -65,13 +65,22 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
           </Link>
           {" · "}audit
         </p>
-        <h1 className="text-xl font-semibold tracking-tight">{audit.title}</h1>
+        <h1 className="text-xl font-semibold tracking-tight">
+          {audit.title}
+          <RevisionTag revision={audit.revision} />
+        </h1>
         <p className="mt-1 text-sm text-ink-soft">
           <span className="font-medium text-ink" data-testid="audit-state">
-            {STATE_LABEL[audit.state] ?? audit.state}
+            {STATE_LABEL[audit.state] ?? "Unknown state"}
           </span>
-          {" · "}created {formatDate(audit.createdAt)}
-          {audit.computedAt ? <> · computed {formatDate(audit.computedAt)}</> : null}
+          {audit.profile ? <> · against {audit.profile.name}</> : null}
+          {" · "}created <FieldTime iso={audit.createdAt} timeZone={audit.field.timeZone} />
+          {audit.computedAt ? (
+            <>
+              {" "}
+              · computed <FieldTime iso={audit.computedAt} timeZone={audit.field.timeZone} />
+            </>
+          ) : null}
         </p>
         <AuditInputs audit={audit} />
         <div className="mt-3 flex flex-wrap items-center gap-3">
@@ -82,7 +91,7 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
               className="text-sm font-medium text-leaf underline-offset-2 hover:underline"
               data-testid="map-link"
             >
-              Open the field map
+              Open this audit’s map
             </Link>
           ) : null}
           {canPrepare ? (
@@ -97,7 +106,7 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
         </div>
       </header>
 
-      {done ? <ReviewBar auditId={audit.id} /> : null}
+      {done ? <ReviewBar auditId={audit.id} timeZone={audit.field.timeZone} /> : null}
       {audit.state === "computing" ? <AuditProgress audit={audit} /> : null}
       {audit.state === "failed" ? (
         <section

@@ -5,7 +5,8 @@ import useSWR, { useSWRConfig } from "swr";
 import { fetcher, sendJson, type ApiError } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { ReviewDto } from "@/lib/review/types";
-import { formatDate } from "@/app/_components/ui";
+import { FieldTime, formatDate } from "@/app/_components/ui";
+import { RETURN_REASONS } from "@/lib/review/return-reasons";
 import { StateBadge } from "./state-badge";
 
 const button = "rounded-plot bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:bg-leaf-deep disabled:opacity-60";
@@ -15,7 +16,16 @@ const link = "text-sm font-medium text-leaf underline-offset-2 hover:underline";
  * Where an audit stands in review, with the steps the viewer's role allows: submit here, the others on
  * the audit's review page. Place it on any page about one audit.
  */
-export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string; showReviewLink?: boolean }) {
+export function ReviewBar({
+  auditId,
+  showReviewLink = true,
+  timeZone,
+}: {
+  auditId: string;
+  showReviewLink?: boolean;
+  /** The field's time zone: times are shown in it (UTC on hover); UTC when not given. */
+  timeZone?: string;
+}) {
   const { data, error, mutate } = useSWR<{ review: ReviewDto }>(reviewKeys.review(auditId), fetcher);
   const { mutate: mutateOther } = useSWRConfig();
   const [submitting, setSubmitting] = useState(false);
@@ -32,6 +42,7 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
   if (!data) return <div className="h-10" aria-busy="true" />;
   const r = data.review;
   const reviewHref = `/audits/${auditId}/review`;
+  const when = (iso: string) => (timeZone ? <FieldTime iso={iso} timeZone={timeZone} /> : formatDate(iso));
 
   async function submit() {
     setBusy(true);
@@ -65,20 +76,20 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
           {r.state === "submitted" && r.submitted ? (
             <>
               {" "}
-              · submitted by {r.submitted.by}, {formatDate(r.submitted.at)}
+              · submitted by {r.submitted.by}, {when(r.submitted.at)}
             </>
           ) : null}
           {r.state === "signed_off" && r.signoff ? (
             <>
               {" "}
-              · signed off by {r.signoff.signerName}, {formatDate(r.signoff.signedAt)}
+              · signed off by {r.signoff.signerName}, {when(r.signoff.signedAt)}
               {r.signoff.deviation ? " (with deviation)" : ""}
             </>
           ) : null}
           {r.state === "returned" && r.returned ? (
             <>
               {" "}
-              · returned by {r.returned.by}, {formatDate(r.returned.at)}
+              · returned by {r.returned.by}, {when(r.returned.at)}
             </>
           ) : null}
         </span>
@@ -120,6 +131,21 @@ export function ReviewBar({ auditId, showReviewLink = true }: { auditId: string;
           ) : null}
         </div>
       </div>
+      {r.state === "returned" && r.returned ? (
+        <div className="mt-3 border-t border-chalk-deep pt-3 text-sm" data-testid="returned-reasons">
+          <p className="font-medium">Why it was returned</p>
+          <ul className="mt-1 list-disc pl-5">
+            {r.returned.reasons.map((reason) => (
+              <li key={reason}>{RETURN_REASONS[reason] ?? "A reason no longer in the list"}</li>
+            ))}
+          </ul>
+          {r.returned.comment ? (
+            <p className="mt-1 whitespace-pre-line text-ink-soft" data-testid="returned-comment">
+              {r.returned.by}: “{r.returned.comment}”
+            </p>
+          ) : null}
+        </div>
+      ) : null}
       {submitting ? (
         <form
           className="mt-3 flex flex-wrap items-end gap-3 border-t border-chalk-deep pt-3"

@@ -37,7 +37,13 @@ export function FileStep({
     <>
       <FilePreview file={file} preview={preview} roleOf={mapping.roleOf} label={mapping.label} />
       <MappingForm mapping={mapping} upload={upload} preview={preview} field={field} locked={locked} />
-      {upload.progress ? <SaveProgress progress={upload.progress} fileSize={file.size} /> : null}
+      {upload.progress ? (
+        <SaveProgress
+          progress={upload.progress}
+          fileSize={file.size}
+          awaitingAcceptance={upload.result.name === "warnings"}
+        />
+      ) : null}
       <UploadAnswer
         upload={upload}
         file={file}

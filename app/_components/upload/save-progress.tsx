@@ -3,8 +3,20 @@ import { ProgressBar } from "./progress";
 import { STAGES, formatBytes } from "./file-step-shared";
 import type { UploadProgress } from "./use-upload";
 
-/** Step 4: how much of the file has been sent, and which of the server's steps it has reached. */
-export function SaveProgress({ progress, fileSize }: { progress: UploadProgress; fileSize: number }) {
+/**
+ * Step 4: how much of the file has been sent, and which of the server's steps it has reached. A pause for warnings
+ * to be read (`awaitingAcceptance`) is a caution in amber, not a stop: the file can still be saved.
+ */
+export function SaveProgress({
+  progress,
+  fileSize,
+  awaitingAcceptance = false,
+}: {
+  progress: UploadProgress;
+  fileSize: number;
+  awaitingAcceptance?: boolean;
+}) {
+  const stepName = STAGES.find((s) => s.stage === progress.stage)?.label.toLowerCase();
   return (
     <section aria-labelledby="step-save" className="mb-6 rounded-plot border border-chalk-line bg-white p-5">
       <h2 id="step-save" className="mb-3 text-base font-semibold">
@@ -22,18 +34,24 @@ export function SaveProgress({ progress, fileSize }: { progress: UploadProgress;
       />
       <ProgressBar
         id="upload-server"
-        label={`On the server: ${progress.stopped ? "stopped while " : ""}${STAGES.find((s) => s.stage === progress.stage)?.label.toLowerCase() ?? (progress.stopped ? "answered before reading" : "waiting for the file")}`}
+        label={
+          awaitingAcceptance
+            ? "On the server: paused for you to read the warnings below"
+            : `On the server: ${progress.stopped ? "stopped while " : ""}${stepName ?? (progress.stopped ? "answered before reading" : "waiting for the file")}`
+        }
         value={progress.stage ? progress.stageFraction : 0}
-        detail={progress.stopped ? "nothing saved" : undefined}
+        detail={awaitingAcceptance ? "not saved yet" : progress.stopped ? "nothing saved" : undefined}
       />
       <ol className="flex flex-wrap gap-x-6 gap-y-1 text-sm" aria-label="Server steps">
         {STAGES.map((s, i) => {
           const state = progress.done.includes(s.stage)
             ? "done"
             : progress.stage === s.stage
-              ? progress.stopped
-                ? "stopped"
-                : "now"
+              ? awaitingAcceptance
+                ? "paused"
+                : progress.stopped
+                  ? "stopped"
+                  : "now"
               : "later";
           return (
             <li
@@ -45,10 +63,13 @@ export function SaveProgress({ progress, fileSize }: { progress: UploadProgress;
                     ? "font-medium"
                     : state === "stopped"
                       ? "font-medium text-alarm"
-                      : "text-ink-faint"
+                      : state === "paused"
+                        ? "font-medium text-loam"
+                        : "text-ink-faint"
               }
+              data-step-state={state}
             >
-              {state === "done" ? "✓ " : state === "stopped" ? "✕ " : `${i + 1}. `}
+              {state === "done" ? "✓ " : state === "stopped" ? "✕ " : state === "paused" ? "⚠ " : `${i + 1}. `}
               {s.label}
               <span className="sr-only">
                 {state === "done"
@@ -57,7 +78,9 @@ export function SaveProgress({ progress, fileSize }: { progress: UploadProgress;
                     ? " (in progress)"
                     : state === "stopped"
                       ? " (stopped here)"
-                      : ""}
+                      : state === "paused"
+                        ? " (paused: warnings to read)"
+                        : ""}
               </span>
             </li>
           );

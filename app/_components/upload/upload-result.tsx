@@ -136,7 +136,7 @@ function WarningsToAccept({
 }) {
   return (
     <section
-      className="mb-6 rounded-plot border border-stake bg-white p-5"
+      className="mb-6 rounded-plot border border-l-4 border-stake bg-stake-pale p-5"
       data-testid="upload-warnings"
       aria-labelledby="warnings-title"
     >

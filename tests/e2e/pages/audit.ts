@@ -158,10 +158,14 @@ export class AuditResultPage {
     );
   }
 
-  async download(linkName: string | RegExp): Promise<{ download: Download; text: string }> {
+  /** Clicks a download link in the spreadsheet downloads ("downloads") or the reports as computed. */
+  async download(
+    linkName: string | RegExp,
+    where: "downloads" | "downloads-as-computed" = "downloads",
+  ): Promise<{ download: Download; text: string }> {
     const [download] = await Promise.all([
       this.page.waitForEvent("download"),
-      this.page.getByTestId("downloads").getByRole("link", { name: linkName }).click(),
+      this.page.getByTestId(where).getByRole("link", { name: linkName }).click(),
     ]);
     expect(await download.failure()).toBeNull();
     const text = await fs.readFile((await download.path())!, "utf8");

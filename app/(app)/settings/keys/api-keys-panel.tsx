@@ -39,9 +39,19 @@ export function ApiKeysPanel() {
     }
   }
 
+  // Revoking cannot be undone, so the row asks first: the id of the key waiting for that answer.
+  const [confirming, setConfirming] = useState<string | null>(null);
+  const [revokeError, setRevokeError] = useState<string | null>(null);
+
   async function revoke(id: string) {
-    await sendJson(`/api/keys/${id}`, "DELETE");
-    await mutate();
+    setRevokeError(null);
+    try {
+      await sendJson(`/api/keys/${id}`, "DELETE");
+      setConfirming(null);
+      await mutate();
+    } catch (err) {
+      setRevokeError(err instanceof ApiError ? err.message : "Could not revoke the key.");
+    }
   }
 
   return (
@@ -161,10 +171,36 @@ export function ApiKeysPanel() {
                       )}
                     </td>
                     <td className="text-right">
-                      {k.revokedAt ? null : (
+                      {k.revokedAt ? null : confirming === k.id ? (
+                        <span
+                          role="group"
+                          aria-label={`Confirm revoking ${k.name}`}
+                          className="inline-flex flex-wrap items-center justify-end gap-2 text-sm"
+                          data-testid="revoke-confirm"
+                        >
+                          <span>Revoke “{k.name}”? Scripts using it stop working at once; this cannot be undone.</span>
+                          <button
+                            type="button"
+                            onClick={() => revoke(k.id)}
+                            className="rounded-plot bg-alarm px-2 py-1 font-medium text-white hover:opacity-90"
+                          >
+                            Yes, revoke it
+                          </button>
+                          <button
+                            type="button"
+                            onClick={() => setConfirming(null)}
+                            className="font-medium text-leaf hover:underline"
+                          >
+                            Keep it
+                          </button>
+                        </span>
+                      ) : (
                         <button
                           type="button"
-                          onClick={() => revoke(k.id)}
+                          onClick={() => {
+                            setRevokeError(null);
+                            setConfirming(k.id);
+                          }}
                           className="text-sm font-medium text-alarm hover:underline"
                         >
                           Revoke
@@ -177,6 +213,11 @@ export function ApiKeysPanel() {
             </tbody>
           </table>
         )}
+        {revokeError ? (
+          <p role="alert" className="mt-2 text-sm text-alarm">
+            {revokeError}
+          </p>
+        ) : null}
       </Panel>
     </div>
   );

@@ -32,7 +32,7 @@ export default async function AuditMapPage({ params }: { params: Promise<{ audit
             href={`/fields/${audit.field.id}/map`}
             className="font-medium text-leaf underline-offset-2 hover:underline"
           >
-            grower view
+            field map (what the grower sees)
           </Link>
         </p>
         <h1 className="text-xl font-semibold tracking-tight">Map: {audit.title}</h1>

@@ -105,7 +105,10 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
       <header className="flex items-start justify-between gap-4 border-b-2 border-ink pb-3">
         <div>
           <p className="text-xs uppercase tracking-wide text-ink-soft">{viewer.orgName} · Plotproof sign-off report</p>
-          <h1 className="text-xl font-semibold leading-tight">{audit.title}</h1>
+          <h1 className="text-xl font-semibold leading-tight">
+            {audit.title}
+            {audit.revision > 1 ? <span className="font-normal"> · revision {audit.revision}</span> : null}
+          </h1>
           <p className="text-sm">
             Field <strong>{audit.field.name}</strong> · CRS {audit.field.crs} · time zone {audit.field.timeZone}
           </p>

@@ -12,7 +12,7 @@ import { idFromParams } from "@/lib/validation/ids";
 import { tightestLimit } from "@/lib/review/checklist";
 import { surveyPrecision } from "@/lib/server/review/review-service";
 import { ReviewBar } from "@/app/_components/review/review-bar";
-import { PageTitle } from "@/app/_components/ui";
+import { PageTitle, RevisionTag } from "@/app/_components/ui";
 import { ReviewWorkspace } from "./review-workspace";
 
 export const metadata: Metadata = { title: "Review and sign-off" };
@@ -49,9 +49,10 @@ export default async function ReviewPage({ params }: { params: Promise<{ auditId
         }
       >
         Review: {audit.title}
+        <RevisionTag revision={audit.revision} />
       </PageTitle>
       <div className="mb-6">
-        <ReviewBar auditId={audit.id} showReviewLink={false} />
+        <ReviewBar auditId={audit.id} showReviewLink={false} timeZone={audit.field.timeZone} />
       </div>
       <ReviewWorkspace
         audit={audit}

@@ -8,7 +8,7 @@ import type { ChecklistContext } from "@/lib/review/checklist";
 import type { AuditDto } from "@/lib/api-types";
 import type { Role } from "@/lib/roles";
 import { RETURN_REASONS } from "@/lib/review/return-reasons";
-import { Panel, formatDate, formatMm } from "@/app/_components/ui";
+import { FieldTime, Panel, formatMm } from "@/app/_components/ui";
 import { StateBadge } from "@/app/_components/review/state-badge";
 import { SignoffForm } from "./signoff-form";
 import { ReturnForm } from "./return-form";
@@ -74,7 +74,8 @@ export function ReviewWorkspace({
           data-testid="returned-reasons"
         >
           <p className="font-semibold">
-            Returned for correction by {r.returned.by}, {formatDate(r.returned.at)}
+            Returned for correction by {r.returned.by},{" "}
+            <FieldTime iso={r.returned.at} timeZone={audit.field.timeZone} />
           </p>
           <ul className="mt-1 list-disc pl-5">
             {r.returned.reasons.map((x) => (
@@ -136,8 +137,10 @@ export function ReviewWorkspace({
             <ol className="space-y-2 text-sm" data-testid="review-events">
               {r.events.map((e) => (
                 <li key={e.id} data-kind={e.kind}>
-                  <span className="text-ink-faint">{formatDate(e.at)}</span> ·{" "}
-                  <span className="font-medium">{e.actorName}</span> {EVENT_WORDS[e.kind]}
+                  <span className="text-ink-faint">
+                    <FieldTime iso={e.at} timeZone={audit.field.timeZone} />
+                  </span>{" "}
+                  · <span className="font-medium">{e.actorName}</span> {EVENT_WORDS[e.kind]}
                   {e.kind === "verified" ? (
                     <span className={(e.detail as { ok?: boolean })?.ok ? "text-leaf" : "font-semibold text-alarm"}>
                       {(e.detail as { ok?: boolean })?.ok ? " — all matched" : " — MISMATCH"}

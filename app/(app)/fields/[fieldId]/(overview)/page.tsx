@@ -6,21 +6,13 @@ import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { listAudits } from "@/db/queries/audits";
 import { listDatasets } from "@/db/queries/datasets";
-import { Empty, PageTitle, Panel, formatDate, formatMm } from "@/app/_components/ui";
+import { Empty, FieldTime, PageTitle, Panel, RevisionTag, formatMm } from "@/app/_components/ui";
+import { STATE_NAME } from "@/lib/review/lifecycle";
 import { idFromParams } from "@/lib/validation/ids";
 import { can } from "@/lib/roles";
 import { DeleteDatasetButton } from "./delete-dataset-button";
 
 export const metadata: Metadata = { title: "Field" };
-
-const STATE_LABEL: Record<string, string> = {
-  computing: "computing",
-  computed: "computed",
-  failed: "failed",
-  submitted: "waiting for review",
-  signed_off: "signed off",
-  returned: "returned",
-};
 
 function ActionLink({ href, children }: { href: string; children: React.ReactNode }) {
   return (
@@ -97,8 +89,10 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
                       <Link href={`/audits/${a.id}`} className="font-medium text-leaf hover:underline">
                         {a.title}
                       </Link>
+                      <RevisionTag revision={a.revision} />
+                      {a.profileName ? <span className="block text-xs text-ink-faint">{a.profileName}</span> : null}
                     </td>
-                    <td>{STATE_LABEL[a.state] ?? a.state}</td>
+                    <td data-testid="field-audit-state">{STATE_NAME[a.state]}</td>
                     <td>
                       {a.passed === null ? (
                         "–"
@@ -109,7 +103,9 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
                       )}
                     </td>
                     <td>{formatMm(a.rmseR)}</td>
-                    <td className="text-ink-faint">{formatDate(a.updatedAt)}</td>
+                    <td className="text-ink-faint">
+                      <FieldTime iso={a.updatedAt} timeZone={field.timeZone} />
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -146,7 +142,9 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
                     <td className="font-mono text-xs" title={d.sha256}>
                       {d.sha256.slice(0, 12)}…
                     </td>
-                    <td className="text-ink-faint">{formatDate(d.uploadedAt)}</td>
+                    <td className="text-ink-faint">
+                      <FieldTime iso={d.uploadedAt} timeZone={field.timeZone} />
+                    </td>
                     <td className="text-right">
                       {canPrepare && !d.inUse ? (
                         <DeleteDatasetButton id={d.id} name={d.fileName} />

@@ -1,0 +1,158 @@
+import { test, expect, type Page } from "@playwright/test";
+import { SignInPage, demoPerson } from "./pages/session";
+import { AuditApi } from "./pages/audit";
+import { pageFor } from "./pages/review";
+import { ApiKeysPage } from "./pages/api-keys";
+import type { AuditDto } from "@/lib/api-types";
+
+// What a walk through the product tripped over, as each role sees it: dashboard items are links, a returned audit
+// says why on its own page, states read as words, a revision shows its number and profile, times are the field's.
+test.describe.configure({ mode: "serial" });
+
+let returned: AuditDto;
+let revision: AuditDto;
+
+/** No stored state code shows as text anywhere on the page. */
+async function expectNoStateCodes(page: Page) {
+  const text = (await page.locator("main").textContent()) ?? "";
+  expect(text).not.toContain("signed_off");
+  expect(text).not.toMatch(/\((computing|computed|failed|submitted|returned)\)/);
+  expect(text).not.toMatch(/· (computing|computed|failed|submitted|returned) ·/);
+}
+
+test("walk -- a returned audit shows its reasons; its revision shows number, profile and local times", async ({
+  page,
+  browser,
+}) => {
+  test.setTimeout(180_000);
+  await new SignInPage(page).signInAs("technician");
+  const api = new AuditApi(page);
+  const fieldId = await api.fieldId("Long Acre");
+  const planted = await api.upload(fieldId, "planted");
+  const survey = await api.upload(fieldId, "survey");
+  const profiles = await api.profiles();
+  const weeding = profiles.find((p) => p.name === "In-row weeding around plants")!;
+  const hoeing = profiles.find((p) => p.name === "Inter-row hoeing")!;
+  const created = await page.request.post("/api/audits?wait=1", {
+    data: {
+      fieldId,
+      plantedDatasetId: planted.id,
+      surveyDatasetId: survey.id,
+      profileId: weeding.id,
+      title: "Walk check",
+    },
+  });
+  expect(created.status(), await created.text()).toBe(201);
+  returned = (await created.json()).audit;
+  expect((await page.request.post(`/api/audits/${returned.id}/submit`, { data: {} })).status()).toBe(200);
+
+  // The QA lead's home lists it as a link to its review page.
+  const lead = await pageFor(browser, "qa_lead");
+  const waiting = lead.getByRole("region", { name: "Waiting for review" });
+  await waiting.getByRole("link", { name: "Walk check" }).click();
+  await expect(lead).toHaveURL(new RegExp(`/audits/${returned.id}/review$`));
+  const back = await lead.request.post(`/api/audits/${returned.id}/return`, {
+    data: { reasons: ["wrong_profile", "other"], comment: "Judge it for inter-row hoeing, not in-row weeding." },
+  });
+  expect(back.status(), await back.text()).toBe(200);
+  await lead.context().close();
+
+  // The technician's own page of the returned audit says why, in words.
+  await page.goto(`/audits/${returned.id}`);
+  await expect(page.getByTestId("audit-state")).toHaveText("Returned for correction");
+  const why = page.getByTestId("returned-reasons");
+  await expect(why).toContainText("Wrong tolerance profile for the next operation");
+  await expect(why).toContainText("Something else (see the comment)");
+  await expect(page.getByTestId("returned-comment")).toContainText(
+    `${demoPerson("qa_lead").name}: “Judge it for inter-row hoeing, not in-row weeding.”`,
+  );
+  await expectNoStateCodes(page);
+
+  // The corrected revision against another profile.
+  const revised = await page.request.post(`/api/audits/${returned.id}/revise?wait=1`, {
+    data: { profileId: hoeing.id },
+  });
+  expect(revised.status(), await revised.text()).toBe(201);
+  revision = (await revised.json()).audit;
+  expect(revision.revision).toBe(2);
+
+  await page.goto(`/audits/${revision.id}`);
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("revision 2");
+  await expect(page.getByTestId("audit-result")).toContainText(`against ${hoeing.name}`);
+  // Times in the field's time zone (Europe/Amsterdam), the UTC instant on hover.
+  const created2 = page.getByTestId("audit-result").getByTestId("field-time").first();
+  await expect(created2).toHaveText(/CES?T$/);
+  await expect(created2).toHaveAttribute("title", /UTC$/);
+
+  // The technician's home: each audit a link, with its revision, profile and state in words.
+  await page.goto("/");
+  const recent = page.getByRole("region", { name: "Recent audits" });
+  const item = recent
+    .getByTestId("home-audit")
+    .filter({ has: page.getByTestId("revision-tag") })
+    .first();
+  await expect(item).toContainText("revision 2");
+  await expect(item).toContainText(hoeing.name);
+  await expect(item).toContainText("Computed, not yet submitted");
+  await item.getByRole("link").first().click();
+  await expect(page).toHaveURL(new RegExp(`/audits/${revision.id}$`));
+  await page.goto("/");
+  await expect(page.getByTestId("home-upload").first().getByRole("link")).toHaveAttribute("href", `/fields/${fieldId}`);
+  await expectNoStateCodes(page);
+
+  // The field's audit list: states in words, revision and profile beside the title.
+  await page.goto(`/fields/${fieldId}`);
+  const row = page
+    .getByTestId("field-audits")
+    .locator("tr", { has: page.getByTestId("revision-tag") })
+    .first();
+  await expect(row).toContainText(hoeing.name);
+  await expect(page.getByTestId("field-audits")).toContainText("Returned for correction");
+  await expectNoStateCodes(page);
+
+  // The audit's own map is named as such; the field map is named as what the grower sees.
+  await page.goto(`/audits/${revision.id}`);
+  await page.getByTestId("map-link").click();
+  await expect(page.getByTestId("audit-map-page")).toBeVisible();
+  await expect(page.getByRole("link", { name: "field map (what the grower sees)" })).toHaveAttribute(
+    "href",
+    `/fields/${fieldId}/map`,
+  );
+});
+
+test("walk -- the QA lead's review list names each revision's own profile", async ({ browser }) => {
+  const lead = await pageFor(browser, "qa_lead");
+  await lead.goto("/review");
+  const row = lead.getByTestId("review-returned").locator(`tr[data-audit-id="${returned.id}"]`);
+  await expect(row).toContainText("In-row weeding around plants");
+  await expect(row.getByTestId("field-time")).toHaveAttribute("title", /UTC$/);
+  // The revision's review page names its number; the returned one's history shows the field's local times.
+  await lead.goto(`/audits/${revision.id}/review`);
+  await expect(lead.getByRole("heading", { level: 1 })).toContainText("revision 2");
+  await lead.goto(`/audits/${returned.id}/review`);
+  await expect(lead.getByRole("heading", { level: 1 })).not.toContainText("revision");
+  const when = lead.getByTestId("review-events").getByTestId("field-time").first();
+  await expect(when).toHaveText(/CES?T$/);
+  await expect(when).toHaveAttribute("title", /UTC$/);
+  await lead.context().close();
+});
+
+test("walk -- revoking an API key asks first; keeping it leaves it live", async ({ page }) => {
+  await new SignInPage(page).signInAs("owner");
+  await page.goto("/settings/keys");
+  const keysPage = new ApiKeysPage(page);
+  // A name of its own, so a database kept from an earlier run holds no second row of that name.
+  const name = `Walk test key ${Date.now()}`;
+  await keysPage.create(name, { scope: "Read only" });
+  const row = keysPage.row(name);
+  await expect(row).toContainText("live");
+  await row.getByRole("button", { name: "Revoke" }).click();
+  await expect(row.getByTestId("revoke-confirm")).toContainText(`Revoke “${name}”?`);
+  await row.getByRole("button", { name: "Keep it" }).click();
+  await expect(row.getByTestId("revoke-confirm")).toHaveCount(0);
+  await expect(row).toContainText("live");
+  await row.getByRole("button", { name: "Revoke" }).click();
+  await row.getByRole("button", { name: "Yes, revoke it" }).click();
+  await expect(row).toContainText("revoked");
+  await expect(row.getByRole("button", { name: "Revoke" })).toHaveCount(0);
+});
