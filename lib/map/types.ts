@@ -128,14 +128,16 @@ export interface BedGuidance {
   line: string;
 }
 
-/** GET /api/fields/:fieldId/map — the grower's view of the field's latest computed audit. */
+/** GET /api/fields/:fieldId/map — the grower's view of the field's latest signed-off audit. */
 export interface FieldMapDto {
   field: { id: string; name: string; crs: string };
-  /** The latest audit with stored results; null when the field has none yet. */
+  /** The latest signed-off audit with stored results; null when none is signed off yet. */
   audit: { id: string; title: string; state: string; computedAt: string | null; pairs: number } | null;
   profile: MapProfile | null;
   beds: BedStats[];
   guidance: BedGuidance[];
   /** One line over all beds, ending with the reminder that the map shows record accuracy, not machine safety. */
   summary: string;
+  /** A newer audit with results waiting for sign-off (computed or submitted): mentioned, never used. */
+  pending: { id: string; title: string; state: string } | null;
 }
