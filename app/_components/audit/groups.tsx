@@ -23,6 +23,8 @@ export interface GroupJudgement {
   /** "out": does not meet; "unproven": not enough evidence yet; "ok": meets (lib/audit/trust.ts). */
   status: "ok" | "out" | "unproven";
   word: TrustWord;
+  /** The one-sided decision bound of the group's share within tolerance. */
+  lowerBound: number | null;
   reasons: string[];
 }
 
@@ -49,7 +51,7 @@ export function judgeGroup(g: GroupRow, profile: AuditDto["profile"]): GroupJudg
     reasons.push(
       `${g.pairs} checkpoints show only at least ${formatPct(t.lowerBound)} within tolerance (one-sided, ${Math.round(t.confidence * 100)} %); the profile asks for ${formatPct(t.requiredShare)}${t.moreNeeded !== null ? ` — ${t.moreNeeded} more, all within, would settle it` : ""}`,
     );
-  return { status: STATUS_OF_WORD[t.word], word: t.word, reasons };
+  return { status: STATUS_OF_WORD[t.word], word: t.word, lowerBound: t.lowerBound, reasons };
 }
 
 /** Breakdown tables, one per grouping in the summary, with groups out of limit marked. */
@@ -118,6 +120,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                         data-group-key={g.key ?? ""}
                         data-out={j?.status === "out" ? "true" : "false"}
                         data-status={j?.status ?? "none"}
+                        data-word={j?.word ?? ""}
                       >
                         <th scope="row" className="py-1.5 pr-2 font-medium whitespace-nowrap">
                           {g.key ?? <span className="text-ink-faint">missing</span>}
@@ -137,9 +140,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                           ) : (
                             <>
                               {formatPct(g.withinShare, 0)}
-                              {j ? (
-                                <> · ≥ {formatPct(groupRowTrust(g, audit.profile!)?.lowerBound ?? null, 1)}</>
-                              ) : null}{" "}
+                              {j ? <> · ≥ {formatPct(j.lowerBound, 1)}</> : null}{" "}
                               <span className="text-xs text-ink-faint">
                                 ({formatPct(g.lower95, 0)}–{formatPct(g.upper95, 0)})
                               </span>
