@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import { listAudits, listRecentDatasets } from "@/db/queries/audits";
 import { listTeamMembers } from "@/db/queries/members";
+import { listGrowerFields } from "@/lib/server/map/field-map";
 import {
   Empty,
   FieldSafetyNote,
@@ -15,7 +16,7 @@ import {
   formatMm,
 } from "@/app/_components/ui";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
-import { STATE_NAME, stateName } from "@/lib/review/lifecycle";
+import { STATE_NAME } from "@/lib/review/lifecycle";
 
 export const metadata: Metadata = { title: "Home" };
 
@@ -97,37 +98,54 @@ async function QaLeadHome({ viewer }: { viewer: Viewer }) {
 }
 
 async function GrowerHome({ viewer }: { viewer: Viewer }) {
-  const fields = await listFields(await getDb(), { orgId: viewer.orgId });
+  const fields = await listGrowerFields(await getDb(), { orgId: viewer.orgId });
   return (
     <Panel title="Fields">
       {fields.length === 0 ? (
         <Empty>No fields yet.</Empty>
       ) : (
-        <table className="w-full text-left text-sm">
-          <thead className="text-ink-faint">
-            <tr>
-              <th className="py-1 font-medium">Field</th>
-              <th className="font-medium">Latest audit</th>
-              <th className="font-medium">Horizontal RMSE</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-chalk-deep">
-            {fields.map((f) => (
-              <tr key={f.id}>
-                <td className="py-2">
-                  <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>{" "}
-                  <span className="text-ink-faint">· {f.farm}</span>
-                </td>
-                <td>
-                  {f.latestAudit
-                    ? `${f.latestAudit.title} (${stateName(f.latestAudit.state).toLowerCase()})`
-                    : "Not audited yet"}
-                </td>
-                <td>{formatMm(f.latestAudit?.rmseR)}</td>
+        <>
+          <p className="mb-3 text-sm text-ink-soft">
+            Each field shows its latest signed-off audit only; an audit not yet signed off is never used here.
+          </p>
+          <table className="w-full text-left text-sm" data-testid="grower-fields">
+            <thead className="text-ink-faint">
+              <tr>
+                <th className="py-1 font-medium">Field</th>
+                <th className="font-medium">Signed-off audit</th>
+                <th className="font-medium">Records against its profile</th>
+                <th className="font-medium">Horizontal RMSE</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody className="divide-y divide-chalk-deep">
+              {fields.map((f) => (
+                <tr key={f.field.id} data-field-id={f.field.id} data-signed-audit={f.signed?.id ?? ""}>
+                  <td className="py-2">
+                    <TextLink href={`/fields/${f.field.id}/map`}>{f.field.name}</TextLink>{" "}
+                    <span className="text-ink-faint">· {f.field.farm}</span>
+                  </td>
+                  <td>
+                    {f.signed ? (
+                      <>
+                        {f.signed.title}
+                        {f.signed.passed === null ? null : f.signed.passed ? " (passed)" : " (failed)"}
+                      </>
+                    ) : (
+                      "None signed off yet"
+                    )}
+                    {f.pending ? (
+                      <span className="block text-xs text-loam" data-testid="grower-pending">
+                        A newer audit is waiting for sign-off.
+                      </span>
+                    ) : null}
+                  </td>
+                  <td data-word={f.signed?.word ?? ""}>{f.signed?.word ?? "–"}</td>
+                  <td>{formatMm(f.signed?.rmseR)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
       )}
     </Panel>
   );

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, inArray, isNotNull } from "drizzle-orm";
+import { and, asc, desc, eq, gt, inArray, isNotNull } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field } from "@/db/schema";
 import type { ResidualRowDto, UnpairedRowDto } from "@/lib/api-types";
@@ -234,6 +234,58 @@ export async function getLatestMappedAudit(
         eq(audit.orgId, orgId),
         inArray(audit.state, RESULT_STATES),
         isNotNull(audit.computedAt),
+      ),
+    )
+    .orderBy(desc(audit.computedAt), asc(audit.id))
+    .limit(1);
+  return row ?? null;
+}
+
+/**
+ * The latest signed-off audit of a field with stored results (most recently computed); null when none is signed.
+ * What the grower is told derives from this audit only.
+ */
+export async function getLatestSignedAudit(
+  db: DB,
+  { fieldId, orgId }: { fieldId: string; orgId: string },
+): Promise<{ id: string; computedAt: Date } | null> {
+  const [row] = await db
+    .select({ id: audit.id, computedAt: audit.computedAt })
+    .from(audit)
+    .where(
+      and(
+        eq(audit.fieldId, fieldId),
+        eq(audit.orgId, orgId),
+        eq(audit.state, "signed_off"),
+        isNotNull(audit.computedAt),
+      ),
+    )
+    .orderBy(desc(audit.computedAt), asc(audit.id))
+    .limit(1);
+  return row?.computedAt ? { id: row.id, computedAt: row.computedAt } : null;
+}
+
+/** States of an audit with results that is waiting for sign-off. */
+const PENDING_STATES = ["computed", "submitted"];
+
+/**
+ * The newest audit of a field with results that is not yet signed off (computed or submitted) and was computed after
+ * `after` (any time when null); null when there is none.
+ */
+export async function getNewestPendingAudit(
+  db: DB,
+  { fieldId, orgId, after }: { fieldId: string; orgId: string; after: Date | null },
+): Promise<{ id: string; title: string; state: string } | null> {
+  const [row] = await db
+    .select({ id: audit.id, title: audit.title, state: audit.state })
+    .from(audit)
+    .where(
+      and(
+        eq(audit.fieldId, fieldId),
+        eq(audit.orgId, orgId),
+        inArray(audit.state, PENDING_STATES),
+        isNotNull(audit.computedAt),
+        after ? gt(audit.computedAt, after) : undefined,
       ),
     )
     .orderBy(desc(audit.computedAt), asc(audit.id))

@@ -1,7 +1,8 @@
 /**
- * Sources: simple-statistics 7.12.1 (mean, rootMeanSquare, quantile type 7) as independent oracle for each group;
+ * Sources: jstat 1.9.6 (beta.inv) for the one-sided bound; simple-statistics 7.12.1 (mean, rootMeanSquare, quantile type 7) as independent oracle for each group;
  * Clopper–Pearson (Newcombe, Stat Med 17:857-872 (1998), Table I: 0/20 → upper 0.1684).
  */
+import jStat from "jstat";
 import * as ss from "simple-statistics";
 import { describe, expect, it } from "vitest";
 import { groupStatistics } from "./groups";
@@ -51,6 +52,12 @@ describe("groupStatistics", () => {
       const ci = clopperPearson(k, idx.length, 0.95)!;
       expect(row.lower95).toBe(ci.lower);
       expect(row.upper95).toBe(ci.upper);
+      expect(row.within).toBe(k);
+      // one-sided decision bound Beta⁻¹(α; k, n − k + 1) (Clopper & Pearson 1934; jstat as independent oracle)
+      const oracle = k === 0 ? 0 : k === idx.length ? 0.05 ** (1 / k) : jStat.beta.inv(0.05, k, idx.length - k + 1);
+      expect(row.lowerOneSided).toBeCloseTo(oracle, 8);
+      expect(row.p95Cross).toBeCloseTo(ss.quantile(e.map(Math.abs), 0.95), 14);
+      expect(row.p95Along).toBeCloseTo(ss.quantile(n.map(Math.abs), 0.95), 14);
     }
   });
 

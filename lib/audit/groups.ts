@@ -3,6 +3,7 @@
  * One pass of sums per attribute plus selection-based percentiles per group: no per-pair objects.
  */
 import { clopperPearson } from "./intervals";
+import { groupTrust, oneSidedLowerBound, type GroupTrust, type ShareRequirement } from "./trust";
 import { quantilesInPlace } from "./quantiles";
 import type { ErrorColumns } from "./error-columns";
 
@@ -28,10 +29,19 @@ export interface GroupRow {
   r95: number;
   /** Share within tolerance; null without tolerance limits. */
   withinShare: number | null;
-  /** Lower Clopper–Pearson bound of withinShare at the audit's confidence; null without tolerance limits. */
+  /** Lower end of the two-sided Clopper–Pearson interval of withinShare (a description); null without limits. */
   lower95: number | null;
-  /** Upper Clopper–Pearson bound of withinShare at the audit's confidence; null without tolerance limits. */
+  /** Upper end of the two-sided Clopper–Pearson interval of withinShare (a description); null without limits. */
   upper95: number | null;
+  // Added with the trust rule (trust.ts); absent in summaries stored before, so optional when read.
+  /** Pairs within every tolerance limit; null without tolerance limits. */
+  within?: number | null;
+  /** One-sided exact lower bound of withinShare at the audit's confidence (the decision bound); null without limits. */
+  lowerOneSided?: number | null;
+  /** Empirical 95th percentile of |cross-row error| (type 7); null without a row bearing. */
+  p95Cross?: number | null;
+  /** Empirical 95th percentile of |along-row error| (type 7); null without a row bearing. */
+  p95Along?: number | null;
 }
 
 const keyCollator = new Intl.Collator("en", { numeric: true, sensitivity: "variant" });
@@ -39,7 +49,8 @@ const keyCollator = new Intl.Collator("en", { numeric: true, sensitivity: "varia
 /**
  * Statistics per group. `codes[i]` is the group of pair i (index into `values`, −1 = missing value); groups with no
  * pairs are left out; rows are ordered by key in natural order ("2" before "10"), the missing-value group last.
- * Percentiles: Hyndman & Fan type 7. Interval: Clopper–Pearson at `confidence`. Inputs are not modified; `scratch`
+ * Percentiles: Hyndman & Fan type 7. Interval: two-sided Clopper–Pearson at `confidence` (a description) and the
+ * one-sided exact lower bound (the decision bound, trust.ts). Inputs are not modified; `scratch`
  * (length ≥ n), when given, is used as work space and overwritten.
  *
  * Source: formulas as in rmse.ts, radii.ts and intervals.ts (FGDC-STD-007.3-1998; Hyndman & Fan 1996; Clopper & Pearson 1934).
@@ -92,6 +103,17 @@ export function groupStatistics(
   const cursor = offset.slice(0, g);
   const grouped = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
   for (let i = 0; i < n; i++) grouped[cursor[slot[i]]++] = radial[i];
+  const absGrouped = (column: Float64Array | null): Float64Array | null => {
+    if (column === null) return null;
+    const out = new Float64Array(n);
+    const at = offset.slice(0, g);
+    for (let i = 0; i < n; i++) out[at[slot[i]]++] = Math.abs(column[i]);
+    return out;
+  };
+  const crossGrouped = absGrouped(cross);
+  const alongGrouped = absGrouped(along);
+  const p95Of = (col: Float64Array | null, s: number) =>
+    col ? quantilesInPlace(col.subarray(offset[s], offset[s + 1]), [0.95])[0] : null;
 
   const rows: GroupRow[] = [];
   for (let s = 0; s < g; s++) {
@@ -112,6 +134,10 @@ export function groupStatistics(
       withinShare: within ? inside[s] / m : null,
       lower95: ci ? ci.lower : null,
       upper95: ci ? ci.upper : null,
+      within: within ? inside[s] : null,
+      lowerOneSided: within ? oneSidedLowerBound(inside[s], m, confidence) : null,
+      p95Cross: p95Of(crossGrouped, s),
+      p95Along: p95Of(alongGrouped, s),
     });
   }
   rows.sort((a, b) => {
@@ -120,4 +146,29 @@ export function groupStatistics(
     return keyCollator.compare(a.key, b.key) || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0);
   });
   return rows;
+}
+
+/**
+ * The trust rule (trust.ts, groupTrust) for one breakdown row against a profile. Rows stored before the rule carry
+ * no `within` count nor cross/along percentiles: the count is recovered from withinShare · pairs, and the missing
+ * percentiles are not judged. Null when the row has no tolerance result.
+ *
+ * @example groupRowTrust(row, profile)?.word // "meets"
+ */
+export function groupRowTrust(
+  row: GroupRow,
+  profile: ShareRequirement & { radialM: number | null; crossM: number | null; alongM: number | null },
+): GroupTrust | null {
+  if (row.withinShare === null) return null;
+  const within = row.within ?? Math.round(row.withinShare * row.pairs);
+  return groupTrust(
+    {
+      n: row.pairs,
+      outside: row.pairs - within,
+      p95Radial: row.r95,
+      p95Cross: row.p95Cross ?? null,
+      p95Along: row.p95Along ?? null,
+    },
+    profile,
+  );
 }

@@ -74,8 +74,11 @@ describe("audit run", () => {
     expect(wt.share).toBe(1); // every error is a few millimetres, the limit 10 mm
     // Clopper & Pearson 1934: 4 of 4 within gives a lower bound of 0.025^(1/4) = 0.3976 at 95 %.
     expect(wt.lower95).toBeCloseTo(0.025 ** (1 / 4), 4);
+    // The decision bound is one-sided: α^(1/n) = 0.05^(1/4) = 0.4729 (Turpin et al., one-sided rule of three).
+    expect(wt.lowerOneSided).toBeCloseTo(0.05 ** (1 / 4), 12);
     const share = out.verdict!.criteria.find((c) => c.id === "share")!;
-    expect(share.passed).toBe(false); // 0.3976 < the required 0.5
+    expect(share.passed).toBe(false); // 0.4729 < the required 0.5
+    expect(share.trust).toMatchObject({ word: "not enough evidence yet", moreNeeded: 1 }); // 0.05^(1/5) = 0.549
     expect(out.verdict!.passed).toBe(false);
     const looser = runAudit(input({ profile: { ...profile, requiredShare: 0.3 } }));
     if (!looser.ok) throw new Error("expected a computed audit");

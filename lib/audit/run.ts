@@ -140,7 +140,7 @@ export function runAudit(input: AuditRunInput): AuditRun {
       radial: r.radial,
       cross: r.cross,
       along: r.along,
-      within: wt && wt.share !== null && wt.lower95 !== null ? { share: wt.share, lower95: wt.lower95 } : null,
+      within: wt ? { n: wt.n, within: wt.within } : null,
     });
   }
   return {

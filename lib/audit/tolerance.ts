@@ -2,6 +2,7 @@
  * Share of plants within the tolerance of the next field operation, with an exact binomial interval.
  */
 import { clopperPearson } from "./intervals";
+import { oneSidedLowerBound } from "./trust";
 
 /** Tolerance limits in metres; null = not tested. A plant is within tolerance when every given limit holds. */
 export interface ToleranceLimits {
@@ -13,14 +14,22 @@ export interface ToleranceLimits {
   along: number | null;
 }
 
-/** Share within tolerance. Key names lower95/upper95 are kept whatever `confidence` is. */
+/**
+ * Share within tolerance. Key names lower95/upper95 are kept whatever `confidence` is; they are the two-sided
+ * interval, a description. The decision bound is `lowerOneSided` (see trust.ts).
+ */
 export interface WithinTolerance {
   /** within / n; null when n = 0. */
   share: number | null;
-  /** Lower Clopper–Pearson bound at `confidence`; null when n = 0. */
+  /** Lower end of the two-sided Clopper–Pearson interval at `confidence`; null when n = 0. */
   lower95: number | null;
-  /** Upper Clopper–Pearson bound at `confidence`; null when n = 0. */
+  /** Upper end of the two-sided Clopper–Pearson interval at `confidence`; null when n = 0. */
   upper95: number | null;
+  /**
+   * One-sided exact lower bound at `confidence`, the bound the verdict decides on; null when n = 0.
+   * Absent in summaries stored before it was added.
+   */
+  lowerOneSided?: number | null;
   /** Number of pairs within every given limit. */
   within: number;
   /** Number of pairs tested. */
@@ -73,9 +82,10 @@ export function withinToleranceFlags(input: {
 }
 
 /**
- * Share within tolerance with an exact Clopper–Pearson interval at `confidence`.
+ * Share within tolerance with an exact two-sided Clopper–Pearson interval and the one-sided exact lower bound at
+ * `confidence`.
  *
- * Source: Clopper & Pearson, Biometrika 26 (1934) 404–413.
+ * Source: Clopper & Pearson, Biometrika 26 (1934) 404–413; one-sided form in trust.ts.
  *
  * @example withinToleranceShare(Uint8Array.of(1, 1, 0, 1), 0.95, limits) // { share: 0.75, within: 3, n: 4, ... }
  */
@@ -88,6 +98,7 @@ export function withinToleranceShare(flags: Uint8Array, confidence: number, limi
     share: n === 0 ? null : within / n,
     lower95: ci ? ci.lower : null,
     upper95: ci ? ci.upper : null,
+    lowerOneSided: oneSidedLowerBound(within, n, confidence),
     within,
     n,
     confidence,

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import type { ToleranceProfile } from "./profile";
 import { evaluateVerdict } from "./verdict";
 import { clopperPearson } from "./intervals";
+import { oneSidedLowerBound } from "./trust";
 
 // Thresholds are the user's: NSSDA sets none (FGDC-STD-007.3-1998 §3.1). The criteria themselves
 // (minimum checkpoints, share within limits tested on the lower bound, 95th percentile ≤ limit) are
@@ -17,18 +18,19 @@ const profile: ToleranceProfile = {
 };
 
 describe("verdict", () => {
-  it("verdict -- 20 of 20 within passes only if the lower bound reaches the required share", () => {
+  it("verdict -- 20 of 20 within passes only if the one-sided lower bound reaches the required share", () => {
     const radial = new Float64Array(20).fill(0.004);
     const cross = new Float64Array(20).fill(0.003);
-    // Newcombe 1998 / closed form: 20/20 gives a Clopper–Pearson lower bound of 0.025^(1/20) = 0.8316.
-    const cp = clopperPearson(20, 20, 0.95)!;
-    expect(cp.lower).toBeCloseTo(0.8316, 4);
+    // Was pinned to the two-sided lower end 0.025^(1/20) = 0.8316 (Newcombe 1998); the claim is one-sided, so the
+    // decision bound is 0.05^(1/20) = 0.8609 (Turpin et al., one-sided exact bound α^(1/n); Clopper & Pearson 1934).
+    expect(clopperPearson(20, 20, 0.95)!.lower).toBeCloseTo(0.8316, 4);
+    expect(oneSidedLowerBound(20, 20, 0.95)).toBeCloseTo(0.8609, 4);
     const v = evaluateVerdict(profile, {
       pairs: 20,
       radial,
       cross,
       along: null,
-      within: { share: 1, lower95: cp.lower },
+      within: { n: 20, within: 20 },
     });
     expect(v.criteria.map((c) => [c.id, c.passed])).toEqual([
       ["checkpoints", true],
@@ -37,7 +39,12 @@ describe("verdict", () => {
       ["share", false],
     ]);
     expect(v.passed).toBe(false);
-    expect(v.criteria.find((c) => c.id === "share")!.text).toContain("at least 83.2 %");
+    const share = v.criteria.find((c) => c.id === "share")!;
+    expect(share.text).toContain("at least 86.1 % (one-sided bound)");
+    // success-run n = ⌈ln 0.05 / ln 0.95⌉ = 59 checkpoints (Collins, ARL-TR-5214), so 39 more settle it
+    expect(share.text).toContain("not enough evidence yet: 39 more checkpoints, all within tolerance, would settle it");
+    expect(share.trust).toMatchObject({ word: "not enough evidence yet", moreNeeded: 39 });
+    expect(share.observed).toBeCloseTo(0.05 ** (1 / 20), 12);
   });
 
   it("verdict -- too few checkpoints fails with the counts in words", () => {
@@ -48,7 +55,7 @@ describe("verdict", () => {
         radial: new Float64Array(212).fill(0.001),
         cross: new Float64Array(212),
         along: null,
-        within: { share: 1, lower95: 0.9828 },
+        within: { n: 212, within: 212 },
       },
     );
     const c = v.criteria.find((x) => x.id === "checkpoints")!;
@@ -66,7 +73,7 @@ describe("verdict", () => {
         radial: Float64Array.from(cross, Math.abs),
         cross,
         along: null,
-        within: { share: 0.96, lower95: 0.9 },
+        within: { n: 100, within: 96 },
       },
     );
     const c = v.criteria.find((x) => x.id === "cross")!;
@@ -85,6 +92,24 @@ describe("verdict", () => {
     });
     expect(v.criteria.find((x) => x.id === "cross")!.passed).toBe(false);
     expect(v.passed).toBe(false);
+  });
+
+  it("verdict -- an observed share below the required share does not meet", () => {
+    // 360 of 375 = 96 % observed against a required 97 % (common practice, no source)
+    const v = evaluateVerdict(
+      { ...profile, requiredShare: 0.97 },
+      {
+        pairs: 375,
+        radial: new Float64Array(375),
+        cross: new Float64Array(375),
+        along: null,
+        within: { n: 375, within: 360 },
+      },
+    );
+    const share = v.criteria.find((c) => c.id === "share")!;
+    expect(share.passed).toBe(false);
+    expect(share.trust!.word).toBe("does not meet");
+    expect(share.text).toMatch(/— does not meet$/);
   });
 
   it("verdict -- inputs are not changed", () => {

@@ -4,11 +4,13 @@
  *
  * Criteria (common practice, no source; NSSDA itself sets no thresholds, FGDC-STD-007.3-1998 §3.1):
  *  - checkpoints: number of pairs ≥ the profile's minimum;
- *  - share: the lower confidence bound of the share of plants within every limit ≥ the required share;
+ *  - share: the trust rule of trust.ts — the one-sided exact lower bound of the share of plants within every limit
+ *    at the profile's confidence ≥ the required share ("meets"); the criterion carries the rule's word;
  *  - radial / cross / along: the empirical 95th percentile (Hyndman–Fan type 7) of |error| ≤ the limit.
  */
 import type { ToleranceProfile } from "./profile";
 import { quantileSorted } from "./quantiles";
+import { shareTrust, type ShareTrust } from "./trust";
 
 export interface Criterion {
   id: "checkpoints" | "share" | "radial" | "cross" | "along";
@@ -20,6 +22,8 @@ export interface Criterion {
   unit: "count" | "share" | "m";
   /** One plain sentence with the figures, e.g. "95 % of cross-row errors within 4.1 mm; limit 6.0 mm". */
   text: string;
+  /** The share criterion's trust judgement (trust.ts); absent on other criteria and in verdicts stored before it. */
+  trust?: ShareTrust;
 }
 
 export interface Verdict {
@@ -38,8 +42,8 @@ function p95Abs(values: Float64Array | null): number | null {
 
 /**
  * @param pairs number of pairs
- * @param within lower confidence bound and share from the summary's withinTolerance (null without limits)
- * @example evaluateVerdict(profile, { pairs: 212, radial, cross: null, along: null, within: { share: 0.97, lower95: 0.94 } })
+ * @param within pairs tested and pairs within every limit, from the summary's withinTolerance (null without limits)
+ * @example evaluateVerdict(profile, { pairs: 212, radial, cross: null, along: null, within: { n: 212, within: 209 } })
  */
 export function evaluateVerdict(
   profile: ToleranceProfile,
@@ -48,7 +52,7 @@ export function evaluateVerdict(
     radial: Float64Array;
     cross: Float64Array | null;
     along: Float64Array | null;
-    within: { share: number; lower95: number } | null;
+    within: { n: number; within: number } | null;
   },
 ): Verdict {
   const criteria: Criterion[] = [];
@@ -91,18 +95,30 @@ export function evaluateVerdict(
   }
   if (profile.radialM !== null || profile.crossM !== null || profile.alongM !== null) {
     const w = input.within;
-    const passed = !!w && w.lower95 >= profile.requiredShare;
-    const conf = `${Math.round(profile.confidence * 100)} %`;
+    const t = w && w.n > 0 ? shareTrust({ n: w.n, outside: w.n - w.within }, profile) : null;
     criteria.push({
       id: "share",
-      passed,
-      observed: w ? w.lower95 : null,
+      passed: t?.word === "meets",
+      observed: t ? t.lowerBound : null,
       limit: profile.requiredShare,
       unit: "share",
-      text: w
-        ? `${pct(w.share)} of plants within every limit; with ${conf} confidence at least ${pct(w.lower95)}; the profile asks for ${pct(profile.requiredShare)}`
-        : `share within tolerance unknown; the profile asks for ${pct(profile.requiredShare)}`,
+      text: t ? shareSentence(t) : `share within tolerance unknown; the profile asks for ${pct(profile.requiredShare)}`,
+      ...(t ? { trust: t } : {}),
     });
   }
   return { passed: criteria.every((c) => c.passed), criteria };
+}
+
+/**
+ * The share criterion in one sentence: figures, the decision bound, the word and what would settle it.
+ *
+ * @example shareSentence(shareTrust({ n: 58, outside: 0 }, { requiredShare: 0.95, confidence: 0.95 }))
+ *   // "100.0 % of plants within every limit (58 of 58); with 95 % confidence at least 94.9 % (one-sided bound); the profile asks for 95.0 % — not enough evidence yet: 1 more checkpoint, all within tolerance, would settle it"
+ */
+export function shareSentence(t: ShareTrust): string {
+  const conf = `${Math.round(t.confidence * 1000) / 10} %`;
+  const head = `${pct(t.share ?? 0)} of plants within every limit (${t.n - t.outside} of ${t.n}); with ${conf} confidence at least ${pct(t.lowerBound ?? 0)} (one-sided bound); the profile asks for ${pct(t.requiredShare)} — ${t.word}`;
+  if (t.word !== "not enough evidence yet") return head;
+  if (t.moreNeeded === null) return `${head}: no number of checkpoints can show it`;
+  return `${head}: ${t.moreNeeded} more ${t.moreNeeded === 1 ? "checkpoint" : "checkpoints"}, all within tolerance, would settle it`;
 }

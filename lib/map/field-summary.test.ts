@@ -17,15 +17,26 @@ const PROFILE: ProfileSnapshot = {
 };
 
 describe("fieldMapSummary", () => {
-  it("fieldMapSummary -- a field without an audit has no beds and says so", () => {
+  it("fieldMapSummary -- a field without a signed-off audit has no beds and says so", () => {
     expect(fieldMapSummary(FIELD, null, null)).toEqual({
       field: FIELD,
       audit: null,
       profile: null,
       beds: [],
       guidance: [],
-      summary: `No audit of North block has results yet. ${RECORD_ACCURACY_REMINDER}`,
+      pending: null,
+      summary: `No audit of North block has been signed off yet. ${RECORD_ACCURACY_REMINDER}`,
     });
+  });
+
+  it("fieldMapSummary -- a newer audit waiting for sign-off is mentioned, never used", () => {
+    const pending = { id: "a9", title: "July", state: "submitted" };
+    const v = fieldMapSummary(FIELD, null, null, pending);
+    expect(v.pending).toEqual(pending);
+    expect(v.guidance).toEqual([]);
+    expect(v.summary).toBe(
+      `No audit of North block has been signed off yet. A newer audit, “July”, is waiting for sign-off; until it is signed off this page does not use it. ${RECORD_ACCURACY_REMINDER}`,
+    );
   });
 
   it("fieldMapSummary -- beds judged at the profile's confidence, guidance from the pure helpers", () => {

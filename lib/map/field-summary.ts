@@ -1,7 +1,7 @@
 /**
- * The grower's summary of a field (FieldMapDto) from its latest audit with results and that audit's per-pair bed
- * columns: statistics and guidance per bed, and one line over all beds. Pure; the database reads are in
- * lib/server/map/field-map.ts.
+ * The grower's summary of a field (FieldMapDto) from its latest signed-off audit and that audit's per-pair bed
+ * columns: statistics and guidance per bed, and one line over all beds. A newer audit waiting for sign-off is
+ * mentioned, never used. Pure; the database reads are in lib/server/map/field-map.ts.
  */
 import type { AuditDto, ProfileSnapshot } from "@/lib/api-types";
 import { RECORD_ACCURACY_REMINDER, bedGuidance, bedStats, overallGuidance } from "./guidance";
@@ -36,17 +36,27 @@ export function mapProfile(p: ProfileSnapshot | null): MapProfile | null {
     : null;
 }
 
+/** The sentence about a newer audit waiting for sign-off, or "". */
+export function pendingSentence(pending: FieldMapDto["pending"]): string {
+  return pending
+    ? `A newer audit, “${pending.title}”, is waiting for sign-off; until it is signed off this page does not use it.`
+    : "";
+}
+
 /**
- * The field's map summary. Without an audit (`audit` null) the beds are empty and the summary says so;
- * otherwise `columns` are the audit's pairs in seq order. Beds are judged at the profile's confidence (0.95 without one).
+ * The field's map summary. `audit` is the field's latest signed-off audit; without one (`audit` null) the beds are
+ * empty and the summary says so; otherwise `columns` are the audit's pairs in seq order. `pending` is a newer
+ * audit waiting for sign-off: mentioned, never used. Beds are judged at the profile's confidence (0.95 without one).
  *
- * @example fieldMapSummary({ id: "f1", name: "North", crs: "EPSG:25831" }, null, null).summary // "No audit of North has results yet. …"
+ * @example fieldMapSummary({ id: "f1", name: "North", crs: "EPSG:25831" }, null, null).summary // "No audit of North has been signed off yet. …"
  */
 export function fieldMapSummary(
   field: FieldMapDto["field"],
   audit: AuditDto | null,
   columns: BedColumns | null,
+  pending: FieldMapDto["pending"] = null,
 ): FieldMapDto {
+  const waiting = pendingSentence(pending);
   if (!audit || !columns)
     return {
       field,
@@ -54,7 +64,8 @@ export function fieldMapSummary(
       profile: null,
       beds: [],
       guidance: [],
-      summary: `No audit of ${field.name} has results yet. ${RECORD_ACCURACY_REMINDER}`,
+      pending,
+      summary: `No audit of ${field.name} has been signed off yet.${waiting ? ` ${waiting}` : ""} ${RECORD_ACCURACY_REMINDER}`,
     };
   const profile = mapProfile(audit.profile);
   const beds = bedStats({ ...columns, confidence: profile?.confidence ?? 0.95 });
@@ -71,6 +82,7 @@ export function fieldMapSummary(
     profile,
     beds,
     guidance,
+    pending,
     summary: overallGuidance(guidance, profile),
   };
 }

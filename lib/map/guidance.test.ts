@@ -1,13 +1,8 @@
+import jStat from "jstat";
 import { describe, expect, it } from "vitest";
 import { clopperPearson } from "@/lib/audit/intervals";
-import {
-  bedGuidance,
-  bedStats,
-  checkpointsNeeded,
-  listWords,
-  overallGuidance,
-  RECORD_ACCURACY_REMINDER,
-} from "./guidance";
+import { oneSidedLowerBound } from "@/lib/audit/trust";
+import { bedGuidance, bedStats, bedTrust, listWords, overallGuidance, RECORD_ACCURACY_REMINDER } from "./guidance";
 import type { BedStats, MapProfile } from "./types";
 
 const IN_ROW: MapProfile = {
@@ -32,6 +27,7 @@ function stats(bed: string, n: number, out: number, o: Partial<BedStats> = {}): 
     share: (n - out) / n,
     lower: ci.lower,
     upper: ci.upper,
+    lowerOneSided: oneSidedLowerBound(n - out, n, 0.95),
     p95Radial: 0.004,
     p95Cross: 0.003,
     p95Along: 0.003,
@@ -62,21 +58,21 @@ describe("bedStats", () => {
     // Clopper & Pearson (1934) 3 of 4 at 95 %: lower 0.1941, upper 0.9937 (Newcombe 1998 Table I method 5 style).
     expect(b2.lower).toBeCloseTo(0.1941, 4);
     expect(b2.upper).toBeCloseTo(0.9937, 4);
+    // one-sided decision bound Beta⁻¹(0.05; 3, 2) (jstat as independent oracle)
+    expect(b2.lowerOneSided).toBeCloseTo(jStat.beta.inv(0.05, 3, 2), 8);
     const none = s[2];
     expect(none).toMatchObject({ bed: "", n: 1, known: 0, share: null, lower: null });
     expect(s[1].p95Cross).toBeNull();
   });
 });
 
-describe("checkpointsNeeded", () => {
-  it("checkpointsNeeded -- closed form (α/2)^(1/n) of the Clopper–Pearson bound for k = n", () => {
-    // ln(0.025) / ln(0.95) = 71.92 → 72.
-    expect(checkpointsNeeded(0.95, 0.95)).toBe(72);
-    expect(clopperPearson(72, 72, 0.95)!.lower).toBeGreaterThanOrEqual(0.95);
-    expect(clopperPearson(71, 71, 0.95)!.lower).toBeLessThan(0.95);
-    // ln(0.025) / ln(0.9) = 35.01 → 36.
-    expect(checkpointsNeeded(0.9, 0.95)).toBe(36);
-    expect(() => checkpointsNeeded(1, 0.95)).toThrow(/checkpointsNeeded/);
+describe("bedTrust", () => {
+  it("bedTrust -- zero failures: 59 checkpoints of a bed meet 95 %/95 %, 58 need one more", () => {
+    // success-run: 0.95^59 ≤ 0.05 < 0.95^58 (Collins, ARL-TR-5214; Clopper & Pearson 1934, one-sided bound α^(1/n))
+    expect(bedTrust(stats("1", 59, 0), IN_ROW)).toMatchObject({ word: "meets" });
+    expect(bedTrust(stats("1", 58, 0), IN_ROW)).toMatchObject({ word: "not enough evidence yet", moreNeeded: 1 });
+    // the per-bed test no longer asks for the two-sided 72 (0.025^(1/72) ≥ 0.95)
+    expect(bedGuidance(stats("1", 63, 0), IN_ROW).state).toBe("relied-on");
   });
 });
 
@@ -85,7 +81,7 @@ describe("bedGuidance", () => {
     const g = bedGuidance(stats("2", 80, 0), IN_ROW);
     expect(g.state).toBe("relied-on");
     expect(g.line).toBe(
-      "Bed 2: the records can be relied on for in-row weeding around plants — 80 of 80 checkpoints within tolerance, at least 95.5 % with 95 % confidence.",
+      "Bed 2: the records can be relied on for in-row weeding around plants — 80 of 80 checkpoints within tolerance, at least 96.3 % with 95 % confidence.",
     );
   });
 
@@ -104,18 +100,23 @@ describe("bedGuidance", () => {
   });
 
   it("bedGuidance -- not yet shown when every checkpoint is within but there are too few", () => {
-    const g = bedGuidance(stats("1", 63, 0), IN_ROW);
+    const g = bedGuidance(stats("1", 40, 0), IN_ROW);
     expect(g.state).toBe("not-shown");
+    expect(g.word).toBe("not enough evidence yet");
+    // success-run n = 59 for 95 %/95 % (Collins, ARL-TR-5214), so 19 more
     expect(g.line).toBe(
-      "Bed 1: all 63 checkpoints within tolerance, but too few to show 95 % with 95 % confidence — survey at least 72 here before relying on it for in-row weeding around plants.",
+      "Bed 1: all 40 checkpoints within tolerance, but too few to show 95 % with 95 % confidence — survey 19 more here, all within tolerance, before relying on it for in-row weeding around plants.",
     );
-    expect(bedGuidance(stats("5", 120, 3), IN_ROW).state).toBe("not-shown"); // 97.5 % observed, lower bound 0.929
+    // 97.5 % observed, one-sided lower bound Beta⁻¹(0.05; 117, 4) = 0.9367 (jstat as independent oracle)
+    expect(bedGuidance(stats("5", 120, 3), IN_ROW).state).toBe("not-shown");
   });
 
   it("bedGuidance -- beds without checkpoints and profiles without limits say so", () => {
     expect(
-      bedGuidance({ ...stats("6", 1, 0), n: 0, known: 0, within: 0, share: null, lower: null, upper: null }, IN_ROW)
-        .state,
+      bedGuidance(
+        { ...stats("6", 1, 0), n: 0, known: 0, within: 0, share: null, lower: null, upper: null, lowerOneSided: null },
+        IN_ROW,
+      ).state,
     ).toBe("no-checkpoints");
     expect(bedGuidance(stats("6", 10, 0), { ...IN_ROW, radialM: null, crossM: null, alongM: null }).state).toBe(
       "no-limits",
@@ -127,10 +128,10 @@ describe("bedGuidance", () => {
 describe("overallGuidance", () => {
   it("overallGuidance -- one line over all beds that ends with the record-accuracy reminder", () => {
     const g = [
-      bedGuidance(stats("1", 63, 0), IN_ROW),
+      bedGuidance(stats("1", 40, 0), IN_ROW),
       bedGuidance(stats("2", 80, 0), IN_ROW),
       bedGuidance(stats("3", 60, 12, { p95Radial: 0.04 }), IN_ROW),
-      bedGuidance(stats("4", 64, 0), IN_ROW),
+      bedGuidance(stats("4", 50, 0), IN_ROW),
     ];
     const line = overallGuidance(g, IN_ROW);
     expect(line).toBe(

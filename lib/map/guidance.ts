@@ -2,15 +2,19 @@
  * Per-bed summary of an audit and the grower's one-line guidance per bed: can the records of this bed be relied on
  * for the operation of the audit's tolerance profile? Pure.
  *
- * A bed is judged with the audit's own criteria (lib/audit/verdict.ts) applied to the bed's checkpoints alone:
- *  - relied on: the lower Clopper–Pearson bound of the share within tolerance reaches the profile's required share,
- *    and the 95th percentile (Hyndman–Fan type 7) of every limited error is within its limit;
- *  - not relied on: the observed share is below the required share, or a 95th percentile exceeds its limit;
- *  - not yet shown: neither — the checkpoints look fine but are too few to show the share with the profile's confidence.
+ * A bed is judged with the one trust rule of the audit (lib/audit/trust.ts, groupTrust) applied to the bed's
+ * checkpoints alone, so a bed gets the same word as the verdict and the breakdown tables would give it:
+ *  - relied on ("meets"): the one-sided exact lower bound of the share within tolerance reaches the profile's
+ *    required share, and the 95th percentile (Hyndman–Fan type 7) of every limited error is within its limit;
+ *  - not relied on ("does not meet"): the observed share is below the required share, or a 95th percentile exceeds
+ *    its limit;
+ *  - not yet shown ("not enough evidence yet"): neither — the checkpoints look fine but are too few to show the share
+ *    with the profile's confidence; the line says how many more checkpoints, all within, would settle it.
  * Applying the audit's criteria per bed is our rule (common practice, no source).
  */
 import { clopperPearson } from "@/lib/audit/intervals";
 import { quantileSorted } from "@/lib/audit/quantiles";
+import { groupTrust, oneSidedLowerBound, type GroupTrust, type TrustWord } from "@/lib/audit/trust";
 import type { BedGuidance, BedState, BedStats, MapProfile } from "./types";
 
 /** Ends every grower guidance text. */
@@ -79,28 +83,13 @@ export function bedStats(input: {
       share: known ? within / known : null,
       lower: ci?.lower ?? null,
       upper: ci?.upper ?? null,
+      lowerOneSided: known ? oneSidedLowerBound(within, known, input.confidence) : null,
       p95Radial: p95(r),
       p95Cross: p95(c),
       p95Along: p95(a),
       meanRadial: nR ? sumR / nR : null,
     };
   });
-}
-
-/**
- * Fewest checkpoints, all within tolerance, whose lower Clopper–Pearson bound reaches `share` at `confidence`.
- * For k = n the bound is (α/2)^(1/n), α = 1 − confidence (the Beta(n, 1) quantile), so n = ⌈ln(α/2) / ln(share)⌉.
- *
- * @example checkpointsNeeded(0.95, 0.95) // 72
- */
-export function checkpointsNeeded(share: number, confidence: number): number {
-  if (!(share > 0 && share < 1) || !(confidence > 0 && confidence < 1))
-    throw new Error(`checkpointsNeeded: share and confidence must lie in (0, 1), got ${share}, ${confidence}`);
-  let n = Math.max(1, Math.ceil(Math.log((1 - confidence) / 2) / Math.log(share)));
-  // Guard against rounding at the boundary: confirm with the interval itself.
-  while (n > 1 && clopperPearson(n - 1, n - 1, confidence)!.lower >= share) n--;
-  while (clopperPearson(n, n, confidence)!.lower < share) n++;
-  return n;
 }
 
 const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;
@@ -118,17 +107,25 @@ function operationWords(profile: MapProfile): string {
   return n.length > 1 && n[1] === n[1].toLowerCase() ? n[0].toLowerCase() + n.slice(1) : n;
 }
 
-/** The limit criterion that fails worst (largest p95 / limit above 1), if any. */
-function worstLimit(s: BedStats, p: MapProfile): { words: string; p95: number; limit: number } | null {
-  const tests = [
-    { words: "radial errors", p95: s.p95Radial, limit: p.radialM },
-    { words: "cross-row errors", p95: s.p95Cross, limit: p.crossM },
-    { words: "along-row errors", p95: s.p95Along, limit: p.alongM },
-  ].filter(
-    (t): t is { words: string; p95: number; limit: number } => t.limit !== null && t.p95 !== null && t.p95 > t.limit,
+const LIMIT_WORDS: Record<GroupTrust["exceeded"][number]["limit"], string> = {
+  radial: "radial errors",
+  cross: "cross-row errors",
+  along: "along-row errors",
+};
+
+/** The bed state of each word of the trust rule. */
+export const STATE_OF_WORD: Record<TrustWord, BedState> = {
+  meets: "relied-on",
+  "does not meet": "not-relied-on",
+  "not enough evidence yet": "not-shown",
+};
+
+/** The trust rule (lib/audit/trust.ts) applied to one bed's statistics. */
+export function bedTrust(s: BedStats, profile: MapProfile): GroupTrust {
+  return groupTrust(
+    { n: s.known, outside: s.out, p95Radial: s.p95Radial, p95Cross: s.p95Cross, p95Along: s.p95Along },
+    profile,
   );
-  tests.sort((a, b) => b.p95 / b.limit - a.p95 / a.limit);
-  return tests[0] ?? null;
 }
 
 /**
@@ -141,6 +138,7 @@ export function bedGuidance(s: BedStats, profile: MapProfile | null): BedGuidanc
     return {
       bed: s.bed,
       state: "no-limits",
+      word: null,
       line: `${name}: the audit's tolerance profile sets no limits, so there is nothing to judge against.`,
     };
   }
@@ -149,31 +147,33 @@ export function bedGuidance(s: BedStats, profile: MapProfile | null): BedGuidanc
     return {
       bed: s.bed,
       state: "no-checkpoints",
+      word: null,
       line: `${name}: no checkpoints here — the records of this bed are not checked.`,
     };
   const conf = pct0(profile.confidence);
-  const worst = worstLimit(s, profile);
-  if (s.share! < profile.requiredShare || worst) {
+  const t = bedTrust(s, profile);
+  const base = { bed: s.bed, state: STATE_OF_WORD[t.word], word: t.word, moreNeeded: t.moreNeeded };
+  if (t.word === "does not meet") {
     const parts = [`${s.out} of ${s.known} checkpoints out of tolerance`];
-    if (worst) parts.push(`95 % of ${worst.words} within ${mm(worst.p95)}, limit ${mm(worst.limit)}`);
+    const worst = t.exceeded[0];
+    if (worst) parts.push(`95 % of ${LIMIT_WORDS[worst.limit]} within ${mm(worst.p95)}, limit ${mm(worst.limitM)}`);
+    return { ...base, line: `${name}: do not rely on the records for ${op} — ${parts.join("; ")}.` };
+  }
+  if (t.word === "meets") {
     return {
-      bed: s.bed,
-      state: "not-relied-on",
-      line: `${name}: do not rely on the records for ${op} — ${parts.join("; ")}.`,
+      ...base,
+      line: `${name}: the records can be relied on for ${op} — ${s.within} of ${s.known} checkpoints within tolerance, at least ${pct(t.lowerBound!)} with ${conf} confidence.`,
     };
   }
-  if (s.lower! >= profile.requiredShare) {
-    return {
-      bed: s.bed,
-      state: "relied-on",
-      line: `${name}: the records can be relied on for ${op} — ${s.within} of ${s.known} checkpoints within tolerance, at least ${pct(s.lower!)} with ${conf} confidence.`,
-    };
-  }
+  const more =
+    t.moreNeeded === null
+      ? "no number of checkpoints can show it"
+      : `survey ${t.moreNeeded} more here, all within tolerance, before relying on it for ${op}`;
   const line =
     s.out === 0
-      ? `${name}: all ${s.known} checkpoints within tolerance, but too few to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey at least ${checkpointsNeeded(profile.requiredShare, profile.confidence)} here before relying on it for ${op}.`
-      : `${name}: ${s.out} of ${s.known} checkpoints out of tolerance, too many for so few checkpoints to show ${pct0(profile.requiredShare)} with ${conf} confidence — survey more here before relying on it for ${op}.`;
-  return { bed: s.bed, state: "not-shown", line };
+      ? `${name}: all ${s.known} checkpoints within tolerance, but too few to show ${pct0(profile.requiredShare)} with ${conf} confidence — ${more}.`
+      : `${name}: ${s.out} of ${s.known} checkpoints out of tolerance, too many for so few checkpoints to show ${pct0(profile.requiredShare)} with ${conf} confidence — ${more}.`;
+  return { ...base, line };
 }
 
 /** "1", "1 and 3", "1, 3 and 4". */

@@ -3,6 +3,7 @@
  * Lengths in metres, in the audit's work CRS, relative to `origin` (see binary.ts for the byte layout).
  */
 import type { ToleranceProfile } from "@/lib/audit/profile";
+import type { TrustWord } from "@/lib/audit/trust";
 
 /** Text columns sent as dictionary codes; `NO_CODE` means the value was empty. */
 export const DICT_NAMES = ["crop", "bed", "row", "arm", "fix", "day"] as const;
@@ -100,10 +101,12 @@ export interface BedStats {
   known: number;
   within: number;
   out: number;
-  /** within / known and its Clopper–Pearson interval at the profile's confidence; null when known = 0. */
+  /** within / known and its two-sided Clopper–Pearson interval at the profile's confidence (a description); null when known = 0. */
   share: number | null;
   lower: number | null;
   upper: number | null;
+  /** One-sided exact lower bound at the profile's confidence, the bound the trust rule decides on; null when known = 0. */
+  lowerOneSided: number | null;
   /** 95th percentile of radial, |cross-row| and |along-row| error, metres (type 7); null without values. */
   p95Radial: number | null;
   p95Cross: number | null;
@@ -117,18 +120,24 @@ export type BedState = "relied-on" | "not-relied-on" | "not-shown" | "no-checkpo
 export interface BedGuidance {
   bed: string;
   state: BedState;
+  /** The trust rule's word (lib/audit/trust.ts); null without checkpoints or limits. */
+  word: TrustWord | null;
+  /** When "not enough evidence yet": more checkpoints, all within, that would settle it. */
+  moreNeeded?: number | null;
   /** One sentence for the grower. */
   line: string;
 }
 
-/** GET /api/fields/:fieldId/map — the grower's view of the field's latest computed audit. */
+/** GET /api/fields/:fieldId/map — the grower's view of the field's latest signed-off audit. */
 export interface FieldMapDto {
   field: { id: string; name: string; crs: string };
-  /** The latest audit with stored results; null when the field has none yet. */
+  /** The latest signed-off audit with stored results; null when none is signed off yet. */
   audit: { id: string; title: string; state: string; computedAt: string | null; pairs: number } | null;
   profile: MapProfile | null;
   beds: BedStats[];
   guidance: BedGuidance[];
   /** One line over all beds, ending with the reminder that the map shows record accuracy, not machine safety. */
   summary: string;
+  /** A newer audit with results waiting for sign-off (computed or submitted): mentioned, never used. */
+  pending: { id: string; title: string; state: string } | null;
 }

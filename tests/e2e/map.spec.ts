@@ -1,5 +1,6 @@
 import { test, expect } from "@playwright/test";
-import { SignInPage, otherOwner } from "./pages/session";
+import { SignInPage, demoPerson, otherOwner } from "./pages/session";
+import { pageFor } from "./pages/review";
 import { AuditApi } from "./pages/audit";
 import { createDemoAudit, differingPixels, HIGHLIGHT, MapPage, VIRIDIS_LOW } from "./pages/map";
 import { bigAsPlanted } from "./pages/big-file";
@@ -119,9 +120,36 @@ test("map -- out-of-tolerance plants are drawn in the highlight colour, and filt
   expect(await map.countColour(HIGHLIGHT)).toBeLessThan(5);
 });
 
-test("map -- the grower's field view: heatmap, guidance per bed and the record-accuracy reminder", async ({ page }) => {
+test("map -- the grower's field view: heatmap, guidance per bed and the record-accuracy reminder", async ({
+  page,
+  browser,
+}) => {
+  test.setTimeout(120_000);
   expect(auditId, "the technician's audit").not.toBe("");
   await new SignInPage(page).signInAs("grower");
+  // Not signed off yet: the grower's view never uses it, only says it is waiting.
+  const before = (await (await page.request.get(`/api/fields/${fieldId}/map`)).json()) as FieldMapDto;
+  expect(before.audit?.id).not.toBe(auditId);
+  expect(before.pending).not.toBeNull();
+  await page.goto(`/fields/${fieldId}/map`);
+  await expect(page.getByTestId("field-map-page")).toContainText("is waiting for sign-off");
+  if (before.audit) await expect(page.getByTestId("field-map-audit")).not.toHaveAttribute("data-audit-id", auditId);
+  await page.goto("/");
+  await expect(page.locator(`[data-field-id="${fieldId}"]`)).not.toHaveAttribute("data-signed-audit", auditId);
+
+  // The technician submits it and the QA lead signs it off (with deviation: bed 3 fails in-row weeding).
+  const tech = await pageFor(browser, "technician");
+  expect((await tech.request.post(`/api/audits/${auditId}/submit`, { data: {} })).status()).toBe(200);
+  const lead = await pageFor(browser, "qa_lead");
+  const signed = await lead.request.post(`/api/audits/${auditId}/signoff`, {
+    data: {
+      checklist: { checkpoints: true, instrument: true, controlMark: true, profileFits: true },
+      comment: "Known float stretch in bed 3; accepted for the record.",
+      typedName: demoPerson("qa_lead").name,
+    },
+  });
+  expect(signed.status(), await signed.text()).toBe(201);
+
   const res = await page.request.get(`/api/fields/${fieldId}/map`);
   expect(res.status()).toBe(200);
   const view = (await res.json()) as FieldMapDto;
@@ -174,7 +202,9 @@ test("map -- refused outside the audit's organisation and without a session", as
   // Their own field has no audit; its grower view says so instead of showing someone else's.
   const own = await new AuditApi(page).fieldId("Saltings Trial Plot");
   await page.goto(`/fields/${own}/map`);
-  await expect(page.getByTestId("field-map-page")).toContainText("No audit of Saltings Trial Plot has results yet");
+  await expect(page.getByTestId("field-map-page")).toContainText(
+    "No audit of Saltings Trial Plot has been signed off yet",
+  );
 });
 
 test("map -- opened while its audit is still computing, it shows the progress and then the map", async ({ page }) => {

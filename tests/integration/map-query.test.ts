@@ -3,11 +3,13 @@
  * in-memory database with the real migrations: the aggregated columns must equal the stored rows, stay inside the
  * organisation, and feed the same guidance as the pure helpers.
  */
+import { eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { openDb, type DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field, organization } from "@/db/schema";
 import {
   getLatestMappedAudit,
+  getLatestSignedAudit,
   getMapContext,
   getMapExtent,
   getMapPair,
@@ -15,7 +17,7 @@ import {
   loadBedColumns,
   loadMapColumns,
 } from "@/db/queries/map";
-import { getFieldMapSummary } from "@/lib/server/map/field-map";
+import { getFieldMapSummary, listGrowerFields } from "@/lib/server/map/field-map";
 import { buildMapArrays, pairFlags } from "@/lib/map/build";
 import { decodeMapPayload, encodeMapPayload } from "@/lib/map/binary";
 import { bedGuidance, bedStats } from "@/lib/map/guidance";
@@ -36,6 +38,26 @@ const PROFILE = {
   requiredShare: 0.95,
   confidence: 0.95,
   minCheckpoints: 50,
+};
+
+const FIELD_ROW = {
+  id: FIELD,
+  orgId: ORG,
+  name: "Long Acre",
+  farm: "Kestrel Fen",
+  crs: "EPSG:25831",
+  timeZone: "Europe/Amsterdam",
+  rowBearingDeg: 22.5,
+  bedSpacingM: 3,
+  rowsPerBed: 5,
+  rowSpacingM: 0.5,
+};
+const SETTINGS = {
+  match: "auto",
+  maxDistanceM: 0.1,
+  rowBearingDeg: 22.5,
+  timeZone: "Europe/Amsterdam",
+  workCrs: "EPSG:25831",
 };
 
 interface Pair {
@@ -93,25 +115,8 @@ beforeAll(async () => {
     { id: ORG, name: "Kestrel Fen Growers", slug: "kestrel" },
     { id: OTHER, name: "Saltings Field Services", slug: "saltings" },
   ]);
-  await db.insert(field).values({
-    id: FIELD,
-    orgId: ORG,
-    name: "Long Acre",
-    farm: "Kestrel Fen",
-    crs: "EPSG:25831",
-    timeZone: "Europe/Amsterdam",
-    rowBearingDeg: 22.5,
-    bedSpacingM: 3,
-    rowsPerBed: 5,
-    rowSpacingM: 0.5,
-  });
-  const settings = {
-    match: "auto",
-    maxDistanceM: 0.1,
-    rowBearingDeg: 22.5,
-    timeZone: "Europe/Amsterdam",
-    workCrs: "EPSG:25831",
-  };
+  await db.insert(field).values(FIELD_ROW);
+  const settings = SETTINGS;
   await db.insert(audit).values([
     {
       id: AUDIT,
@@ -292,8 +297,46 @@ describe("map queries", () => {
     expect(await getLatestMappedAudit(db, { fieldId: FIELD, orgId: OTHER })).toBeNull();
   });
 
-  it("getFieldMapSummary -- per-bed guidance from the stored rows equals the pure helpers on the same values", async () => {
+  it("getFieldMapSummary -- the grower never sees guidance from an unsigned audit; a newer one is only mentioned", async () => {
+    // AUDIT is newer but only computed; OLDER is signed off and has no per-plant rows.
+    expect(await getLatestSignedAudit(db, { fieldId: FIELD, orgId: ORG })).toMatchObject({ id: OLDER });
     const view = await getFieldMapSummary(db, { fieldId: FIELD, orgId: ORG });
+    expect(view!.audit!.id).toBe(OLDER);
+    expect(view!.pending).toEqual({ id: AUDIT, title: "Long Acre spring check", state: "computed" });
+    expect(view!.beds).toEqual([]);
+    expect(view!.guidance).toEqual([]); // not bed 3's "do not rely" of the unsigned audit
+    expect(JSON.stringify(view)).not.toMatch(/Bed 3/);
+    const home = await listGrowerFields(db, { orgId: ORG });
+    expect(home).toHaveLength(1);
+    expect(home[0].signed!.id).toBe(OLDER);
+    expect(home[0].pending!.id).toBe(AUDIT);
+    expect(await listGrowerFields(db, { orgId: OTHER })).toEqual([]);
+    // a field with only an unsigned audit: nothing is used, the pending one is mentioned
+    const FIELD2 = "00000000-0000-4000-8000-00000000f002";
+    await db.insert(field).values({ ...FIELD_ROW, id: FIELD2, name: "Far Meadow" });
+    await db.insert(audit).values({
+      id: "00000000-0000-4000-8000-00000000a003",
+      orgId: ORG,
+      fieldId: FIELD2,
+      title: "Far Meadow first check",
+      state: "submitted",
+      profileSnapshot: PROFILE,
+      settings: SETTINGS,
+      computedAt: new Date("2026-04-22T10:00:00Z"),
+    });
+    const none = await getFieldMapSummary(db, { fieldId: FIELD2, orgId: ORG });
+    expect(none!.audit).toBeNull();
+    expect(none!.guidance).toEqual([]);
+    expect(none!.summary).toMatch(
+      /has been signed off yet\. A newer audit, “Far Meadow first check”, is waiting for sign-off/,
+    );
+  });
+
+  it("getFieldMapSummary -- per-bed guidance from the stored rows equals the pure helpers on the same values", async () => {
+    // Once the newer audit is signed off, the grower's view moves to it and nothing is pending.
+    await db.update(audit).set({ state: "signed_off" }).where(eq(audit.id, AUDIT));
+    const view = await getFieldMapSummary(db, { fieldId: FIELD, orgId: ORG });
+    expect(view!.pending).toBeNull();
     expect(view!.audit).toMatchObject({ id: AUDIT, pairs: 12 });
     const cols = await loadBedColumns(db, { auditId: AUDIT, orgId: ORG });
     expect(cols.bed).toEqual(PAIRS.map((p) => p.bed ?? ""));

@@ -1,5 +1,7 @@
 import type { AuditDto, AuditSummary } from "@/lib/api-types";
 import type { GroupRow } from "@/lib/audit/types";
+import { groupRowTrust } from "@/lib/audit/groups";
+import type { TrustWord } from "@/lib/audit/trust";
 import { PassMark } from "./pass-mark";
 import { formatMm, formatPct, formatSignedMm } from "./format";
 
@@ -18,30 +20,38 @@ const GROUP_TITLE: Partial<Record<GroupName, { title: string; key: string }>> = 
 const ORDER: GroupName[] = ["arm", "crop", "bed", "fix", "day", "row", "method", "cell"];
 
 export interface GroupJudgement {
-  /** "out": clearly over a limit; "unproven": looks within, but too few checkpoints to show the required share; "ok". */
+  /** "out": does not meet; "unproven": not enough evidence yet; "ok": meets (lib/audit/trust.ts). */
   status: "ok" | "out" | "unproven";
+  word: TrustWord;
+  /** The one-sided decision bound of the group's share within tolerance. */
+  lowerBound: number | null;
   reasons: string[];
 }
 
-/** How a group stands against the profile: the verdict's tests applied to one group. */
+const STATUS_OF_WORD: Record<TrustWord, GroupJudgement["status"]> = {
+  meets: "ok",
+  "does not meet": "out",
+  "not enough evidence yet": "unproven",
+};
+const LIMIT_WORDS = { radial: "radial", cross: "cross-row", along: "along-row" } as const;
+
+/** How a group stands against the profile: the one trust rule (lib/audit/trust.ts) applied to the group. */
 export function judgeGroup(g: GroupRow, profile: AuditDto["profile"]): GroupJudgement | null {
   if (!profile) return null;
-  const out: string[] = [];
-  if (profile.radialM !== null && g.r95 > profile.radialM)
-    out.push(`R95 ${formatMm(g.r95)} is over the ${formatMm(profile.radialM)} radial limit`);
-  if (g.withinShare !== null && g.withinShare < profile.requiredShare) {
-    out.push(`${formatPct(g.withinShare)} within tolerance, the profile asks for ${formatPct(profile.requiredShare)}`);
-  }
-  if (out.length) return { status: "out", reasons: out };
-  if (g.lower95 !== null && g.lower95 < profile.requiredShare) {
-    return {
-      status: "unproven",
-      reasons: [
-        `${g.pairs} checkpoints show only at least ${formatPct(g.lower95)} within tolerance; the profile asks for ${formatPct(profile.requiredShare)}`,
-      ],
-    };
-  }
-  return { status: "ok", reasons: [] };
+  const t = groupRowTrust(g, profile);
+  if (!t) return null;
+  const reasons: string[] = [];
+  for (const e of t.exceeded)
+    reasons.push(
+      `95 % of ${LIMIT_WORDS[e.limit]} errors within ${formatMm(e.p95)}, over the ${formatMm(e.limitM)} limit`,
+    );
+  if (t.share !== null && t.share < t.requiredShare)
+    reasons.push(`${formatPct(t.share)} within tolerance, the profile asks for ${formatPct(t.requiredShare)}`);
+  if (t.word === "not enough evidence yet")
+    reasons.push(
+      `${g.pairs} checkpoints show only at least ${formatPct(t.lowerBound)} within tolerance (one-sided, ${Math.round(t.confidence * 100)} %); the profile asks for ${formatPct(t.requiredShare)}${t.moreNeeded !== null ? ` — ${t.moreNeeded} more, all within, would settle it` : ""}`,
+    );
+  return { status: STATUS_OF_WORD[t.word], word: t.word, lowerBound: t.lowerBound, reasons };
 }
 
 /** Breakdown tables, one per grouping in the summary, with groups out of limit marked. */
@@ -59,7 +69,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
       </h2>
       <p className="mb-3 text-sm text-ink-soft">
         {audit.profile
-          ? "Out: the group's 95 % radius is over the profile's radial limit, or fewer of its plants than required are within tolerance. Unproven: the plants look within tolerance, but the group has too few checkpoints to show the required share with the profile's confidence."
+          ? "Each group is judged by the same rule as the verdict. Does not meet: a 95 % error figure is over its limit, or fewer of its plants than required are within tolerance. Not enough evidence yet: the plants look within tolerance, but the group has too few checkpoints to show the required share with the profile's confidence (one-sided bound). The interval in brackets is the two-sided interval, a description only."
           : "No profile: groups are not marked."}
       </p>
       <div className="grid gap-4">
@@ -93,7 +103,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                       R95
                     </th>
                     <th scope="col" className="pr-2 text-right font-medium">
-                      Within (interval)
+                      Within · decision bound (two-sided interval)
                     </th>
                     <th scope="col" className="font-medium">
                       Against the profile
@@ -110,6 +120,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                         data-group-key={g.key ?? ""}
                         data-out={j?.status === "out" ? "true" : "false"}
                         data-status={j?.status ?? "none"}
+                        data-word={j?.word ?? ""}
                       >
                         <th scope="row" className="py-1.5 pr-2 font-medium whitespace-nowrap">
                           {g.key ?? <span className="text-ink-faint">missing</span>}
@@ -128,7 +139,8 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                             "–"
                           ) : (
                             <>
-                              {formatPct(g.withinShare, 0)}{" "}
+                              {formatPct(g.withinShare, 0)}
+                              {j ? <> · ≥ {formatPct(j.lowerBound, 1)}</> : null}{" "}
                               <span className="text-xs text-ink-faint">
                                 ({formatPct(g.lower95, 0)}–{formatPct(g.upper95, 0)})
                               </span>
@@ -149,10 +161,10 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
                                   strokeLinecap="round"
                                 />
                               </svg>
-                              Unproven
+                              Not enough evidence yet
                             </span>
                           ) : (
-                            <PassMark passed={j.status === "ok"} passWord="OK" failWord="Out" />
+                            <PassMark passed={j.status === "ok"} passWord="Meets" failWord="Does not meet" />
                           )}
                           {j?.reasons.length ? (
                             <span className={`block text-xs ${j.status === "out" ? "text-alarm" : "text-ink-soft"}`}>

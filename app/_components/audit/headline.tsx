@@ -107,7 +107,7 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
           value={w ? formatPct(w.share) : "–"}
           detail={
             w
-              ? `${formatCount(w.within)} of ${formatCount(w.n)} plants; ${Math.round(w.confidence * 100)} % interval ${formatPct(w.lower95)} – ${formatPct(w.upper95)}`
+              ? `${formatCount(w.within)} of ${formatCount(w.n)} plants; ${w.lowerOneSided != null ? `decision bound: at least ${formatPct(w.lowerOneSided)} with ${Math.round(w.confidence * 100)} % confidence (one-sided); ` : ""}two-sided ${Math.round(w.confidence * 100)} % interval, a description: ${formatPct(w.lower95)} – ${formatPct(w.upper95)}`
               : "no tolerance limits were set"
           }
         />

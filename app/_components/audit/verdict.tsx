@@ -73,7 +73,18 @@ export function VerdictPanel({ audit }: { audit: AuditDto }) {
             <PassMark passed={c.passed} />
             <span className="text-sm font-medium">{CRITERION_NAME[c.id]}</span>
             <span className="text-sm">
+              {c.trust ? (
+                <strong className="mr-1" data-testid="criterion-word" data-word={c.trust.word}>
+                  {c.trust.word[0].toUpperCase() + c.trust.word.slice(1)}.
+                </strong>
+              ) : null}
               {c.text}
+              {c.trust?.interval ? (
+                <span className="block text-xs text-ink-faint">
+                  Two-sided {Math.round(c.trust.confidence * 100)} % interval, a description only:{" "}
+                  {formatPct(c.trust.interval.lower)} – {formatPct(c.trust.interval.upper)}
+                </span>
+              ) : null}
               <span className="sr-only">
                 {" "}
                 (measured {figure(c.observed, c.unit)}, limit {figure(c.limit, c.unit)})

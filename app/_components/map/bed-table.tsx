@@ -2,9 +2,9 @@ import type { BedGuidance, BedState, BedStats } from "@/lib/map/types";
 import { bedName } from "@/lib/map/guidance";
 
 const STATE_MARK: Record<BedState, { text: string; cls: string }> = {
-  "relied-on": { text: "✓ can be relied on", cls: "text-leaf" },
-  "not-relied-on": { text: "✗ do not rely on", cls: "text-alarm" },
-  "not-shown": { text: "? not yet shown", cls: "text-loam" },
+  "relied-on": { text: "✓ meets — can be relied on", cls: "text-leaf" },
+  "not-relied-on": { text: "✗ does not meet — do not rely on", cls: "text-alarm" },
+  "not-shown": { text: "? not enough evidence yet", cls: "text-loam" },
   "no-checkpoints": { text: "– not checked", cls: "text-ink-faint" },
   "no-limits": { text: "– no limits", cls: "text-ink-faint" },
 };
@@ -37,7 +37,7 @@ export function BedTable({ beds, guidance, caption }: { beds: BedStats[]; guidan
             const g = byBed.get(s.bed);
             const mark = g ? STATE_MARK[g.state] : null;
             return (
-              <tr key={s.bed} data-testid="bed-row" data-bed={s.bed} data-state={g?.state}>
+              <tr key={s.bed} data-testid="bed-row" data-bed={s.bed} data-state={g?.state} data-word={g?.word ?? ""}>
                 <td className="py-2 pr-2 font-medium">{bedName(s.bed).replace(/^Bed /, "")}</td>
                 <td>{s.n}</td>
                 <td className={s.out > 0 ? "text-alarm" : undefined}>

@@ -1,14 +1,16 @@
 import "server-only";
 import type { DB } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
-import { getFieldById } from "@/db/queries/fields";
-import { getLatestMappedAudit, loadBedColumns } from "@/db/queries/map";
+import { getFieldById, listFields } from "@/db/queries/fields";
+import { auditTrust } from "@/lib/audit/audit-trust";
+import type { TrustWord } from "@/lib/audit/trust";
+import { getLatestSignedAudit, getNewestPendingAudit, loadBedColumns } from "@/db/queries/map";
 import { fieldMapSummary } from "@/lib/map/field-summary";
 import type { FieldMapDto } from "@/lib/map/types";
 
 /**
- * The grower's summary of a field: its latest audit with results, statistics and guidance per bed.
- * Null when the field is not in this organisation.
+ * The grower's summary of a field: its latest signed-off audit, statistics and guidance per bed, and a newer audit
+ * waiting for sign-off, mentioned but never used. Null when the field is not in this organisation.
  */
 export async function getFieldMapSummary(
   db: DB,
@@ -16,8 +18,52 @@ export async function getFieldMapSummary(
 ): Promise<FieldMapDto | null> {
   const f = await getFieldById(db, { id: fieldId, orgId });
   if (!f) return null;
-  const latest = await getLatestMappedAudit(db, { fieldId, orgId });
-  const a = latest ? await getAuditById(db, { id: latest.id, orgId }) : null;
+  const signed = await getLatestSignedAudit(db, { fieldId, orgId });
+  const pending = await getNewestPendingAudit(db, { fieldId, orgId, after: signed?.computedAt ?? null });
+  const a = signed ? await getAuditById(db, { id: signed.id, orgId }) : null;
   const columns = a ? await loadBedColumns(db, { auditId: a.id, orgId }) : null;
-  return fieldMapSummary({ id: f.id, name: f.name, crs: f.crs }, a, columns);
+  return fieldMapSummary({ id: f.id, name: f.name, crs: f.crs }, a, columns, pending);
+}
+
+/** One field on the grower's home: its latest signed-off audit and the trust word over all its pairs. */
+export interface GrowerFieldItem {
+  field: { id: string; name: string; farm: string };
+  signed: {
+    id: string;
+    title: string;
+    passed: boolean | null;
+    /** The trust rule over all pairs (lib/audit/audit-trust.ts); null without a profile or limits. */
+    word: TrustWord | null;
+    rmseR: number | null;
+  } | null;
+  pending: FieldMapDto["pending"];
+}
+
+/**
+ * The grower's home: every field with what its latest signed-off audit says, and a newer audit waiting for sign-off
+ * mentioned, never used.
+ */
+export async function listGrowerFields(db: DB, { orgId }: { orgId: string }): Promise<GrowerFieldItem[]> {
+  const fields = await listFields(db, { orgId });
+  const out: GrowerFieldItem[] = [];
+  for (const f of fields) {
+    const signed = await getLatestSignedAudit(db, { fieldId: f.id, orgId });
+    const pending = await getNewestPendingAudit(db, { fieldId: f.id, orgId, after: signed?.computedAt ?? null });
+    const a = signed ? await getAuditById(db, { id: signed.id, orgId }) : null;
+    const trust = a?.summary && a.profile ? auditTrust(a.summary, a.verdict, a.profile).all : null;
+    out.push({
+      field: { id: f.id, name: f.name, farm: f.farm },
+      signed: a
+        ? {
+            id: a.id,
+            title: a.title,
+            passed: a.verdict?.passed ?? null,
+            word: trust?.word ?? null,
+            rmseR: a.summary?.rmseR ?? null,
+          }
+        : null,
+      pending,
+    });
+  }
+  return out;
 }

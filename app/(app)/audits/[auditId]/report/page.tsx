@@ -9,6 +9,7 @@ import { getSignoff, userName } from "@/db/queries/review";
 import { logActivity } from "@/db/queries/activity";
 import { ROLE_LABEL, isRole } from "@/lib/roles";
 import type { AuditSummary, DatasetDto } from "@/lib/api-types";
+import { auditTrust } from "@/lib/audit/audit-trust";
 import { Mark } from "@/app/_components/mark";
 import { formatDate, formatMm } from "@/app/_components/ui";
 import { idFromParams } from "@/lib/validation/ids";
@@ -82,6 +83,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
   const s = audit.summary as AuditSummary | null;
   const p = audit.profile;
   const datasets = [planted, survey].filter((d): d is DatasetDto => !!d);
+  const trust = s && p ? auditTrust(s, audit.verdict, p) : null;
   const groups = s
     ? (
         Object.entries(s.groups) as [string, NonNullable<AuditSummary["groups"][keyof AuditSummary["groups"]]>][]
@@ -195,8 +197,8 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
           </p>
           <p className="text-xs text-ink-soft">
             Limits (95 % of errors): radial {formatMm(p.radialM)}, cross-row {formatMm(p.crossM)}, along-row{" "}
-            {formatMm(p.alongM)} · at least {pct(p.requiredShare)} of plants within every limit (lower bound at{" "}
-            {Math.round(p.confidence * 100)} % confidence) · at least {p.minCheckpoints} checkpoints.
+            {formatMm(p.alongM)} · at least {pct(p.requiredShare)} of plants within every limit (one-sided lower bound
+            at {Math.round(p.confidence * 100)} % confidence) · at least {p.minCheckpoints} checkpoints.
           </p>
         </Section>
       ) : null}
@@ -248,7 +250,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               <dt className="text-ink-soft">Within tolerance</dt>
               <dd>
                 {s.withinTolerance
-                  ? `${pct(s.withinTolerance.share)} (${s.withinTolerance.within} of ${s.withinTolerance.n}; at least ${pct(s.withinTolerance.lower95)} at ${Math.round(s.withinTolerance.confidence * 100)} % confidence)`
+                  ? `${pct(s.withinTolerance.share)} (${s.withinTolerance.within} of ${s.withinTolerance.n})${trust?.all ? `; decision bound: at least ${pct(trust.all.lowerBound)} at ${Math.round(s.withinTolerance.confidence * 100)} % confidence (one-sided) — ${trust.all.word}` : ""}; two-sided interval, a description: ${pct(s.withinTolerance.lower95)} – ${pct(s.withinTolerance.upper95)}`
                   : "no limits"}
               </dd>
               <dt className="text-ink-soft">Outliers flagged</dt>
@@ -284,23 +286,29 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
                     <th className="font-medium">Along</th>
                     <th className="font-medium">95 %</th>
                     <th className="font-medium">Within</th>
+                    <th className="font-medium">Against the profile</th>
                   </tr>
                 </thead>
                 <tbody>
-                  {rows.map((g) => (
-                    <tr
-                      key={String(g.key)}
-                      className={`border-t border-chalk-deep ${g.withinShare !== null && p && g.withinShare < p.requiredShare ? "text-alarm" : ""}`}
-                    >
-                      <td>{g.key ?? "(none)"}</td>
-                      <td>{g.pairs}</td>
-                      <td>{formatMm(g.rmseR)}</td>
-                      <td>{formatMm(g.rmseCross)}</td>
-                      <td>{formatMm(g.rmseAlong)}</td>
-                      <td>{formatMm(g.r95)}</td>
-                      <td>{pct(g.withinShare)}</td>
-                    </tr>
-                  ))}
+                  {rows.map((g, i) => {
+                    const t = trust?.groups[name]?.[i]?.trust ?? null;
+                    return (
+                      <tr
+                        key={String(g.key)}
+                        className={`border-t border-chalk-deep ${t?.word === "does not meet" ? "text-alarm" : ""}`}
+                        data-word={t?.word ?? ""}
+                      >
+                        <td>{g.key ?? "(none)"}</td>
+                        <td>{g.pairs}</td>
+                        <td>{formatMm(g.rmseR)}</td>
+                        <td>{formatMm(g.rmseCross)}</td>
+                        <td>{formatMm(g.rmseAlong)}</td>
+                        <td>{formatMm(g.r95)}</td>
+                        <td>{pct(g.withinShare)}</td>
+                        <td>{t ? `${t.word} (≥ ${pct(t.lowerBound)})` : "–"}</td>
+                      </tr>
+                    );
+                  })}
                 </tbody>
               </table>
             ))}

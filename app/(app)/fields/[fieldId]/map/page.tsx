@@ -9,6 +9,7 @@ import { Empty, Panel, formatDate } from "@/app/_components/ui";
 import { MapLoader } from "@/app/_components/map/map-loader";
 import { BedTable } from "@/app/_components/map/bed-table";
 import { RECORD_ACCURACY_REMINDER } from "@/lib/map/guidance";
+import { pendingSentence } from "@/lib/map/field-summary";
 
 export const metadata: Metadata = { title: "Field map" };
 
@@ -52,8 +53,8 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
           Where the records of {view.field.name} can be relied on
         </h1>
         {view.audit ? (
-          <p className="mt-1 text-sm text-ink-soft" data-testid="field-map-audit">
-            From the latest audit with results, <span className="font-medium text-ink">{view.audit.title}</span>
+          <p className="mt-1 text-sm text-ink-soft" data-testid="field-map-audit" data-audit-id={view.audit.id}>
+            From the latest signed-off audit, <span className="font-medium text-ink">{view.audit.title}</span>
             {view.audit.computedAt ? <> (computed {formatDate(view.audit.computedAt)})</> : null}
             {p ? (
               <>
@@ -64,6 +65,11 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
               </>
             ) : null}
             .
+          </p>
+        ) : null}
+        {view.pending ? (
+          <p className="mt-2 rounded-plot border-l-4 border-stake bg-white p-3 text-sm" data-testid="field-map-pending">
+            {pendingSentence(view.pending)}
           </p>
         ) : null}
       </header>
@@ -77,9 +83,31 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
             <BedTable beds={view.beds} guidance={view.guidance} caption={`Checkpoints per bed in ${view.field.name}`} />
             <p className="mt-3 text-xs text-ink-faint">{RECORD_ACCURACY_REMINDER}</p>
           </Panel>
+          <Panel title="Downloads of the signed audit">
+            <ul className="grid gap-1 text-sm" data-testid="field-map-downloads">
+              <li>
+                <a
+                  className="font-medium text-leaf hover:underline"
+                  href={`/api/audits/${view.audit.id}/residuals.csv`}
+                >
+                  Per-plant errors (CSV)
+                </a>
+              </li>
+              <li>
+                <a className="font-medium text-leaf hover:underline" href={`/api/audits/${view.audit.id}/summary.csv`}>
+                  Summary (CSV)
+                </a>
+              </li>
+              <li>
+                <a className="font-medium text-leaf hover:underline" href={`/api/audits/${view.audit.id}/unpaired.csv`}>
+                  Unpaired points (CSV)
+                </a>
+              </li>
+            </ul>
+          </Panel>
         </>
       ) : (
-        <Panel title="No results yet">
+        <Panel title="No signed-off audit yet">
           <Empty>{view.summary}</Empty>
         </Panel>
       )}

@@ -2,8 +2,12 @@ import { guardedRoute } from "@/lib/server/access";
 import { AppError } from "@/lib/errors";
 import { ANY_ROLE } from "@/lib/roles";
 import { auditForViewer } from "@/lib/server/audits/audit-access";
+import { auditTrust } from "@/lib/audit/audit-trust";
 
-/** The engine's JSON summary, with the same keys as `npm run audit`. */
+/**
+ * The engine's JSON summary, with the same keys as `npm run audit`, plus `trust`: the one trust rule's word for all
+ * pairs and every breakdown row against the audit's profile (lib/audit/audit-trust.ts); null without a profile.
+ */
 export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
   const audit = await auditForViewer(viewer, params);
   if (!audit.summary)
@@ -11,5 +15,6 @@ export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, param
       "conflict",
       audit.state === "failed" ? `This audit failed: ${audit.error}` : "This audit is still computing.",
     );
-  return Response.json(audit.summary);
+  const trust = audit.profile ? auditTrust(audit.summary, audit.verdict, audit.profile) : null;
+  return Response.json({ ...audit.summary, trust });
 });
