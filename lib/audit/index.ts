@@ -2,6 +2,7 @@
  * Audit engine, part B: accuracy statistics and reports from projected, paired planted and survey tables.
  * Pure: no I/O, no clock, no environment; inputs are never modified. Errors are SURVEY minus PLANTED, metres.
  */
+import { ENGINE_VERSION } from "./engine-version";
 import type { AttributeName, CodedColumn, Pairing, ProjectedTable } from "@/geo/types";
 import { PAIRED_BY_ID } from "@/geo/types";
 import { groupStatistics, type GroupRow } from "./groups";
@@ -367,6 +368,7 @@ export function computeAudit(input: AuditInput): AuditResult {
     groups,
     raw,
     notes,
+    engineVersion: ENGINE_VERSION,
   };
 
   const residuals: AuditResiduals = {

@@ -137,6 +137,8 @@ export interface AuditNote {
 
 /** The audit summary: stable keys, documented in SUMMARY.md. */
 export interface AuditSummary extends HeadlineStats {
+  /** The engine's rule version (lib/audit/engine-version.ts); absent in summaries written before it was kept (= 1). */
+  engineVersion?: number;
   /** "no-pairs" when nothing could be paired (all statistics null), else "ok". */
   status: "ok" | "no-pairs";
   /** Work CRS of both tables (e.g. "EPSG:32631"). */

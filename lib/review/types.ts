@@ -71,6 +71,8 @@ export interface VerificationCheckDto {
     | "stored-hash"
     | "recomputed-hash";
   ok: boolean;
+  /** A difference that is explained rather than a failure (re-computed by a newer engine than the one that signed). */
+  informational?: boolean;
   label: string;
   /** What was found, in plain words. */
   text: string;

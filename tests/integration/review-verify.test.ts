@@ -240,4 +240,44 @@ describe("verify -- re-computing from the raw files against the signed record", 
     expect(bad.ok).toBe(false);
     expect(check(bad, "recomputed-results")[0].differences!.map((d) => d.path)).toEqual(["results.residuals.sha256"]);
   });
+
+  it("verify -- an audit signed under an older engine's rules: the different re-computation is explained, not failed", async () => {
+    // What an audit computed before engine versions were kept looks like: no engineVersion, a figure the old rule gave.
+    const id = await cloneAudit(w.db, w.base.id, "computed");
+    await w.db.execute(
+      sql`update audit set summary = jsonb_set(summary - 'engineVersion', '{withinTolerance,lower}', '0.5'::jsonb) where id = ${id}`,
+    );
+    const submitted = await submitRoute.POST(
+      req(`/api/audits/${id}/submit`, { method: "POST", cookie: w.cookies.technician }),
+      ctx({ id }),
+    );
+    expect(submitted.status).toBe(200);
+    const signed = await signoffRoute.POST(
+      req(`/api/audits/${id}/signoff`, {
+        method: "POST",
+        cookie: w.cookies.qa_lead,
+        body: JSON.stringify(signoffBody("qa_lead")),
+      }),
+      ctx({ id }),
+    );
+    expect(signed.status).toBe(201);
+    const v = await verify(id);
+    expect(v.ok).toBe(true);
+    for (const c of ["record", "stored-results", "stored-hash"]) expect(check(v, c)[0].ok, c).toBe(true);
+    const recomputed = check(v, "recomputed-results")[0];
+    expect(recomputed).toMatchObject({ ok: true, informational: true });
+    expect(recomputed.text).toContain("computed by engine version 1");
+    expect(recomputed.differences!.map((d) => d.path)).toContain("results.summary.engineVersion");
+    expect(check(v, "recomputed-hash")[0]).toMatchObject({ ok: true, informational: true });
+  });
+
+  it("verify -- the same difference under today's engine version is a failure", async () => {
+    const { id } = await signedAudit();
+    await tamper(
+      sql`update audit set summary = jsonb_set(summary, '{withinTolerance,lower}', '0.5'::jsonb) where id = ${id}`,
+    );
+    const v = await verify(id);
+    expect(v.ok).toBe(false);
+    expect(check(v, "recomputed-results")[0].informational).toBeUndefined();
+  });
 });

@@ -153,7 +153,7 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
         <ul className="mt-3 space-y-1 text-sm text-ink-soft" aria-label="Notes on the result">
           {s.notes.map((n) => (
             <li key={n.code} data-note={n.code}>
-              Note: {n.message}
+              Note: {noteText(n, s.outliers.count)}
             </li>
           ))}
         </ul>
@@ -198,4 +198,13 @@ function formatArcsec(arcsec: number): string {
 
 function formatSignedM(m: number): string {
   return `${m >= 0 ? "+" : "\u2212"}${Math.abs(m).toFixed(4)} m`;
+}
+
+/**
+ * A note as the page says it. The engine's outlier note names a key of the summary JSON (it is part of what was
+ * signed, so it stays as computed); the page says it in words.
+ */
+function noteText(n: { code: string; message: string }, outliers: number): string {
+  if (n.code !== "outliers") return n.message;
+  return `${outliers} pair${outliers === 1 ? " is" : "s are"} flagged as outliers; the figures without them are given above.`;
 }

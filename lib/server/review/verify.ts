@@ -6,6 +6,7 @@ import { sha256Hex } from "@/lib/review/hash";
 import { hashRecord, type RecordSigner, type SignedRecord } from "@/lib/review/record";
 import { jsonDifferences } from "@/lib/review/diff";
 import type { VerificationCheckDto, VerificationDto } from "@/lib/review/types";
+import { ENGINE_VERSION, engineVersionOf } from "@/lib/audit/engine-version";
 import { recomputeRecordBody, storedRecordBody, withSigner, type RecordBody } from "./record-sources";
 import { actorOf } from "./review-service";
 
@@ -43,6 +44,11 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
     ? { audit: signedRecord.audit, inputs: signedRecord.inputs, results: signedRecord.results }
     : stored;
   const recomputed = await recomputeRecordBody(db, audit, stored);
+  // Computed under older rules: a different re-computation says the engine changed, not the audit. The integrity
+  // of what was signed rests on the hashes of the record, the raw files and the stored results.
+  const computedBy = engineVersionOf(reference.results.summary);
+  const olderEngine = computedBy !== ENGINE_VERSION;
+  const engineNote = `This audit was computed by engine version ${computedBy}; today's engine (version ${ENGINE_VERSION}) has changed its rules since, so computing it again gives different results. That is not a change to the audit: its record, raw files and stored results are checked above.`;
 
   for (const f of recomputed.files) {
     const signedSha = signedRecord?.inputs[f.kind].sha256 ?? f.storedSha256;
@@ -84,14 +90,22 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
   }
   if (recomputed.body) {
     const diffs = jsonDifferences(reference, recomputed.body);
+    const byOlderEngine = diffs.length > 0 && olderEngine;
     checks.push({
       id: "recomputed-results",
-      ok: diffs.length === 0,
-      label: signedRecord ? "Re-computed results as signed" : "Re-computed results as stored",
+      ok: diffs.length === 0 || byOlderEngine,
+      ...(byOlderEngine ? { informational: true } : {}),
+      label: byOlderEngine
+        ? `Re-computed with today's engine (version ${ENGINE_VERSION})`
+        : signedRecord
+          ? "Re-computed results as signed"
+          : "Re-computed results as stored",
       text:
         diffs.length === 0
           ? "Computing the audit again from the raw files gives exactly the same figures, verdict, per-plant rows and reports."
-          : `Computing again from the raw files gives different results: ${describeDiffs(diffs)}.`,
+          : byOlderEngine
+            ? `${engineNote} Differences: ${describeDiffs(diffs)}.`
+            : `Computing again from the raw files gives different results: ${describeDiffs(diffs)}.`,
       differences: diffs,
     });
   } else {
@@ -118,13 +132,16 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
     });
     if (recomputed.body) {
       recomputedSha256 = hashRecord(withSigner(recomputed.body, signer)).sha256;
+      const same = recomputedSha256 === signoff.sha256;
       checks.push({
         id: "recomputed-hash",
-        ok: recomputedSha256 === signoff.sha256,
+        ok: same || olderEngine,
+        ...(!same && olderEngine ? { informational: true } : {}),
         label: "Hash of the re-computed audit",
-        text:
-          recomputedSha256 === signoff.sha256
-            ? `Re-computed from the raw files, the audit hashes to the signed ${short(signoff.sha256)}.`
+        text: same
+          ? `Re-computed from the raw files, the audit hashes to the signed ${short(signoff.sha256)}.`
+          : olderEngine
+            ? `Re-computed with today's engine, the audit hashes to ${short(recomputedSha256)}, not to the signed ${short(signoff.sha256)}: engine version ${computedBy} computed what was signed.`
             : `Re-computed from the raw files, the audit hashes to ${short(recomputedSha256)}, not to the signed ${short(signoff.sha256)}.`,
       });
     }

@@ -93,8 +93,11 @@ export function VerifyPanel({ auditId, canVerify, signed }: { auditId: string; c
           <ul className="mt-3 divide-y divide-chalk-deep text-sm">
             {result.checks.map((c, i) => (
               <li key={`${c.id}-${i}`} className="py-2" data-check={c.id} data-ok={c.ok}>
-                <span className={`mr-2 font-semibold ${c.ok ? "text-leaf" : "text-alarm"}`}>
-                  {c.ok ? "✓" : "✗"} {c.label}
+                <span
+                  className={`mr-2 font-semibold ${c.informational ? "text-loam" : c.ok ? "text-leaf" : "text-alarm"}`}
+                  data-informational={c.informational ? "true" : undefined}
+                >
+                  {c.informational ? "ℹ" : c.ok ? "✓" : "✗"} {c.label}
                 </span>
                 <span className="text-ink-soft">{c.text}</span>
                 {c.differences && c.differences.length > 0 ? (
