@@ -7,6 +7,7 @@ import type { AuditDto, AuditState } from "@/lib/api-types";
 import { FieldTime, RevisionTag } from "@/app/_components/ui";
 import { VerdictPanel } from "./verdict";
 import { HeadlineFigures } from "./headline";
+import { AccuracyStatementBlock } from "./accuracy-statement";
 import { BreakdownTables } from "./groups";
 import { ResidualsTable } from "./residuals-table";
 import { UnpairedLists } from "./unpaired";
@@ -133,6 +134,7 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
           <VerdictPanel audit={audit} />
           <ScopeCaution />
           <HeadlineFigures summary={audit.summary!} />
+          <AccuracyStatementBlock summary={audit.summary!} surveyRmseH={null} />
           <TermsExplained />
           <BreakdownTables audit={audit} />
           <AuditCharts audit={audit} />

@@ -4,7 +4,8 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { chartData, getAuditById } from "@/db/queries/audits";
-import { getDatasetById } from "@/db/queries/datasets";
+import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
+import { medianFinite } from "@/lib/review/checklist";
 import { getSignoff, userName } from "@/db/queries/review";
 import { logActivity } from "@/db/queries/activity";
 import { ROLE_LABEL, isRole } from "@/lib/roles";
@@ -13,6 +14,7 @@ import { auditTrust } from "@/lib/audit/audit-trust";
 import { Mark } from "@/app/_components/mark";
 import { formatDate, formatMm } from "@/app/_components/ui";
 import { idFromParams } from "@/lib/validation/ids";
+import { AccuracyStatementBlock } from "@/app/_components/audit/accuracy-statement";
 import { ErrorScatterSvg } from "./error-scatter-svg";
 import { PrintButton } from "./print-button";
 
@@ -81,6 +83,19 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
     });
 
   const s = audit.summary as AuditSummary | null;
+  // The checkpoint survey's own precision: as confirmed at sign-off, else the survey file's median stated precision.
+  const filePrecisionM =
+    s && !signoff && audit.survey
+      ? medianFinite(
+          (await loadDatasetPoints(db, { id: audit.survey.id, orgId: viewer.orgId }))?.table.precision ?? null,
+        )
+      : null;
+  const surveyRmseH = signoff ? signoff.checklist.instrument.precisionMm / 1000 : filePrecisionM;
+  const surveySource = signoff
+    ? `the survey precision confirmed at sign-off (${signoff.checklist.instrument.precisionMm} mm, from the ${signoff.checklist.instrument.source})`
+    : filePrecisionM !== null
+      ? `the survey file's median stated precision (${(filePrecisionM * 1000).toFixed(1)} mm)`
+      : undefined;
   const p = audit.profile;
   const datasets = [planted, survey].filter((d): d is DatasetDto => !!d);
   const trust = s && p ? auditTrust(s, audit.verdict, p) : null;
@@ -256,6 +271,9 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               <dt className="text-ink-soft">Outliers flagged</dt>
               <dd>{s.outliers.count}</dd>
             </dl>
+          </Section>
+          <Section title="Accuracy statement">
+            <AccuracyStatementBlock summary={s} compact surveyRmseH={surveyRmseH} surveySource={surveySource} />
           </Section>
           {chart ? (
             <Section title="Errors">
