@@ -4,7 +4,7 @@ import { geographicOf, resolveCrs } from "../crs/registry";
 import type { PointTable } from "../types";
 import { convertArrays, convertPoint, projectTable, resolveWorkCrs, toLonLat } from "./index";
 
-// Geographic source on the CRS's own datum (no towgs84 shift), as check-values.md warns.
+// Geographic source on the CRS's own datum (no towgs84 shift): the IOGP 373-7-2 examples are conversions, not datum shifts.
 const own = (code: string) => geographicOf(resolveCrs(code).proj4);
 
 const table = (x: number[], y: number[], extra: Partial<PointTable> = {}): PointTable => ({

@@ -2,7 +2,7 @@
  * Sources: IOGP Publication 373-7-2 (Geomatics Guidance Note 7 part 2), EPSG method 9621 "Similarity
  * transformation", worked example of EPSG transformation 5166 (ED50 / UTM 31N → ETRS89 / UTM 31N):
  * X0 = −129.549 m, Y0 = −208.185 m, M = 1.0000015504, θ = 1.56504″; point pairs from that example and the
- * Catalan cartographic institute (ICGC); least-squares fit values from check-values.md (computed):
+ * Catalan cartographic institute (ICGC); least-squares fit of those pairs computed with numpy.linalg.lstsq (not published):
  * M = 1.0000015523, θ = 1.56500″, shifts (−129.549, −208.194) m, residuals ≤ 0.3 mm.
  */
 import fc from "fast-check";
@@ -36,7 +36,7 @@ describe("helmert", () => {
     expect(Math.abs(fit.rotationArcsec - EPSG_5166.rotationArcsec)).toBeLessThan(0.01);
     expect(Math.abs(fit.tE - EPSG_5166.tE)).toBeLessThan(0.001);
     expect(Math.abs(fit.tN - EPSG_5166.tN)).toBeLessThan(0.01);
-    // check-values.md, least-squares fit to the four pairs (computed): shifts to the mm, residuals ≤ 0.3 mm
+    // numpy.linalg.lstsq fit to the four IOGP 373-7-2 / ICGC pairs (computed): shifts to the mm, residuals ≤ 0.3 mm
     expect(Math.abs(fit.scale - 1.0000015523)).toBeLessThan(1e-9);
     expect(Math.abs(fit.rotationArcsec - 1.565)).toBeLessThan(0.0005);
     expect(Math.abs(fit.tE - -129.549)).toBeLessThan(0.001);

@@ -1,7 +1,7 @@
 /**
  * Sources: FGDC-STD-007.3-1998 Appendix 3-A (RMSE, RMSE_r, NSSDA cases, ≥ 20 checkpoints);
  * simple-statistics 7.12.1 (mean, sampleStandardDeviation, rootMeanSquare, quantile type 7) and
- * jstat 1.9.6 (jStat.studentt.inv) as independent oracles; check-values.md circular normal k = 1.177410 / 2.447747
+ * jstat 1.9.6 (jStat.studentt.inv) as independent oracles; Rayleigh CDF 1 − exp(−k²/2) (scipy.stats.rayleigh.ppf) k = 1.177410 / 2.447747
  * (computed); Clopper & Pearson 1934. Simulated fields use our own seeded PRNG (mulberry32 + Box–Muller).
  * Example data is a fictional farm ("Hollow Brook").
  */
@@ -92,7 +92,7 @@ describe("computeAudit", () => {
     expect(summary.rmseR).toBeCloseTo(Math.hypot(ss.rootMeanSquare(dE), ss.rootMeanSquare(dN)), 9);
     expect(summary.cep50).toBeCloseTo(ss.quantile(radial, 0.5), 9);
     expect(summary.r95).toBeCloseTo(ss.quantile(radial, 0.95), 9);
-    // check-values.md: k = 1.177410 (CEP) and 2.447747 (R95) times σ_c = RMSE_r/√2
+    // scipy.stats.rayleigh.ppf(0.5 / 0.95): k = 1.177410 (CEP) and 2.447747 (R95) times σ_c = RMSE_r/√2
     expect(summary.cep50Model).toBeCloseTo((1.17741 * summary.rmseR!) / Math.SQRT2, 6);
     expect(summary.r95Model).toBeCloseTo((2.447747 * summary.rmseR!) / Math.SQRT2, 6);
     // jstat.studentt.inv as oracle for the bias interval

@@ -1,7 +1,7 @@
 /**
  * Sources: FGDC-STD-007.3-1998, Geospatial Positioning Accuracy Standards Part 3 (NSSDA), Appendix 3-A
- * (constants 2.4477 and 1.7308, Case 1 and Case 2), §3.2.2 (at least 20 checkpoints); check-values.md
- * (computed: at ratio 0.6 the Case 2 formula underestimates the true 95 % radius by 5.9 %).
+ * (constants 2.4477 and 1.7308, Case 1 and Case 2), §3.2.2 (at least 20 checkpoints); numerical integration of the bivariate normal with scipy.integrate
+ * (computed, not published: at ratio 0.6 the Case 2 formula underestimates the true 95 % radius by 5.9 %).
  */
 import { describe, expect, it } from "vitest";
 import { NSSDA_CASE1_FACTOR_R, NSSDA_CASE1_FACTOR_X, nssdaHorizontal } from "./nssda";
@@ -58,7 +58,7 @@ describe("nssdaHorizontal", () => {
   });
 
   it("nssdaHorizontal -- why the ratio limit matters: case 2 underestimates at ratio 0.6", () => {
-    // check-values.md (computed by numerical integration): at ratio 0.6 the Case 2 value is 5.9 % below the
+    // scipy.integrate over the bivariate normal (computed, not published): at ratio 0.6 the Case 2 value is 5.9 % below the
     // true 95 % radius. Reproduced here with a large simulated elliptical error sample and our empirical r95.
     const z = gaussian(mulberry32(7));
     const n = 400_000;

@@ -1,6 +1,6 @@
 /**
  * Sources: 1.4826 = 1/Φ⁻¹(0.75) with jstat.normal.inv as independent oracle; Rayleigh tail
- * P(r > kσ) = exp(−k²/2) for the false-flag rate (check-values.md, circular normal radii); k = 3.5 after
+ * P(r > kσ) = exp(−k²/2) for the false-flag rate (Rayleigh CDF, as scipy.stats.rayleigh.sf gives it); k = 3.5 after
  * Iglewicz & Hoaglin (1993) (from memory). Fields simulated with our seeded PRNG (mulberry32 + Box–Muller).
  */
 import jStat from "jstat";

@@ -1,5 +1,5 @@
 /**
- * Sources: check-values.md "Circular normal (Rayleigh) radii" (computed): P(r ≤ kσ) = 1 − exp(−k²/2) with
+ * Sources: the Rayleigh distribution CDF, values from scipy.stats.rayleigh (computed): P(r ≤ kσ) = 1 − exp(−k²/2) with
  * k = 1.177410 (CEP), 2.145966 (CE90), 2.447747 (R95), 3.034854 (R99); simple-statistics 7.12.1 quantile as oracle.
  */
 import * as ss from "simple-statistics";
@@ -17,7 +17,7 @@ import { gaussian, mulberry32 } from "./test-helpers";
 
 describe("radii", () => {
   it("circularRadiusFactor -- published k values", () => {
-    // check-values.md, circular normal radii (computed): k for P = 0.5, 0.9, 0.95, 0.99
+    // scipy.stats.rayleigh.ppf (computed): k for P = 0.5, 0.9, 0.95, 0.99
     expect(circularRadiusFactor(0.5)).toBeCloseTo(1.17741, 6);
     expect(circularRadiusFactor(0.9)).toBeCloseTo(2.145966, 6);
     expect(circularRadiusFactor(0.95)).toBeCloseTo(2.447747, 6);
@@ -28,7 +28,7 @@ describe("radii", () => {
   });
 
   it("circularProbability -- published P values", () => {
-    // check-values.md (computed): 1σ circle 0.393469, DRMS 0.632121, 2DRMS 0.981684
+    // scipy.stats.rayleigh.cdf (computed): 1σ circle 0.393469, DRMS 0.632121, 2DRMS 0.981684
     expect(circularProbability(1)).toBeCloseTo(0.393469, 6);
     // biome-ignore lint/suspicious/noApproximativeNumericConstant: the table value as printed, not √2.
     expect(circularProbability(1.414214)).toBeCloseTo(0.632121, 6);

@@ -1,6 +1,6 @@
 /**
  * Sources: FGDC-STD-007.3-1998 §3.1 (thresholds are the user's); Clopper–Pearson closed form for k = n
- * (check-values.md: 20 of 20 supports only "at least 83.2 % within tolerance").
+ * (Clopper & Pearson 1934: 20 of 20 supports only "at least 83.2 % within tolerance").
  */
 import { describe, expect, it } from "vitest";
 import { hasLimits, withinToleranceFlags, withinToleranceShare } from "./tolerance";
@@ -45,7 +45,7 @@ describe("tolerance", () => {
   });
 
   it("withinToleranceShare -- 20 of 20 within supports only 83.2 %", () => {
-    // check-values.md / Clopper–Pearson closed form: lower = 0.025^(1/20) = 0.8316
+    // Clopper & Pearson 1934, closed form for k = n: lower = 0.025^(1/20) = 0.8316
     const w = withinToleranceShare(new Uint8Array(20).fill(1), 0.95, { ...none, radial: 0.03 });
     expect(w.share).toBe(1);
     expect(w.lower95).toBeCloseTo(0.8316, 4);
