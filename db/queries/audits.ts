@@ -418,7 +418,8 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
   };
 }
 
-const residualCols = {
+/** Every column of a per-plant result row, as the residual DTOs carry them. */
+export const residualCols = {
   seq: auditResidual.seq,
   plantId: auditResidual.plantId,
   surveyId: auditResidual.surveyId,

@@ -1,4 +1,5 @@
 import "server-only";
+import { residualCols } from "./audits";
 import { and, asc, desc, eq, gt, inArray, isNotNull } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { audit, auditResidual, auditUnpaired, field } from "@/db/schema";
@@ -167,30 +168,7 @@ export async function getMapPair(
   { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number },
 ): Promise<ResidualRowDto | null> {
   const [row] = await db
-    .select({
-      seq: auditResidual.seq,
-      plantId: auditResidual.plantId,
-      surveyId: auditResidual.surveyId,
-      crop: auditResidual.crop,
-      bed: auditResidual.bed,
-      row: auditResidual.row,
-      arm: auditResidual.arm,
-      fix: auditResidual.fix,
-      day: auditResidual.day,
-      plantedE: auditResidual.plantedE,
-      plantedN: auditResidual.plantedN,
-      surveyE: auditResidual.surveyE,
-      surveyN: auditResidual.surveyN,
-      dE: auditResidual.dE,
-      dN: auditResidual.dN,
-      along: auditResidual.along,
-      cross: auditResidual.cross,
-      radial: auditResidual.radial,
-      within: auditResidual.within,
-      outlier: auditResidual.outlier,
-      pairedBy: auditResidual.pairedBy,
-      beyondMaxDistance: auditResidual.beyondMaxDistance,
-    })
+    .select(residualCols)
     .from(auditResidual)
     .innerJoin(audit, eq(audit.id, auditResidual.auditId))
     .where(and(auditInOrg(auditId, orgId), eq(auditResidual.auditId, auditId), eq(auditResidual.seq, seq)));

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, or, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
-import { joinParts } from "./audits";
+import { joinParts, residualCols } from "./audits";
 import {
   audit,
   auditReport,
@@ -469,30 +469,7 @@ export async function loadRecordMaterial(
     .from(dataset)
     .where(and(eq(dataset.orgId, orgId), inArray(dataset.id, [plantedDatasetId, surveyDatasetId])));
   const residuals = await db
-    .select({
-      seq: auditResidual.seq,
-      plantId: auditResidual.plantId,
-      surveyId: auditResidual.surveyId,
-      crop: auditResidual.crop,
-      bed: auditResidual.bed,
-      row: auditResidual.row,
-      arm: auditResidual.arm,
-      fix: auditResidual.fix,
-      day: auditResidual.day,
-      plantedE: auditResidual.plantedE,
-      plantedN: auditResidual.plantedN,
-      surveyE: auditResidual.surveyE,
-      surveyN: auditResidual.surveyN,
-      dE: auditResidual.dE,
-      dN: auditResidual.dN,
-      along: auditResidual.along,
-      cross: auditResidual.cross,
-      radial: auditResidual.radial,
-      within: auditResidual.within,
-      outlier: auditResidual.outlier,
-      pairedBy: auditResidual.pairedBy,
-      beyondMaxDistance: auditResidual.beyondMaxDistance,
-    })
+    .select(residualCols)
     .from(auditResidual)
     .where(eq(auditResidual.auditId, auditId))
     .orderBy(asc(auditResidual.seq));
