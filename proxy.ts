@@ -1,5 +1,5 @@
 import { type NextRequest, NextResponse } from "next/server";
-import { originOf, refuseCrossSite } from "@/lib/security/request-guard";
+import { ownOrigins, refuseCrossSite } from "@/lib/security/request-guard";
 
 /**
  * Runs before every page and route handler:
@@ -9,7 +9,11 @@ import { originOf, refuseCrossSite } from "@/lib/security/request-guard";
  * Access itself is checked in every page, route handler and action, never here.
  */
 export function proxy(req: NextRequest) {
-  const own = [req.nextUrl.origin, originOf(process.env.BETTER_AUTH_URL)].filter((o): o is string => !!o);
+  // Not req.nextUrl.origin: behind lib/server/http/serve.mjs that is the listening address (http://0.0.0.0:3000).
+  const own = ownOrigins(
+    { protocol: req.nextUrl.protocol, host: req.headers.get("host") },
+    process.env.BETTER_AUTH_URL,
+  );
   const refusal = refuseCrossSite({ method: req.method, pathname: req.nextUrl.pathname, headers: req.headers }, own);
   if (refusal) {
     return NextResponse.json(

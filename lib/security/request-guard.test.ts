@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { originOf, refuseCrossSite } from "./request-guard";
+import { originOf, ownOrigins, refuseCrossSite } from "./request-guard";
 
 const OWN = ["http://127.0.0.1:3000"];
 const req = (method: string, pathname: string, headers: Record<string, string>) => ({
@@ -100,5 +100,20 @@ describe("originOf", () => {
     expect(originOf("https://plotproof.example:8443/x?y")).toBe("https://plotproof.example:8443");
     expect(originOf("not a url")).toBeNull();
     expect(originOf(undefined)).toBeNull();
+  });
+});
+
+describe("ownOrigins", () => {
+  it("ownOrigins -- the Host the browser used counts without any configured URL (npm run demo on localhost)", () => {
+    expect(ownOrigins({ protocol: "http:", host: "localhost:3000" }, undefined)).toEqual(["http://localhost:3000"]);
+    const own = ownOrigins({ protocol: "http:", host: "127.0.0.1:3000" }, "https://plotproof.example");
+    expect(own).toEqual(["http://127.0.0.1:3000", "https://plotproof.example"]);
+    const signIn = {
+      method: "POST",
+      pathname: "/api/auth/sign-in/email",
+      headers: new Headers({ origin: "http://localhost:3000" }),
+    };
+    expect(refuseCrossSite(signIn, ownOrigins({ protocol: "http:", host: "localhost:3000" }, undefined))).toBeNull();
+    expect(ownOrigins({ protocol: "http:", host: null }, undefined)).toEqual([]);
   });
 });

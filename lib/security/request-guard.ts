@@ -75,6 +75,23 @@ function hasBody(h: Headers): boolean {
   return h.has("transfer-encoding") || h.has("content-type");
 }
 
+/**
+ * The origins this product is being reached at: the one the browser used (scheme and Host header; a Host a
+ * page on another site cannot choose) and the configured public URL. The server's own listening address
+ * (e.g. 0.0.0.0) is never one of them.
+ */
+export function ownOrigins(
+  req: { protocol: string; host: string | null },
+  configuredUrl: string | undefined,
+): string[] {
+  const own = new Set<string>();
+  const asked = req.host ? originOf(`${req.protocol}//${req.host}`) : null;
+  if (asked) own.add(asked);
+  const configured = originOf(configuredUrl);
+  if (configured) own.add(configured);
+  return [...own];
+}
+
 /** The origin (scheme://host[:port]) of a URL, or null when it is not one. */
 export function originOf(url: string | undefined): string | null {
   if (!url) return null;
