@@ -298,3 +298,36 @@ export async function loadBedColumns(db: DB, { auditId, orgId }: { auditId: stri
     within: Int8Array.from({ length: n }, (_, i) => (w[i] === "w" ? 1 : w[i] === "o" ? 0 : -1)),
   };
 }
+
+/**
+ * Per-pair columns the trust by cause needs: the planted plant id and the strata texts ("" when missing), the errors
+ * (metres, NaN unknown; float4 like the map) and within (1, 0, −1 unknown). Empty when the audit is not in this
+ * organisation.
+ */
+export async function loadTrustColumns(db: DB, { auditId, orgId }: { auditId: string; orgId: string }) {
+  const res = await db.$client.query<Record<string, string | Uint8Array | number | null>>(
+    `select count(*)::int n, ${textAgg("plant_id", "plant_id")}, ${textAgg("fix", "fix")}, ${textAgg("arm", "arm")},
+       ${textAgg("day", "day")}, ${textAgg("bed", "bed")}, ${textAgg("row", "row")}, ${f4Agg("radial", "radial")},
+       ${f4Agg("coalesce(\"cross\", 'NaN'::float8)", "cross")}, ${f4Agg("coalesce(along, 'NaN'::float8)", "along")},
+       string_agg(case when within is null then 'u' when within then 'w' else 'o' end, '' order by seq) "within"
+     from audit_residual where audit_id = $1 and exists (select 1 from audit a where a.id = $1 and a.org_id = $2)`,
+    [auditId, orgId],
+  );
+  const r = res.rows[0];
+  const n = Number(r.n);
+  const text = (k: string) => texts(r[k] as string | null, n);
+  const w = (r.within as string | null) ?? "";
+  return {
+    count: n,
+    plantId: text("plant_id"),
+    fix: text("fix"),
+    arm: text("arm"),
+    day: text("day"),
+    bed: text("bed"),
+    row: text("row"),
+    radial: floatsBE(r.radial as Uint8Array | null, n),
+    cross: floatsBE(r.cross as Uint8Array | null, n),
+    along: floatsBE(r.along as Uint8Array | null, n),
+    within: Int8Array.from({ length: n }, (_, i) => (w[i] === "w" ? 1 : w[i] === "o" ? 0 : -1)),
+  };
+}

@@ -66,7 +66,7 @@ export function neutraliseCell(text: string): string {
 }
 
 /** A text cell: neutralised, then quoted when needed (RFC 4180). */
-function csvText(text: string): string {
+export function csvText(text: string): string {
   const safe = neutraliseCell(text);
   return NEEDS_QUOTES.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }

@@ -15,6 +15,7 @@
 import { clopperPearson } from "@/lib/audit/intervals";
 import { quantileSorted } from "@/lib/audit/quantiles";
 import { groupTrust, oneSidedLowerBound, type GroupTrust, type TrustWord } from "@/lib/audit/trust";
+import { operationPhrase } from "./record-guidance";
 import type { BedGuidance, BedState, BedStats, MapProfile } from "./types";
 
 /** Ends every grower guidance text. */
@@ -102,10 +103,7 @@ export function bedName(bed: string): string {
 }
 
 /** The profile's name as it reads inside a sentence ("in-row weeding around plants"). */
-function operationWords(profile: MapProfile): string {
-  const n = profile.name.trim();
-  return n.length > 1 && n[1] === n[1].toLowerCase() ? n[0].toLowerCase() + n.slice(1) : n;
-}
+const operationWords = (profile: MapProfile) => operationPhrase(profile.name);
 
 const LIMIT_WORDS: Record<GroupTrust["exceeded"][number]["limit"], string> = {
   radial: "radial errors",

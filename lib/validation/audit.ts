@@ -56,3 +56,15 @@ export const ReportFormatQuery = z.object({
   sep: z.enum(SHEET_SEPARATORS).optional(),
 });
 export type ReportFormatQuery = z.infer<typeof ReportFormatQuery>;
+
+/**
+ * Query of the trust by cause and the exclusion list: `profile` judges the records for another tolerance profile of
+ * the organisation (default: the audit's own); `include=not-shown` adds the records not yet shown to the list;
+ * `marks=1` adds the positions of the records not relied on or not yet shown (map overlay).
+ */
+export const RecordTrustQuery = z.object({
+  profile: z.uuid({ message: "must be the id of a tolerance profile" }).optional(),
+  include: z.enum(["not-shown"]).optional(),
+  marks: z.enum(["1"]).optional(),
+});
+export type RecordTrustQuery = z.infer<typeof RecordTrustQuery>;
