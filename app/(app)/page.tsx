@@ -13,6 +13,7 @@ import {
   Panel,
   RevisionTag,
   TextLink,
+  formatCount,
   formatMm,
 } from "@/app/_components/ui";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
@@ -114,6 +115,7 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
                 <th className="py-1 font-medium">Field</th>
                 <th className="font-medium">Signed-off audit</th>
                 <th className="font-medium">Records against its profile</th>
+                <th className="font-medium">Plant by plant</th>
                 <th className="font-medium">Horizontal RMSE</th>
               </tr>
             </thead>
@@ -140,6 +142,26 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
                     ) : null}
                   </td>
                   <td data-word={f.signed?.word ?? ""}>{f.signed?.word ?? "–"}</td>
+                  <td data-testid="grower-records">
+                    {f.signed?.records ? (
+                      <>
+                        {f.signed.records.doNotRely > 0 ? (
+                          <span className="block text-alarm">
+                            {formatCount(f.signed.records.doNotRely)} not to rely on
+                            {f.signed.causes.length ? ` (${f.signed.causes.join("; ")})` : ""}
+                          </span>
+                        ) : null}
+                        <span className="block">{formatCount(f.signed.records.rely)} to rely on</span>
+                        {f.signed.records.notShown > 0 ? (
+                          <span className="block text-loam">
+                            {formatCount(f.signed.records.notShown)} not yet shown
+                          </span>
+                        ) : null}
+                      </>
+                    ) : (
+                      "–"
+                    )}
+                  </td>
                   <td>{formatMm(f.signed?.rmseR)}</td>
                 </tr>
               ))}

@@ -64,6 +64,12 @@ export function formatMm(metres: number | null | undefined): string {
   return `${(metres * 1000).toFixed(1)} mm`;
 }
 
+const countFormat = new Intl.NumberFormat("en-GB");
+/** A count with thousands separators, e.g. "4,640". */
+export function formatCount(n: number): string {
+  return countFormat.format(n);
+}
+
 export function formatDate(iso: string): string {
   return new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
 }

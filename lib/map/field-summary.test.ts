@@ -3,7 +3,7 @@ import type { AuditDto, ProfileSnapshot } from "@/lib/api-types";
 import { fieldMapSummary, mapProfile } from "./field-summary";
 import { RECORD_ACCURACY_REMINDER, bedGuidance, bedStats, overallGuidance } from "./guidance";
 
-const FIELD = { id: "f1", name: "North block", crs: "EPSG:25831" };
+const FIELD = { id: "f1", name: "North block", crs: "EPSG:25831", timeZone: "Europe/Amsterdam" };
 const PROFILE: ProfileSnapshot = {
   id: "p1",
   name: "Weeding",

@@ -130,7 +130,7 @@ export interface BedGuidance {
 
 /** GET /api/fields/:fieldId/map — the grower's view of the field's latest signed-off audit. */
 export interface FieldMapDto {
-  field: { id: string; name: string; crs: string };
+  field: { id: string; name: string; crs: string; timeZone: string };
   /** The latest signed-off audit with stored results; null when none is signed off yet. */
   audit: { id: string; title: string; state: string; computedAt: string | null; pairs: number } | null;
   profile: MapProfile | null;

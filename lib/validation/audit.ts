@@ -63,7 +63,11 @@ export type ReportFormatQuery = z.infer<typeof ReportFormatQuery>;
  * `marks=1` adds the positions of the records not relied on or not yet shown (map overlay).
  */
 export const RecordTrustQuery = z.object({
-  profile: z.uuid({ message: "must be the id of a tolerance profile" }).optional(),
+  // A form's "the audit's own profile" choice sends an empty value.
+  profile: z.preprocess(
+    (v) => (v === "" ? undefined : v),
+    z.uuid({ message: "must be the id of a tolerance profile" }).optional(),
+  ),
   include: z.enum(["not-shown"]).optional(),
   marks: z.enum(["1"]).optional(),
 });

@@ -1,7 +1,9 @@
 import { test, expect, type Page } from "@playwright/test";
 import { SignInPage, demoPerson } from "./pages/session";
 import { AuditApi } from "./pages/audit";
-import { pageFor } from "./pages/review";
+import { ReviewPage, pageFor } from "./pages/review";
+import Papa from "papaparse";
+import fs from "node:fs";
 import { ApiKeysPage } from "./pages/api-keys";
 import type { AuditDto } from "@/lib/api-types";
 
@@ -135,6 +137,73 @@ test("walk -- the QA lead's review list names each revision's own profile", asyn
   await expect(when).toHaveText(/CES?T$/);
   await expect(when).toHaveAttribute("title", /UTC$/);
   await lead.context().close();
+});
+
+test("walk -- the signed revision reaches the grower: verdict, home and map agree, float-fix records not to rely on", async ({
+  page,
+  browser,
+}) => {
+  test.setTimeout(180_000);
+  const floatIds = new Set(
+    Papa.parse<Record<string, string>>(fs.readFileSync("public/demo/long-acre-as-planted.csv", "utf8"), {
+      header: true,
+      skipEmptyLines: true,
+    })
+      .data.filter((r) => r.fix === "rtk-float")
+      .map((r) => r.plant_id),
+  );
+  // The technician submits the revision judged for inter-row hoeing.
+  await new SignInPage(page).signInAs("technician");
+  const techReview = new ReviewPage(page);
+  await techReview.open(revision.id);
+  await techReview.submit("Judged for inter-row hoeing as asked.");
+
+  // The QA lead signs it off with the checklist: every criterion passes, so no deviation is asked for.
+  const lead = await pageFor(browser, "qa_lead");
+  const leadReview = new ReviewPage(lead);
+  await leadReview.open(revision.id);
+  const f = leadReview.signoffForm;
+  await f.getByRole("checkbox", { name: /Enough checkpoints/ }).check();
+  await f.getByRole("checkbox", { name: /Survey instrument at least 3/ }).check();
+  await f.getByRole("checkbox", { name: /Control mark checked/ }).check();
+  await f.getByRole("checkbox", { name: /Right tolerance profile/ }).check();
+  await expect(f.getByLabel(/Why you accept it anyway/)).toHaveCount(0);
+  await f.getByLabel(/Type your full name to sign/).fill(demoPerson("qa_lead").name);
+  await f.getByRole("button", { name: /^Sign off/ }).click();
+  await expect(leadReview.badge).toHaveAttribute("data-state", "signed_off");
+  await lead.context().close();
+
+  // The grower's home: the signed revision's word, and the float-fix records counted apart.
+  const grower = await pageFor(browser, "grower");
+  await grower.goto("/");
+  const row = grower.getByTestId("grower-fields").locator(`tr[data-signed-audit="${revision.id}"]`);
+  await expect(row).toContainText("Long Acre");
+  await expect(row.locator("td[data-word]")).toHaveAttribute("data-word", "meets");
+  await expect(row.getByTestId("grower-records")).toContainText("160 not to rely on (fix quality rtk-float)");
+  await expect(row.getByTestId("grower-records")).toContainText("4,640 to rely on");
+
+  // The field map says the same, states the rule, rings exactly those records and lists them for the next pass.
+  await row.getByRole("link", { name: "Long Acre" }).click();
+  await expect(grower.getByTestId("field-map-audit")).toHaveAttribute("data-audit-id", revision.id);
+  const trust = grower.getByTestId("record-trust");
+  await expect(trust.getByTestId("record-trust-summary")).toContainText(
+    "Do not rely on 160 of 4,800 records for inter-row hoeing: fix quality rtk-float.",
+  );
+  await expect(trust.getByTestId("record-rule")).toContainText("A record is not to be relied on when");
+  await expect(trust.getByTestId("record-causes").locator("tbody tr")).toHaveCount(1);
+  await expect(trust.getByTestId("count-do-not-rely")).toHaveText("160");
+  // The map loads its payload and the marks after the page: give a cold server time.
+  await expect(grower.getByTestId("field-map")).toHaveAttribute("data-records-do-not-rely", "160", { timeout: 30_000 });
+  await expect(grower.getByTestId("record-marks-key")).toContainText("160 records not to rely on");
+  const download = grower.waitForEvent("download");
+  await trust.getByRole("button", { name: "Download list (CSV)" }).click();
+  const file = await download;
+  expect(file.suggestedFilename()).toMatch(/_rev2_.*_do-not-rely_inter-row-hoeing\.csv$/);
+  const text = fs.readFileSync((await file.path())!, "utf8").replace(/^\uFEFF/, "");
+  expect(text).toContain(`id ${revision.id}, signed off; SHA-256 `);
+  const listed = Papa.parse<Record<string, string>>(text, { header: true, comments: "#", skipEmptyLines: true }).data;
+  expect(new Set(listed.map((r) => r.plant_id))).toEqual(floatIds);
+  await grower.context().close();
 });
 
 test("walk -- revoking an API key asks first; keeping it leaves it live", async ({ page }) => {

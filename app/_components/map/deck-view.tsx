@@ -33,6 +33,11 @@ export interface DeckLayersData {
   /** Changes whenever the cell colours change (for deck's updateTriggers). */
   cellKey: string;
   selectedAt: Pt | null;
+  /** Records the trust by cause says not to rely on (ringed) and not yet shown (grower's map); null when not shown. */
+  recordMarks: {
+    doNotRely: { length: number; positions: Float32Array };
+    notShown: { length: number; positions: Float32Array };
+  } | null;
 }
 
 const VIEW = new OrthographicView({ id: "field", flipY: false });
@@ -182,6 +187,27 @@ export function DeckView({
           antialiasing: true,
         }),
       );
+    }
+    if (d.recordMarks) {
+      for (const [id, b, colour] of [
+        ["records-not-shown", d.recordMarks.notShown, COLOURS.ambiguous],
+        ["records-do-not-rely", d.recordMarks.doNotRely, COLOURS.out],
+      ] as const) {
+        if (!b.length) continue;
+        list.push(
+          new ScatterplotLayer({
+            id,
+            data: binary(b),
+            filled: false,
+            stroked: true,
+            radiusUnits: "pixels",
+            getRadius: SIZES.outRadius + 2,
+            lineWidthUnits: "pixels",
+            getLineWidth: 2,
+            getLineColor: colour,
+          }),
+        );
+      }
     }
     if (d.unpaired) {
       for (const [kind, icon, colour] of [

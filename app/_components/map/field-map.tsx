@@ -53,6 +53,28 @@ function limitOf(data: MapData, metric: ErrorMetric): number | null {
   return metric === "radial" ? p.radialM : metric === "cross" ? p.crossM : p.alongM;
 }
 
+/** Positions of the records not relied on or not yet shown (trust by cause), relative to the map's origin. */
+function useRecordMarks(auditId: string | null, meta: MapData["meta"]): DeckLayersData["recordMarks"] {
+  const { data } = useSWR<{ marks: { crs: string; x: number[]; y: number[]; cls: number[] } | null }>(
+    auditId ? `/api/audits/${auditId}/record-trust?marks=1` : null,
+    fetcher,
+  );
+  return useMemo(() => {
+    const m = data?.marks;
+    if (!m || m.crs !== meta.crs) return null;
+    const pick = (cls: number) => {
+      const idx = m.cls.flatMap((c, i) => (c === cls ? [i] : []));
+      const positions = new Float32Array(2 * idx.length);
+      idx.forEach((i, k) => {
+        positions[2 * k] = m.x[i] - meta.origin[0];
+        positions[2 * k + 1] = m.y[i] - meta.origin[1];
+      });
+      return { length: idx.length, positions };
+    };
+    return { doNotRely: pick(1), notShown: pick(2) };
+  }, [data, meta]);
+}
+
 /** The map of one audit: controls, deck.gl canvas, legend, tooltip, details panel and per-bed summary. */
 export function FieldMap({ auditId, mode }: { auditId: string; mode: MapMode }) {
   // An audit still computing has nothing to map yet: show its progress and load the map when it is done.
@@ -151,6 +173,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
     return pts;
   }, [meta]);
   const bounds = useMemo(() => boundsOf(meta.boundary.ring, arrays.pairXY, arrays.unpairedXY), [meta, arrays]);
+  const recordMarks = useRecordMarks(mode === "grower" ? auditId : null, meta);
 
   const cells = useMemo<Cell[] | null>(() => {
     if (settings.layer !== "cells") return null;
@@ -202,8 +225,22 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
       },
       cellKey: `${cellValue}:${domain[1]}:${settings.metric}`,
       selectedAt: at(selected),
+      recordMarks,
     };
-  }, [settings, arrays, pairsShown, unpairedShown, values, domain, boundary, layout, cells, cellValue, selected]);
+  }, [
+    settings,
+    arrays,
+    pairsShown,
+    unpairedShown,
+    values,
+    domain,
+    boundary,
+    layout,
+    cells,
+    cellValue,
+    selected,
+    recordMarks,
+  ]);
 
   // A key of what the layers show, so tests and measurements can tell when the canvas shows the current settings.
   const layersKey = useMemo(
@@ -312,6 +349,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
       data-out-shown={outShown}
       data-unpaired-shown={unpairedShown.length}
       data-layers-key={layersKey}
+      data-records-do-not-rely={recordMarks?.doNotRely.length ?? ""}
       data-draws="0"
     >
       <div className="grid gap-4 lg:grid-cols-[15rem_1fr]">
@@ -409,6 +447,19 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                 vectors={settings.vectors}
                 showUnpaired={settings.showUnpaired}
               />
+            ) : null}
+            {recordMarks ? (
+              <p className="max-w-sm text-xs" data-testid="record-marks-key">
+                <span className="font-medium text-alarm">Red rings</span>: {formatCount(recordMarks.doNotRely.length)}{" "}
+                records not to rely on
+                {recordMarks.notShown.length ? (
+                  <>
+                    ; <span className="font-medium text-loam">yellow rings</span>:{" "}
+                    {formatCount(recordMarks.notShown.length)} not yet shown
+                  </>
+                ) : null}
+                .
+              </p>
             ) : null}
             <p className="max-w-sm text-[11px] text-ink-soft" data-testid="layout-note">
               {layout.note}

@@ -3,9 +3,11 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
-import { getFieldMapSummary } from "@/lib/server/map/field-map";
+import { auditRecordTrustDto, getFieldMapSummary } from "@/lib/server/map/field-map";
+import { listProfiles } from "@/db/queries/profiles";
+import { RecordTrustPanel } from "@/app/_components/map/record-trust-panel";
 import { idFromParams } from "@/lib/validation/ids";
-import { Empty, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, FieldTime, Panel } from "@/app/_components/ui";
 import { MapLoader } from "@/app/_components/map/map-loader";
 import { BedTable } from "@/app/_components/map/bed-table";
 import { RECORD_ACCURACY_REMINDER } from "@/lib/map/guidance";
@@ -18,8 +20,15 @@ const mm = (m: number | null) => (m === null ? null : `${(m * 1000).toFixed(0)} 
 export default async function FieldMapPage({ params }: { params: Promise<{ fieldId: string }> }) {
   const viewer = await requirePageViewer();
   const fieldId = idFromParams(await params, "fieldId") ?? notFound();
-  const view = await getFieldMapSummary(await getDb(), { fieldId: fieldId, orgId: viewer.orgId });
+  const db = await getDb();
+  const view = await getFieldMapSummary(db, { fieldId: fieldId, orgId: viewer.orgId });
   if (!view) notFound();
+  const [trust, profiles] = view.audit
+    ? await Promise.all([
+        auditRecordTrustDto(db, { auditId: view.audit.id, orgId: viewer.orgId }),
+        listProfiles(db, { orgId: viewer.orgId }),
+      ])
+    : [null, []];
   const p = view.profile;
   const limits = p
     ? [
@@ -55,7 +64,12 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
         {view.audit ? (
           <p className="mt-1 text-sm text-ink-soft" data-testid="field-map-audit" data-audit-id={view.audit.id}>
             From the latest signed-off audit, <span className="font-medium text-ink">{view.audit.title}</span>
-            {view.audit.computedAt ? <> (computed {formatDate(view.audit.computedAt)})</> : null}
+            {view.audit.computedAt ? (
+              <>
+                {" "}
+                (computed <FieldTime iso={view.audit.computedAt} timeZone={view.field.timeZone} />)
+              </>
+            ) : null}
             {p ? (
               <>
                 , at the tolerance “{p.name}”
@@ -78,6 +92,9 @@ export default async function FieldMapPage({ params }: { params: Promise<{ field
           <p className="rounded-plot border-l-4 border-stake bg-stake-pale p-4 text-sm" data-testid="field-guidance">
             {view.summary}
           </p>
+          {trust ? (
+            <RecordTrustPanel trust={trust} profiles={profiles.map((p) => ({ id: p.id, name: p.name }))} />
+          ) : null}
           <MapLoader auditId={view.audit.id} mode="grower" />
           <Panel title="Bed by bed">
             <BedTable beds={view.beds} guidance={view.guidance} caption={`Checkpoints per bed in ${view.field.name}`} />
