@@ -203,6 +203,15 @@ test("walk -- the signed revision reaches the grower: verdict, home and map agre
   expect(text).toContain(`id ${revision.id}, signed off; SHA-256 `);
   const listed = Papa.parse<Record<string, string>>(text, { header: true, comments: "#", skipEmptyLines: true }).data;
   expect(new Set(listed.map((r) => r.plant_id))).toEqual(floatIds);
+
+  // The printable report gives the sign-off and upload times in the field's time zone, UTC on hover.
+  await grower.goto(`/audits/${revision.id}/report`);
+  const times = grower.getByTestId("field-time");
+  expect(await times.count()).toBeGreaterThanOrEqual(3);
+  for (const t of await times.all()) {
+    await expect(t).toHaveText(/CES?T$/);
+    await expect(t).toHaveAttribute("title", /UTC$/);
+  }
   await grower.context().close();
 });
 

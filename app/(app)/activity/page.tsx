@@ -6,7 +6,8 @@ import { can } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listOrgActivity } from "@/db/queries/activity";
 import { toActivityDtos } from "@/lib/server/review/activity";
-import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, PageTitle, Panel } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 
 export const metadata: Metadata = { title: "Activity" };
 
@@ -41,7 +42,9 @@ export default async function ActivityPage({
           <ol className="divide-y divide-chalk-deep text-sm" data-testid="org-activity">
             {rows.map((a) => (
               <li key={a.id} className="flex gap-4 py-1.5" data-action={a.action}>
-                <span className="w-44 shrink-0 text-ink-faint">{formatDate(a.at)}</span>
+                <span className="w-44 shrink-0 text-ink-faint">
+                  <LocalTime iso={a.at} />
+                </span>
                 <span className={a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""}>
                   {a.text}
                   {a.href ? (

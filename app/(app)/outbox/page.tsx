@@ -5,7 +5,8 @@ import { CAN_READ_OUTBOX } from "@/lib/roles";
 import { getDb } from "@/db/client";
 import { listCapturedMail } from "@/db/queries/outbox";
 import { mailConfig } from "@/lib/server/mail/config";
-import { Empty, PageTitle, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, PageTitle, Panel } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 
 export const metadata: Metadata = { title: "Outbox" };
 export const dynamic = "force-dynamic";
@@ -56,7 +57,7 @@ export default async function OutboxPage() {
                     <span className="font-medium">{m.subject}</span>
                     <span className="text-sm text-ink-soft">
                       {" "}
-                      · to {m.to.join(", ")} · {formatDate(m.receivedAt)}
+                      · to {m.to.join(", ")} · <LocalTime iso={m.receivedAt} />
                     </span>
                   </summary>
                   <pre

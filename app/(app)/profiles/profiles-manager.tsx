@@ -10,7 +10,8 @@ import type { ToleranceProfileDto } from "@/lib/api-types";
 import { FormError } from "@/app/_components/form";
 import { InputRow, issuesByField, parseDecimal } from "@/app/_components/audit/form-bits";
 import { formatMm, formatPct } from "@/app/_components/audit/format";
-import { Empty, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, Panel } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 import { TOLERANCE_LIMIT_CEILING_M } from "@/lib/audit/profile";
 
 const profileUrl = (id: string) => `${keys.profiles()}/${encodeURIComponent(id)}`;
@@ -204,7 +205,9 @@ export function ProfilesManager({ canEdit }: { canEdit: boolean }) {
                         </span>
                       ) : null}
                       {p.note ? <span className="block text-xs text-ink-faint">{p.note}</span> : null}
-                      <span className="block text-xs text-ink-faint">Changed {formatDate(p.updatedAt)}</span>
+                      <span className="block text-xs text-ink-faint">
+                        Changed <LocalTime iso={p.updatedAt} />
+                      </span>
                     </th>
                     <td className="pr-3 text-right align-top whitespace-nowrap" data-col="radial">
                       {p.radialM !== null ? formatMm(p.radialM) : "–"}

@@ -7,7 +7,8 @@ import { z } from "zod";
 import { type ApiError, fetcher, sendJson } from "@/lib/fetcher";
 import { ROLES, ROLE_DUTY, ROLE_LABEL, type Role } from "@/lib/roles";
 import type { InvitationDto } from "@/lib/review/types";
-import { Empty, Panel, formatDate } from "@/app/_components/ui";
+import { Empty, Panel } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 import { FormError } from "@/app/_components/form";
 import { FieldRow, buttonClass, inputClass } from "@/app/_components/field-form/controls";
 
@@ -152,7 +153,9 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
                       ))}
                     </select>
                   </td>
-                  <td className="text-ink-soft">{formatDate(m.joinedAt)}</td>
+                  <td className="text-ink-soft">
+                    <LocalTime iso={m.joinedAt} />
+                  </td>
                   <td className="text-right">
                     <button
                       type="button"
@@ -243,7 +246,9 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
                   <td className="py-2">{i.email}</td>
                   <td>{ROLE_LABEL[i.role]}</td>
                   <td className={i.status === "expired" ? "text-alarm" : ""}>{STATUS_WORD[i.status]}</td>
-                  <td className="text-ink-soft">{formatDate(i.expiresAt)}</td>
+                  <td className="text-ink-soft">
+                    <LocalTime iso={i.expiresAt} />
+                  </td>
                   <td className="space-x-3 text-right">
                     {i.status === "pending" ? (
                       <button

@@ -4,7 +4,8 @@ import useSWR from "swr";
 import { fetcher, sendJson, ApiError } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { ApiKeyDto } from "@/lib/api-types";
-import { Panel, formatDate } from "@/app/_components/ui";
+import { Panel } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 import { API_KEY_SCOPES, type ApiKeyScope, SCOPE_LABEL, SCOPE_PURPOSE } from "@/lib/security/key-scope";
 
 /** The expiry date a key stops working on (YYYY-MM-DD, UTC), and whether that has passed. */
@@ -150,8 +151,10 @@ export function ApiKeysPanel() {
                     </td>
                     <td className="font-mono text-xs">{k.prefix}…</td>
                     <td title={SCOPE_PURPOSE[k.scope]}>{SCOPE_LABEL[k.scope]}</td>
-                    <td>{formatDate(k.createdAt)}</td>
-                    <td>{k.lastUsedAt ? formatDate(k.lastUsedAt) : "never"}</td>
+                    <td>
+                      <LocalTime iso={k.createdAt} />
+                    </td>
+                    <td>{k.lastUsedAt ? <LocalTime iso={k.lastUsedAt} /> : "never"}</td>
                     <td>
                       {!expiry ? (
                         <span className="text-ink-faint">none</span>

@@ -5,7 +5,7 @@ import { getAuth } from "@/lib/server/auth";
 import { getDb } from "@/db/client";
 import { getInvitation, userExistsWithEmail } from "@/db/queries/team";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
-import { formatDate } from "@/app/_components/ui";
+import { LocalTime } from "@/app/_components/local-time";
 import { invitationProblem } from "@/lib/server/invites/accept";
 import { AcceptSignedInForm, ExistingAccountForm, NewAccountForm } from "./invite-forms";
 
@@ -42,7 +42,7 @@ export default async function InvitePage({ params }: { params: Promise<{ invitat
       </p>
       <p className="mb-1 text-sm text-ink-soft">{ROLE_DUTY[inv.role]}</p>
       <p className="mb-6 text-xs text-ink-faint">
-        The invitation works until {formatDate(inv.expiresAt.toISOString())}.
+        The invitation works until <LocalTime iso={inv.expiresAt.toISOString()} />.
       </p>
       {session ? (
         session.user.email.toLowerCase() === inv.email.toLowerCase() ? (

@@ -12,7 +12,7 @@ import { ROLE_LABEL, isRole } from "@/lib/roles";
 import type { AuditSummary, DatasetDto } from "@/lib/api-types";
 import { auditTrust } from "@/lib/audit/audit-trust";
 import { Mark } from "@/app/_components/mark";
-import { formatDate, formatMm } from "@/app/_components/ui";
+import { FieldTime, formatMm } from "@/app/_components/ui";
 import { idFromParams } from "@/lib/validation/ids";
 import { AccuracyStatementBlock } from "@/app/_components/audit/accuracy-statement";
 import { ErrorScatterSvg } from "./error-scatter-svg";
@@ -140,7 +140,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
         >
           <strong>Signed off{signoff.deviation ? " with deviation" : ""}</strong> by {signoff.signerName} (
           {isRole(signoff.signerRole) ? ROLE_LABEL[signoff.signerRole] : signoff.signerRole}) on{" "}
-          {formatDate(signoff.signedAt)} · revision {signoff.revision}
+          <FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} /> · revision {signoff.revision}
         </p>
       ) : (
         <p
@@ -176,7 +176,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
                 <td className="tabular-nums">{d.rowCount}</td>
                 <td className="whitespace-nowrap">{d.crs}</td>
                 <td className="whitespace-nowrap">
-                  {formatDate(d.uploadedAt)}
+                  <FieldTime iso={d.uploadedAt} timeZone={audit.field.timeZone} />
                   {d.uploadedBy ? (
                     <>
                       <br />
@@ -200,7 +200,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
             {s?.rowBearingDeg !== null && s?.rowBearingDeg !== undefined
               ? `${s.rowBearingDeg.toFixed(1)}° (${s.rowBearingSource})`
               : "none"}{" "}
-            · computed {audit.computedAt ? formatDate(audit.computedAt) : "–"}
+            · computed {audit.computedAt ? <FieldTime iso={audit.computedAt} timeZone={audit.field.timeZone} /> : "–"}
           </p>
         ) : null}
       </Section>
@@ -343,7 +343,9 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               typed name “{signoff.typedName}”
             </dd>
             <dt className="text-ink-soft">Signed at</dt>
-            <dd>{formatDate(signoff.signedAt)}</dd>
+            <dd>
+              <FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} />
+            </dd>
             <dt className="text-ink-soft">Confirmed</dt>
             <dd>
               {signoff.checklist.checkpoints.pairs} checkpoints (at least {signoff.checklist.checkpoints.required}{" "}

@@ -4,10 +4,10 @@ import useSWR from "swr";
 import { fetcher } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { ActivityDto } from "@/lib/review/types";
-import { Panel, formatDate } from "@/app/_components/ui";
+import { FieldTime, Panel } from "@/app/_components/ui";
 
 /** Who uploaded, computed, submitted, signed, returned, verified and downloaded this audit. */
-export function ActivityList({ auditId }: { auditId: string }) {
+export function ActivityList({ auditId, timeZone }: { auditId: string; timeZone: string }) {
   const { data, error } = useSWR<{ activity: ActivityDto[] }>(reviewKeys.activity(auditId), fetcher);
   return (
     <Panel
@@ -26,7 +26,9 @@ export function ActivityList({ auditId }: { auditId: string }) {
         <ol className="divide-y divide-chalk-deep text-sm" data-testid="audit-activity">
           {data.activity.map((a) => (
             <li key={a.id} className="flex gap-4 py-1.5" data-action={a.action}>
-              <span className="w-44 shrink-0 text-ink-faint">{formatDate(a.at)}</span>
+              <span className="w-44 shrink-0 text-ink-faint">
+                <FieldTime iso={a.at} timeZone={timeZone} />
+              </span>
               <span
                 className={
                   a.action === "audit.verified" && a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""

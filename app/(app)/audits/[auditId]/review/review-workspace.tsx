@@ -154,7 +154,7 @@ export function ReviewWorkspace({
         </Panel>
       </div>
 
-      {r.signoff ? <SignoffRecord auditId={audit.id} signoff={r.signoff} /> : null}
+      {r.signoff ? <SignoffRecord auditId={audit.id} signoff={r.signoff} timeZone={audit.field.timeZone} /> : null}
 
       {r.allowed.includes("sign_off") && checklist && audit.verdict ? (
         <section id="decide" aria-label="Decide" className="grid gap-6 lg:grid-cols-[3fr_2fr]">
@@ -171,8 +171,13 @@ export function ReviewWorkspace({
         <ReviseForm audit={audit} revision={r.revision} datasets={datasets} profiles={profiles} />
       ) : null}
 
-      <VerifyPanel auditId={audit.id} canVerify={r.allowed.includes("verify")} signed={r.state === "signed_off"} />
-      <ActivityList auditId={audit.id} />
+      <VerifyPanel
+        auditId={audit.id}
+        canVerify={r.allowed.includes("verify")}
+        signed={r.state === "signed_off"}
+        timeZone={audit.field.timeZone}
+      />
+      <ActivityList auditId={audit.id} timeZone={audit.field.timeZone} />
     </div>
   );
 }

@@ -10,7 +10,7 @@ import type { AuditDto } from "@/lib/api-types";
 import { DEFAULT_MAX_PAIR_DISTANCE_M, MAX_PAIR_DISTANCE_CEILING_M, type AuditSettings } from "@/lib/audit/settings";
 import { FormError } from "@/app/_components/form";
 import { FieldRow, buttonClass, inputClass } from "@/app/_components/field-form/controls";
-import { formatDate } from "@/app/_components/ui";
+import { formatInZone } from "@/app/_components/ui";
 
 export interface DatasetOption {
   id: string;
@@ -93,7 +93,7 @@ export function ReviseForm({
 
   const option = (d: DatasetOption) => (
     <option key={d.id} value={d.id}>
-      {d.fileName} · {d.rowCount} rows · {formatDate(d.uploadedAt)}
+      {d.fileName} · {d.rowCount} rows · {formatInZone(d.uploadedAt, audit.field.timeZone)}
     </option>
   );
   return (

@@ -1,10 +1,18 @@
 import Link from "next/link";
 import type { SignoffDto } from "@/lib/review/types";
 import { ROLE_LABEL, isRole } from "@/lib/roles";
-import { formatDate } from "@/app/_components/ui";
+import { FieldTime } from "@/app/_components/ui";
 
 /** The stored sign-off: who, when, what they confirmed, and the hash. */
-export function SignoffRecord({ auditId, signoff: s }: { auditId: string; signoff: SignoffDto }) {
+export function SignoffRecord({
+  auditId,
+  signoff: s,
+  timeZone,
+}: {
+  auditId: string;
+  signoff: SignoffDto;
+  timeZone: string;
+}) {
   const c = s.checklist;
   return (
     <section
@@ -29,7 +37,7 @@ export function SignoffRecord({ auditId, signoff: s }: { auditId: string; signof
       <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-[12rem_1fr]">
         <dt className="text-ink-soft">Signed</dt>
         <dd>
-          {formatDate(s.signedAt)}, revision {s.revision}, typed name “{s.typedName}”
+          <FieldTime iso={s.signedAt} timeZone={timeZone} />, revision {s.revision}, typed name “{s.typedName}”
         </dd>
         <dt className="text-ink-soft">Checkpoints</dt>
         <dd>

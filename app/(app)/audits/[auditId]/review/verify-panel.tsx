@@ -4,13 +4,23 @@ import { useSWRConfig } from "swr";
 import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import type { VerificationDto } from "@/lib/review/types";
-import { formatDate } from "@/app/_components/ui";
+import { FieldTime } from "@/app/_components/ui";
 import { buttonClass } from "@/app/_components/field-form/controls";
 
 const show = (v: unknown) => (v === undefined ? "missing" : typeof v === "string" ? v : JSON.stringify(v));
 
 /** Re-compute from the raw files and compare; a mismatch is impossible to overlook. */
-export function VerifyPanel({ auditId, canVerify, signed }: { auditId: string; canVerify: boolean; signed: boolean }) {
+export function VerifyPanel({
+  auditId,
+  canVerify,
+  signed,
+  timeZone,
+}: {
+  auditId: string;
+  canVerify: boolean;
+  signed: boolean;
+  timeZone: string;
+}) {
   const { mutate } = useSWRConfig();
   const [result, setResult] = useState<VerificationDto | null>(null);
   const [busy, setBusy] = useState(false);
@@ -124,7 +134,7 @@ export function VerifyPanel({ auditId, canVerify, signed }: { auditId: string; c
             ))}
           </ul>
           <p className="mt-2 text-xs text-ink-faint">
-            Verified by {result.verifiedBy}, {formatDate(result.verifiedAt)}.
+            Verified by {result.verifiedBy}, <FieldTime iso={result.verifiedAt} timeZone={timeZone} />.
           </p>
         </div>
       ) : null}

@@ -17,7 +17,7 @@ import {
 import { FormError, SubmitButton } from "@/app/_components/form";
 import { InputRow, SelectRow, issuesByField, parseDecimal } from "@/app/_components/audit/form-bits";
 import { ProfileLimits } from "@/app/_components/audit/profile-limits";
-import { formatDate } from "@/app/_components/ui";
+import { formatInZone } from "@/app/_components/ui";
 
 const MATCH_MODES = [
   {
@@ -73,7 +73,7 @@ const API_TO_FORM: Record<string, string> = { maxDistanceM: "maxDistanceMm" };
 export function NewAuditForm({
   field,
 }: {
-  field: { id: string; name: string; crs: string; rowBearingDeg: number | null };
+  field: { id: string; name: string; crs: string; rowBearingDeg: number | null; timeZone: string };
 }) {
   const router = useRouter();
   const datasets = useSWR<{ datasets: DatasetDto[] }>(keys.fieldDatasets(field.id), fetcher);
@@ -182,7 +182,7 @@ export function NewAuditForm({
           <option value="">{datasets.isLoading ? "Loading…" : "Choose a file"}</option>
           {planted.map((d) => (
             <option key={d.id} value={d.id}>
-              {datasetLabel(d)}
+              {datasetLabel(d, field.timeZone)}
             </option>
           ))}
         </SelectRow>
@@ -196,7 +196,7 @@ export function NewAuditForm({
           <option value="">{datasets.isLoading ? "Loading…" : "Choose a file"}</option>
           {surveys.map((d) => (
             <option key={d.id} value={d.id}>
-              {datasetLabel(d)}
+              {datasetLabel(d, field.timeZone)}
             </option>
           ))}
         </SelectRow>
@@ -285,6 +285,6 @@ export function NewAuditForm({
   );
 }
 
-function datasetLabel(d: DatasetDto): string {
-  return `${d.fileName} · ${d.rowCount.toLocaleString("en-GB")} rows · ${d.crs} · ${formatDate(d.uploadedAt)}`;
+function datasetLabel(d: DatasetDto, timeZone: string): string {
+  return `${d.fileName} · ${d.rowCount.toLocaleString("en-GB")} rows · ${d.crs} · ${formatInZone(d.uploadedAt, timeZone)}`;
 }

@@ -27,7 +27,15 @@ export default async function NewAuditPage({ params }: { params: Promise<{ field
       >
         New audit
       </PageTitle>
-      <NewAuditForm field={{ id: field.id, name: field.name, crs: field.crs, rowBearingDeg: field.rowBearingDeg }} />
+      <NewAuditForm
+        field={{
+          id: field.id,
+          name: field.name,
+          crs: field.crs,
+          rowBearingDeg: field.rowBearingDeg,
+          timeZone: field.timeZone,
+        }}
+      />
     </>
   );
 }
