@@ -81,6 +81,8 @@ test("walk -- a returned audit shows its reasons; its revision shows number, pro
   await page.goto(`/audits/${revision.id}`);
   await expect(page.getByRole("heading", { level: 1 })).toContainText("revision 2");
   await expect(page.getByTestId("audit-result")).toContainText(`against ${hoeing.name}`);
+  // The accuracy statement accounts for the survey's own precision, stated in the demo survey file (2 mm).
+  await expect(page.getByTestId("statement-asprs")).toContainText("the survey file's median stated precision (2.0 mm)");
   // Times in the field's time zone (Europe/Amsterdam), the UTC instant on hover.
   const created2 = page.getByTestId("audit-result").getByTestId("field-time").first();
   await expect(created2).toHaveText(/CES?T$/);

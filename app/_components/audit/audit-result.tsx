@@ -26,7 +26,16 @@ const STATE_LABEL: Record<AuditState, string> = STATE_NAME;
 const POLL_MS = 1000;
 
 /** The audit result: polls while computing, then shows the verdict first and everything behind it. */
-export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepare: boolean }) {
+export function AuditResult({
+  auditId,
+  canPrepare,
+  surveyPrecision = { rmseH: null },
+}: {
+  auditId: string;
+  canPrepare: boolean;
+  /** The checkpoint survey's own precision for the accuracy statement (lib/server/audits/survey-precision.ts). */
+  surveyPrecision?: { rmseH: number | null; source?: string };
+}) {
   const { data, error } = useSWR<{ audit: AuditDto }>(keys.audit(auditId), fetcher, {
     refreshInterval: (latest) => (latest?.audit.state === "computing" ? POLL_MS : 0),
   });
@@ -134,7 +143,11 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
           <VerdictPanel audit={audit} />
           <ScopeCaution />
           <HeadlineFigures summary={audit.summary!} />
-          <AccuracyStatementBlock summary={audit.summary!} surveyRmseH={null} />
+          <AccuracyStatementBlock
+            summary={audit.summary!}
+            surveyRmseH={surveyPrecision.rmseH}
+            surveySource={surveyPrecision.source}
+          />
           <TermsExplained />
           <BreakdownTables audit={audit} />
           <AuditCharts audit={audit} />

@@ -4,8 +4,8 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { chartData, getAuditById } from "@/db/queries/audits";
-import { getDatasetById, loadDatasetPoints } from "@/db/queries/datasets";
-import { medianFinite } from "@/lib/review/checklist";
+import { checkpointSurveyPrecision } from "@/lib/server/audits/survey-precision";
+import { getDatasetById } from "@/db/queries/datasets";
 import { getSignoff, userName } from "@/db/queries/review";
 import { logActivity } from "@/db/queries/activity";
 import { ROLE_LABEL, isRole } from "@/lib/roles";
@@ -83,19 +83,10 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
     });
 
   const s = audit.summary as AuditSummary | null;
-  // The checkpoint survey's own precision: as confirmed at sign-off, else the survey file's median stated precision.
-  const filePrecisionM =
-    s && !signoff && audit.survey
-      ? medianFinite(
-          (await loadDatasetPoints(db, { id: audit.survey.id, orgId: viewer.orgId }))?.table.precision ?? null,
-        )
-      : null;
-  const surveyRmseH = signoff ? signoff.checklist.instrument.precisionMm / 1000 : filePrecisionM;
-  const surveySource = signoff
-    ? `the survey precision confirmed at sign-off (${signoff.checklist.instrument.precisionMm} mm, from the ${signoff.checklist.instrument.source})`
-    : filePrecisionM !== null
-      ? `the survey file's median stated precision (${(filePrecisionM * 1000).toFixed(1)} mm)`
-      : undefined;
+  const { rmseH: surveyRmseH, source: surveySource } = await checkpointSurveyPrecision(db, {
+    audit,
+    orgId: viewer.orgId,
+  });
   const p = audit.profile;
   const datasets = [planted, survey].filter((d): d is DatasetDto => !!d);
   const trust = s && p ? auditTrust(s, audit.verdict, p) : null;
