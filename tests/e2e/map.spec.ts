@@ -113,8 +113,12 @@ test("map -- out-of-tolerance plants are drawn in the highlight colour, and filt
   await page.keyboard.press("Escape");
   await expect(map.details).toHaveCount(0);
 
-  // The cell layer for growers replaces the plants.
+  // The cell layer for growers replaces the plants; a plant's details left open close with the switch.
+  await page.getByTestId("next-out").focus();
+  await page.keyboard.press("Enter");
+  await expect(map.details).toBeVisible();
   await page.getByTestId("layer-cells").click();
+  await expect(map.details).toHaveCount(0);
   await map.settled();
   await expect(map.root).toHaveAttribute("data-layer", "cells");
   expect(await map.countColour(HIGHLIGHT)).toBeLessThan(5);

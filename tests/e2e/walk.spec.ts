@@ -83,6 +83,11 @@ test("walk -- a returned audit shows its reasons; its revision shows number, pro
   await expect(page.getByTestId("audit-result")).toContainText(`against ${hoeing.name}`);
   // The accuracy statement accounts for the survey's own precision, stated in the demo survey file (2 mm).
   await expect(page.getByTestId("statement-asprs")).toContainText("the survey file's median stated precision (2.0 mm)");
+  // The similarity fit says its shift at the checkpoints' centre in millimetres, with what would cause it.
+  await expect(page.getByTestId("figure-helmert")).toContainText(
+    "at the centre of the checkpoints the fit shifts east",
+  );
+  await expect(page.getByTestId("figure-helmert")).toContainText("base-station coordinates or reference frame");
   // Times in the field's time zone (Europe/Amsterdam), the UTC instant on hover.
   const created2 = page.getByTestId("audit-result").getByTestId("field-time").first();
   await expect(created2).toHaveText(/CES?T$/);

@@ -133,8 +133,9 @@ export function HeadlineFigures({ summary }: { summary: AuditSummary }) {
           detail={
             s.helmert ? (
               <>
-                scale and rotation; shifts east {formatSignedM(s.helmert.tE)}, north {formatSignedM(s.helmert.tN)} (they
-                depend on the grid origin); fit residual {formatMm(s.helmert.rmse)}
+                scale (units or projection) and rotation (heading or row-bearing calibration); at the centre of the
+                checkpoints the fit shifts east {formatSignedMm(s.meanDE)}, north {formatSignedMm(s.meanDN)}{" "}
+                (base-station coordinates or reference frame); fit residual {formatMm(s.helmert.rmse)}
               </>
             ) : (
               "needs at least two pairs"
@@ -194,10 +195,6 @@ function formatSignedPpm(scale: number): string {
 
 function formatArcsec(arcsec: number): string {
   return `rotation ${arcsec >= 0 ? "+" : "\u2212"}${Math.abs(arcsec).toFixed(1)}″`;
-}
-
-function formatSignedM(m: number): string {
-  return `${m >= 0 ? "+" : "\u2212"}${Math.abs(m).toFixed(4)} m`;
 }
 
 /**

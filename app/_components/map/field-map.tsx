@@ -174,6 +174,9 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   }, [meta]);
   const bounds = useMemo(() => boundsOf(meta.boundary.ring, arrays.pairXY, arrays.unpairedXY), [meta, arrays]);
   const recordMarks = useRecordMarks(mode === "grower" ? auditId : null, meta);
+  // A plant's or a cell's details belong to the layer they were picked on: switching layers closes the panel.
+  // biome-ignore lint/correctness/useExhaustiveDependencies: runs on a layer change only
+  useEffect(() => setSelected(null), [settings.layer]);
 
   const cells = useMemo<Cell[] | null>(() => {
     if (settings.layer !== "cells") return null;
