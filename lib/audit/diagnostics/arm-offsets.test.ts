@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import jStat from "jstat";
 import { armDiagnostics } from "./arm-offsets";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 
 describe("armDiagnostics", () => {
   it("armDiagnostics -- recovers a cross-row offset on one arm and says no offset for the others", () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { bedRowTable } from "./bed-row";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 
 describe("bedRowTable", () => {
   it("bedRowTable -- one cell per bed and row in natural order with counts and means", () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { cameraGain } from "./camera-gain";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 
 describe("cameraGain", () => {
   it("cameraGain -- RMSE of raw against corrected on the same pairs", () => {

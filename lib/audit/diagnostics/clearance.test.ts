@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { clearanceShare } from "./clearance";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 import type { DiagnosticPair } from "./types";
 
 const X = [0.0012, -0.0031, 0.0044, 0.0007, -0.0009, 0.0026, 0.0051, -0.0018, 0.0003, 0.0022];

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { armDiagnostics } from "./arm-offsets";
 import { compareDiagnostics } from "./compare";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 
 const headline = (pairs: ReturnType<typeof simulatePairs>) => ({
   pairs: pairs.length,

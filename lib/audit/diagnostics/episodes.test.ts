@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { degradedFixEpisodes, errorJumps, passSeries, type PlantedTrack } from "./episodes";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 
 /** Every record of rows 1–4 (100 plants each, 3 s apart, side by side); rows 2–3 plants 31–80 float. */
 function track(): PlantedTrack {

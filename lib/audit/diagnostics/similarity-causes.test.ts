@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { similarityDiagnosis } from "./similarity-causes";
-import { simulatePairs } from "./test-pairs";
+import { simulatePairs } from "../test-helpers";
 import type { DiagnosticPair } from "./types";
 
 /** EPSG transformation 5166 (ED50 → ETRS89 / UTM 31N) source and target points, IOGP Publication 373-7-2. */
