@@ -102,3 +102,27 @@ describe("demo season", () => {
     expect(d.similarity!.causes[0].sentence).toMatch(/reference frame/);
   });
 });
+
+describe("season", () => {
+  it("season -- the field's audits in planting order with signed ones marked; another organisation gets 404", async () => {
+    const fieldsRoute = await import("@/app/api/fields/route");
+    const fields = (await (await fieldsRoute.GET(req("/api/fields", { cookie: cookies.grower }), ctx({}))).json())
+      .fields;
+    const fieldId = fields.find((f: { name: string }) => f.name === "Long Acre").id as string;
+    const route = await import("@/app/api/fields/[fieldId]/season/route");
+    const res = await route.GET(req(`/api/fields/${fieldId}/season`, { cookie: cookies.grower }), ctx({ fieldId }));
+    expect(res.status).toBe(200);
+    const season = await res.json();
+    expect(
+      season.points.map((p: { title: string; signed: boolean; day: string }) => [p.title, p.signed, p.day]),
+    ).toEqual([
+      ["Long Acre April planting", true, "2026-04-14"],
+      ["Long Acre May planting", false, "2026-05-19"],
+      ["Long Acre June planting", false, "2026-06-16"],
+    ]);
+    const arm3 = season.points[0].arms.find((a: { arm: string }) => a.arm === "3");
+    expect(Math.abs(arm3.cross + 0.003)).toBeLessThan(0.001);
+    const other = await route.GET(req(`/api/fields/${fieldId}/season`, { cookie: cookies.other }), ctx({ fieldId }));
+    expect(other.status).toBe(404);
+  });
+});

@@ -95,6 +95,15 @@ export function AuditResult({ auditId, canPrepare }: { auditId: string; canPrepa
               Open this audit’s map
             </Link>
           ) : null}
+          {done ? (
+            <Link
+              href={`/audits/${audit.id}/diagnostics`}
+              className="text-sm font-medium text-leaf underline-offset-2 hover:underline"
+              data-testid="diagnostics-link"
+            >
+              Diagnose the machine
+            </Link>
+          ) : null}
           {canPrepare ? (
             <Link
               href={`/fields/${audit.field.id}/audits/new`}
