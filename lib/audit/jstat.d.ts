@@ -5,7 +5,11 @@ declare module "jstat" {
   interface JStatOracle {
     beta: { inv(p: number, a: number, b: number): number; cdf(x: number, a: number, b: number): number };
     studentt: { inv(p: number, dof: number): number; cdf(t: number, dof: number): number };
-    normal: { inv(p: number, mean: number, sd: number): number };
+    normal: { inv(p: number, mean: number, sd: number): number; cdf(x: number, mean: number, sd: number): number };
+    centralF: { cdf(x: number, df1: number, df2: number): number };
+    erfc(x: number): number;
+    mean(values: number[]): number;
+    stdev(values: number[], sample?: boolean): number;
     ibeta(x: number, a: number, b: number): number;
     gammaln(x: number): number;
     percentile(values: number[], k: number, exclusive?: boolean): number;

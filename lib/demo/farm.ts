@@ -45,6 +45,9 @@ export interface DemoFieldSpec {
   secondsPerPlant: number;
   idPrefix: string;
   seed: number;
+  /** A whole-pass shift of the records (e.g. wrong base-station coordinates that day), metres; default none. */
+  shiftE?: number;
+  shiftN?: number;
 }
 
 export const DEMO_FIELDS: DemoFieldSpec[] = [

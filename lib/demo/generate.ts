@@ -68,8 +68,8 @@ export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
           dAlong += 0.03 + g() * 0.006;
           dCross += 0.012 + g() * 0.004;
         }
-        const recE = trueE + along[0] * dAlong + right[0] * dCross;
-        const recN = trueN + along[1] * dAlong + right[1] * dCross;
+        const recE = trueE + along[0] * dAlong + right[0] * dCross + (spec.shiftE ?? 0);
+        const recN = trueN + along[1] * dAlong + right[1] * dCross + (spec.shiftN ?? 0);
         const drift = 0.02 * Math.sin(driftPhase + k / 25);
         const rawE = recE + drift + g() * 0.012;
         const rawN = recN + 0.6 * drift + g() * 0.012;

@@ -16,6 +16,7 @@ import {
   OTHER_ORG,
   OTHER_OWNER,
 } from "./farm";
+import { seedDemoSeason } from "./season";
 
 async function userExists(email: string): Promise<boolean> {
   const db = await getDb();
@@ -27,7 +28,7 @@ async function userExists(email: string): Promise<boolean> {
  * Create the demo organisations, accounts and fields once. Safe to call at every start:
  * it does nothing when the demo owner already exists.
  */
-export async function seedDemo(): Promise<"created" | "present"> {
+export async function seedDemo(opts: { season?: boolean } = {}): Promise<"created" | "present"> {
   const [owner, ...others] = DEMO_PEOPLE;
   if (await userExists(owner.email)) return "present";
   const db = await getDb();
@@ -44,8 +45,9 @@ export async function seedDemo(): Promise<"created" | "present"> {
     const { user: u } = await auth.api.signUpEmail({ body: { name: p.name, email: p.email, password: DEMO_PASSWORD } });
     await addMember(orgId, u.id, p.role);
   }
+  const fieldIds: Record<string, string> = {};
   for (const f of DEMO_FIELDS) {
-    await createField(db, {
+    const created = await createField(db, {
       orgId,
       userId: ownerId,
       input: {
@@ -60,6 +62,7 @@ export async function seedDemo(): Promise<"created" | "present"> {
         boundary: null,
       },
     });
+    fieldIds[f.name] = created.id;
   }
 
   const other = await createAccountWithOrganisation({
@@ -81,6 +84,9 @@ export async function seedDemo(): Promise<"created" | "present"> {
       boundary: null,
     },
   });
+  // The demo season (lib/demo/season.ts): plantings audited over the months. On by default in demo mode; tests that
+  // seed the demo ask for it when they need it.
+  if (opts.season ?? process.env.PLOTPROOF_DEMO === "1") await seedDemoSeason(orgId, fieldIds);
   return "created";
 }
 

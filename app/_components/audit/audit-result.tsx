@@ -104,6 +104,15 @@ export function AuditResult({
               Open this audit’s map
             </Link>
           ) : null}
+          {done ? (
+            <Link
+              href={`/audits/${audit.id}/diagnostics`}
+              className="text-sm font-medium text-leaf underline-offset-2 hover:underline"
+              data-testid="diagnostics-link"
+            >
+              Diagnose the machine
+            </Link>
+          ) : null}
           {canPrepare ? (
             <Link
               href={`/fields/${audit.field.id}/audits/new`}

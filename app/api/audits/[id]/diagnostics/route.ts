@@ -1,0 +1,19 @@
+import { guardedRoute } from "@/lib/server/access";
+import { ANY_ROLE } from "@/lib/roles";
+import { auditDiagnosticsFor } from "@/lib/server/audits/diagnostics";
+
+/** Diagnostics of one audit (computed on read from its stored rows) and the comparison with the field's previous audit. */
+export const GET = guardedRoute<{ id: string }>(ANY_ROLE, async ({ viewer, params }) => {
+  const { audit, diagnostics, previous } = await auditDiagnosticsFor(viewer, params);
+  return Response.json({
+    audit: {
+      id: audit.id,
+      title: audit.title,
+      state: audit.state,
+      fieldId: audit.field.id,
+      fieldName: audit.field.name,
+    },
+    diagnostics,
+    previous,
+  });
+});
