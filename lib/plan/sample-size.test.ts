@@ -31,13 +31,13 @@ describe("checkpointsForShare", () => {
   });
 
   it("checkpointsForShare -- agrees with the jstat binomial oracle over shares, confidences and allowances", () => {
+    const cases: [number, number, number][] = [];
     for (const p of [0.8, 0.9, 0.95, 0.98, 0.99])
-      // jstat 1.9.6 binomial cdf as independent oracle
-      for (const conf of [0.9, 0.95, 0.99])
-        for (const c of [0, 1, 3])
-          expect(checkpointsForShare({ requiredShare: p, confidence: conf }, c), `${p} ${conf} ${c}`).toBe(
-            oracle(p, conf, c),
-          );
+      for (const conf of [0.9, 0.95, 0.99]) for (const c of [0, 1, 3]) cases.push([p, conf, c]);
+    for (const [p, conf, c] of cases) {
+      const expected = oracle(p, conf, c); // jstat 1.9.6 binomial cdf as independent oracle
+      expect(checkpointsForShare({ requiredShare: p, confidence: conf }, c), `${p} ${conf} ${c}`).toBe(expected);
+    }
   });
 
   it("checkpointsForShare -- 90 %/90 % with no failure allowed: 22", () => {
