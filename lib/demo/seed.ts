@@ -16,6 +16,7 @@ import {
   OTHER_ORG,
   OTHER_OWNER,
 } from "./farm";
+import { seedPlanDemo } from "./plan-seed";
 
 async function userExists(email: string): Promise<boolean> {
   const db = await getDb();
@@ -61,6 +62,8 @@ export async function seedDemo(): Promise<"created" | "present"> {
       },
     });
   }
+
+  await seedPlanDemo(orgId); // a survey plan and a survey made from it (Willow Strip)
 
   const other = await createAccountWithOrganisation({
     name: OTHER_OWNER.name,
