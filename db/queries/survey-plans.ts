@@ -462,3 +462,22 @@ export async function countPlansUsingDataset(db: DB, { datasetIds }: { datasetId
     .where(inArray(surveyPlan.plantedDatasetId, datasetIds));
   return n;
 }
+
+/** Surveys uploaded against a plan, newest first, with what their uploads recorded. */
+export async function listPlanSurveys(
+  db: DB,
+  { planId, orgId }: { planId: string; orgId: string },
+): Promise<(SurveyRecordDto & { fileName: string })[]> {
+  const rows = await db
+    .select({ datasetId: surveyRecord.datasetId, fileName: dataset.fileName })
+    .from(surveyRecord)
+    .innerJoin(dataset, eq(dataset.id, surveyRecord.datasetId))
+    .where(and(eq(surveyRecord.planId, planId), eq(surveyRecord.orgId, orgId)))
+    .orderBy(desc(surveyRecord.createdAt));
+  const out: (SurveyRecordDto & { fileName: string })[] = [];
+  for (const r of rows) {
+    const rec = await getSurveyRecord(db, { datasetId: r.datasetId, orgId });
+    if (rec) out.push({ ...rec, fileName: r.fileName });
+  }
+  return out;
+}

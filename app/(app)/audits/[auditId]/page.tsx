@@ -4,6 +4,7 @@ import { requirePageViewer } from "@/lib/server/access";
 import { can } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { AuditResult } from "@/app/_components/audit/audit-result";
+import { AuditPlanPanel } from "@/app/(app)/plans/audit-plan-panel";
 
 export const metadata: Metadata = { title: "Audit result" };
 
@@ -11,5 +12,10 @@ export default async function AuditPage({ params }: { params: Promise<{ auditId:
   const viewer = await requirePageViewer();
   // The layout has already answered 404 for a malformed id.
   const auditId = idFromParams(await params, "auditId") ?? notFound();
-  return <AuditResult auditId={auditId} canPrepare={can(viewer.role, "CAN_PREPARE")} />;
+  return (
+    <>
+      <AuditPlanPanel viewer={viewer} auditId={auditId} />
+      <AuditResult auditId={auditId} canPrepare={can(viewer.role, "CAN_PREPARE")} />
+    </>
+  );
 }
