@@ -408,7 +408,7 @@ export async function planOfSurvey(
 }
 
 const inPlan = (planId: string) =>
-  sql<boolean>`exists (select 1 from ${surveyPlanPoint} where ${surveyPlanPoint.planId} = ${planId} and ${surveyPlanPoint.plantId} = ${auditUnpaired.pointId})`;
+  sql<boolean>`exists (select 1 from ${surveyPlanPoint} where ${surveyPlanPoint.planId} = ${planId} and not ${surveyPlanPoint.spare} and ${surveyPlanPoint.plantId} = ${auditUnpaired.pointId})`;
 
 /** Unpaired counts of an audit, with the planted ones split into "not sampled" and "sampled but not found". */
 export async function unpairedSplitCounts(
@@ -444,12 +444,15 @@ export async function unpairedSplitCounts(
   return out;
 }
 
-/** Plant ids the plan chose (checkpoints and spares), for filtering the unpaired CSV. */
+/**
+ * Plant ids of the plan's checkpoints, for filtering the unpaired CSV. Spares are left out: an unused spare was never
+ * asked for, and a used one is paired.
+ */
 export async function plannedPlantIds(db: DB, { planId }: { planId: string }): Promise<Set<string>> {
   const rows = await db
     .select({ plantId: surveyPlanPoint.plantId })
     .from(surveyPlanPoint)
-    .where(eq(surveyPlanPoint.planId, planId));
+    .where(and(eq(surveyPlanPoint.planId, planId), eq(surveyPlanPoint.spare, false)));
   return new Set(rows.map((r) => r.plantId));
 }
 
