@@ -97,8 +97,10 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   await tech.goto(`/audits/${audit.id}`);
   const panel = tech.getByTestId("audit-plan-panel");
   await expect(panel).toContainText("Idris weekly check");
-  const notSampled = Number((await panel.getByTestId("split-not-sampled").innerText()).replace(/\D/g, ""));
-  const sampledNotFound = Number((await panel.getByTestId("split-sampled-not-found").innerText()).replace(/\D/g, ""));
+  const notSampled = Number(((await panel.getByTestId("split-not-sampled").textContent()) ?? "").replace(/\D/g, ""));
+  const sampledNotFound = Number(
+    ((await panel.getByTestId("split-sampled-not-found").textContent()) ?? "").replace(/\D/g, ""),
+  );
   expect(notSampled + sampledNotFound).toBe(audit.summary.unmatchedPlanted);
   expect(sampledNotFound).toBe(survey.dead.length);
   await expect(panel.getByTestId("split-surveyed-no-record")).toHaveText("0");
