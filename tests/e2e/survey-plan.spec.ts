@@ -7,6 +7,10 @@ import { AuditApi } from "./pages/audit";
 import { pageFor } from "./pages/review";
 
 const WILLOW = DEMO_FIELDS.find((f) => f.name === "Willow Strip")!;
+// The e2e database outlives a run: names carry the run so a second run does not meet the first one's plan.
+const RUN = Date.now().toString(36);
+const PLAN = `Idris weekly check ${RUN}`;
+const FILE = `willow-check-${RUN}.csv`;
 
 test("survey plan -- QA lead plans, technician surveys from it with the control-mark check, coverage and sign-off evidence show", async ({
   page,
@@ -21,14 +25,14 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   await page.getByRole("link", { name: "Survey plans" }).click();
   await expect(page.getByTestId("plan-safety")).toContainText("Stop the machine and lock it out");
   const form = page.getByTestId("new-plan-form");
-  await form.getByLabel("Plan name").fill("Idris weekly check");
+  await form.getByLabel("Plan name").fill(PLAN);
   await form.getByLabel("Tolerance profile").selectOption({ label: "Inter-row hoeing" });
   await form.getByLabel("Minimum per stratum").fill("6");
   await form.getByLabel("Spares per stratum").fill("2");
   await form.getByLabel("Leave out at each bed end (m)").fill("1");
   await form.getByLabel("Seed (optional)").fill("777");
   await form.getByRole("button", { name: "Make plan" }).click();
-  await expect(page.getByRole("heading", { name: "Idris weekly check" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: PLAN })).toBeVisible();
   await expect(page.getByTestId("sample-size")).toContainText("59 checkpoints");
   await expect(page.getByTestId("plan-safety")).toBeVisible();
   await expect(page.getByTestId("plan-plot")).toBeVisible();
@@ -52,7 +56,7 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   await tech.goto(planUrl);
   const up = tech.getByTestId("plan-survey-form");
   await up.getByLabel(/Survey file/).setInputFiles({
-    name: "willow-idris-check.csv",
+    name: FILE,
     mimeType: "text/csv",
     buffer: Buffer.from(survey.csv),
   });
@@ -67,7 +71,7 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   await up.getByLabel("Surveyor").fill("Tamsin Rook");
   await up.getByLabel(/Planned points not surveyed/).fill(survey.dead.map((d) => `${d.name} dead`).join("\n"));
   await up.getByRole("button", { name: "Upload survey" }).click();
-  const surveyed = tech.getByTestId("plan-surveys").locator("li", { hasText: "willow-idris-check.csv" });
+  const surveyed = tech.getByTestId("plan-surveys").locator("li", { hasText: FILE });
   await expect(surveyed.getByTestId("coverage-surveyed")).toContainText(
     `${points.filter((p) => !p.spare).length - survey.dead.length} of ${points.filter((p) => !p.spare).length} planned checkpoints surveyed`,
   );
@@ -80,7 +84,7 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
     fileName: string;
   }[];
   const planted = datasets.find((d) => d.kind === "planted")!;
-  const surveyDs = datasets.find((d) => d.fileName === "willow-idris-check.csv")!;
+  const surveyDs = datasets.find((d) => d.fileName === FILE)!;
   const profile = (await api.profiles()).find((p) => p.name === "Inter-row hoeing")!;
   const created = await tech.request.post("/api/audits?wait=1", {
     data: {
@@ -96,7 +100,7 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   expect((await tech.request.post(`/api/audits/${audit.id}/submit`, { data: {} })).status()).toBe(200);
   await tech.goto(`/audits/${audit.id}`);
   const panel = tech.getByTestId("audit-plan-panel");
-  await expect(panel).toContainText("Idris weekly check");
+  await expect(panel).toContainText(PLAN);
   const notSampled = Number(((await panel.getByTestId("split-not-sampled").textContent()) ?? "").replace(/\D/g, ""));
   const sampledNotFound = Number(
     ((await panel.getByTestId("split-sampled-not-found").textContent()) ?? "").replace(/\D/g, ""),
