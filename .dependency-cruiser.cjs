@@ -19,7 +19,7 @@ const TESTS = ["[.]test[.]tsx?$", "^tests/", "^lib/audit/test-helpers[.]ts$", "^
  * The pure core. lib/map/bench-*.ts are command-line benchmarks; lib/review/hash.ts is the one review helper bound
  * to Node (SHA-256 from node:crypto), used by the server and the audit worker, never by the browser.
  */
-const CORE = ["^geo/", "^lib/audit/", "^lib/map/", "^lib/review/", "^lib/binary-frame[.]ts$"];
+const CORE = ["^geo/", "^lib/audit/", "^lib/map/", "^lib/review/", "^lib/plan/", "^lib/binary-frame[.]ts$"];
 const NOT_CORE = [...TESTS, "^lib/map/bench-[^/]+[.]ts$", "^lib/review/hash[.]ts$"];
 
 /** npm packages the core may use: reading and projecting coordinates (geo), statistics and option parsing (lib/audit). */

@@ -531,3 +531,129 @@ export const signInFailure = pgTable("sign_in_failure", {
   lastFailedAt: timestamp("last_failed_at", { withTimezone: true }).notNull(),
   lockedUntil: timestamp("locked_until", { withTimezone: true }),
 });
+
+// ---------------------------------------------------------------------------
+// Survey plans, control marks and what a survey upload records about its fieldwork (lib/plan/).
+// A plan is never edited; once a survey record names it, a trigger (hand-written part of the migration) refuses
+// any change to it or its points. Survey records are never changed either.
+// ---------------------------------------------------------------------------
+
+/** Which plants a check survey measures, chosen before the fieldwork from one as-planted dataset. */
+export const surveyPlan = pgTable(
+  "survey_plan",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    fieldId: uuid("field_id")
+      .notNull()
+      .references(() => field.id, { onDelete: "restrict" }),
+    plantedDatasetId: uuid("planted_dataset_id")
+      .notNull()
+      .references(() => dataset.id, { onDelete: "restrict" }),
+    name: text("name").notNull(),
+    profileId: uuid("profile_id").references(() => toleranceProfile.id, { onDelete: "set null" }),
+    /** The tolerance profile as it was when the plan was made. */
+    profileSnapshot: jsonb("profile_snapshot").notNull(),
+    /** Failures allowed for, standards, strata, minimum per stratum, spares, spacing, bed-end margin, bearing. */
+    parameters: jsonb("parameters").notNull(),
+    /** Seed of the random selection (mulberry32), so the same plants can be chosen again. */
+    seed: bigint("seed", { mode: "number" }).notNull(),
+    /** The sample size and how it was decided (lib/plan/sample-size.ts). */
+    sampleSize: jsonb("sample_size").notNull(),
+    /** Per stratum: plants, checkpoints, spares, minimum. */
+    strata: jsonb("strata").notNull(),
+    /** Plants left out near bed ends, plants that could be chosen, bearing used. */
+    selectionNotes: jsonb("selection_notes").notNull(),
+    createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+    createdByName: text("created_by_name").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("survey_plan_org_field_idx").on(t.orgId, t.fieldId)],
+);
+
+/** One plant a plan chose (a checkpoint or a spare), with its point name and position in the field's CRS. */
+export const surveyPlanPoint = pgTable(
+  "survey_plan_point",
+  {
+    planId: uuid("plan_id")
+      .notNull()
+      .references(() => surveyPlan.id, { onDelete: "cascade" }),
+    seq: integer("seq").notNull(),
+    name: text("name").notNull(),
+    plantId: text("plant_id").notNull(),
+    stratum: text("stratum").notNull(),
+    spare: boolean("spare").notNull(),
+    e: doublePrecision("e").notNull(),
+    n: doublePrecision("n").notNull(),
+    crop: text("crop"),
+    bed: text("bed"),
+    row: text("row"),
+    arm: text("arm"),
+  },
+  (t) => [
+    primaryKey({ columns: [t.planId, t.seq] }),
+    uniqueIndex("survey_plan_point_name_uq").on(t.planId, t.name),
+    index("survey_plan_point_plant_idx").on(t.planId, t.plantId),
+  ],
+);
+
+/** A mark of known position in or near a field, measured before and after a survey to check the instrument. */
+export const controlMark = pgTable(
+  "control_mark",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    fieldId: uuid("field_id")
+      .notNull()
+      .references(() => field.id, { onDelete: "restrict" }),
+    name: text("name").notNull(),
+    /** Known easting/northing in the field's CRS, metres; height optional. */
+    e: doublePrecision("e").notNull(),
+    n: doublePrecision("n").notNull(),
+    h: doublePrecision("h"),
+    description: text("description"),
+    /** Where the known position comes from (e.g. a survey report). */
+    source: text("source"),
+    createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("control_mark_field_name_uq").on(t.fieldId, t.name), index("control_mark_org_idx").on(t.orgId)],
+);
+
+/** What a survey upload recorded about its fieldwork: plan, control-mark check, instrument, surveyor, coverage. */
+export const surveyRecord = pgTable(
+  "survey_record",
+  {
+    datasetId: uuid("dataset_id")
+      .primaryKey()
+      .references(() => dataset.id, { onDelete: "cascade" }),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    planId: uuid("plan_id").references(() => surveyPlan.id, { onDelete: "restrict" }),
+    controlMarkId: uuid("control_mark_id").references(() => controlMark.id, { onDelete: "restrict" }),
+    /** The mark as it was (name, known E/N/H) and the measurements before/after. */
+    markCheck: jsonb("mark_check"),
+    /** The judgement of the instrument check (lib/plan/instrument-check.ts). */
+    instrumentCheck: jsonb("instrument_check"),
+    instrument: text("instrument"),
+    serial: text("serial"),
+    /** YYYY-MM-DD. */
+    calibrationDate: text("calibration_date"),
+    precisionMm: doublePrecision("precision_mm"),
+    surveyor: text("surveyor"),
+    method: text("method"),
+    /** Planned points reported dead or not found. */
+    missingReported: jsonb("missing_reported"),
+    /** Coverage of the plan (lib/plan/coverage.ts). */
+    coverage: jsonb("coverage"),
+    createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("survey_record_plan_idx").on(t.planId), index("survey_record_org_idx").on(t.orgId)],
+);

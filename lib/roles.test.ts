@@ -7,6 +7,7 @@ const EXPECTED: Record<Permission, Role[]> = {
   CAN_PREPARE: ["owner", "qa_lead", "technician"],
   CAN_REVIEW: ["owner", "qa_lead"],
   CAN_EDIT_PROFILES: ["owner", "qa_lead"],
+  CAN_PLAN_SURVEYS: ["owner", "qa_lead"],
   CAN_MANAGE_TEAM: ["owner"],
   CAN_MANAGE_KEYS: ["owner"],
   CAN_READ_OUTBOX: ["owner"],

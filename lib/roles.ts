@@ -27,6 +27,8 @@ export const CAN_PREPARE: readonly Role[] = ["owner", "qa_lead", "technician"];
 export const CAN_REVIEW: readonly Role[] = ["owner", "qa_lead"];
 /** Create, edit and delete tolerance profiles. */
 export const CAN_EDIT_PROFILES: readonly Role[] = ["owner", "qa_lead"];
+/** Plan check surveys (which plants, stakeout files) and keep a field's control marks. */
+export const CAN_PLAN_SURVEYS: readonly Role[] = ["owner", "qa_lead"];
 /** Invite people, change roles, remove members; see team and API key changes in the activity log. */
 export const CAN_MANAGE_TEAM: readonly Role[] = ["owner"];
 /** Create, list and revoke API keys. */
@@ -40,6 +42,7 @@ export const PERMISSIONS = {
   CAN_PREPARE,
   CAN_REVIEW,
   CAN_EDIT_PROFILES,
+  CAN_PLAN_SURVEYS,
   CAN_MANAGE_TEAM,
   CAN_MANAGE_KEYS,
   CAN_READ_OUTBOX,

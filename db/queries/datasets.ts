@@ -1,7 +1,7 @@
 import "server-only";
 import { and, desc, eq, inArray, or } from "drizzle-orm";
 import type { DB } from "@/db/client";
-import { audit, dataset, datasetFile } from "@/db/schema";
+import { audit, dataset, datasetFile, surveyPlan } from "@/db/schema";
 import { decodePoints, encodePoints } from "@/db/points-blob";
 import type { ColumnMapping, InputIssue, PointTable } from "@/geo";
 import type { DatasetDto } from "@/lib/api-types";
@@ -129,6 +129,8 @@ export interface NewDataset {
   table: PointTable;
   /** Save the mapping as an import preset of this name in the same transaction. */
   presetName?: string;
+  /** More rows to save in the same transaction, given the new dataset's id (a survey's fieldwork record). */
+  alsoSave?: (tx: Pick<DB, "insert">, datasetId: string) => Promise<void>;
 }
 
 /** Save the file exactly as received, its parsed points and an activity entry, all in one transaction. */
@@ -171,6 +173,7 @@ export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> 
       subjectId: row.id,
       detail: { fileName: d.fileName, kind: d.kind, rows: d.table.length, sha256: d.sha256 },
     });
+    if (d.alsoSave) await d.alsoSave(tx, row.id);
     return toDto(row, new Set());
   });
 }
@@ -201,6 +204,14 @@ export async function deleteDataset(
           : `"${row.fileName}" is an input of ${users.length} audit(s) (e.g. "${users[0].title}"); audits keep their input files.`,
       };
     }
+    const plans = await tx
+      .select({ name: surveyPlan.name })
+      .from(surveyPlan)
+      .where(eq(surveyPlan.plantedDatasetId, id));
+    if (plans.length > 0)
+      return {
+        keptBecause: `"${row.fileName}" is the source of ${plans.length} survey plan(s) (e.g. "${plans[0].name}"); plans keep the records they chose from.`,
+      };
     await tx.delete(datasetFile).where(eq(datasetFile.datasetId, id));
     await tx.delete(dataset).where(eq(dataset.id, id));
     await logActivity(tx, {

@@ -16,6 +16,7 @@ import {
   OTHER_ORG,
   OTHER_OWNER,
 } from "./farm";
+import { seedPlanDemo } from "./plan-seed";
 import { seedDemoSeason } from "./season";
 
 async function userExists(email: string): Promise<boolean> {
@@ -64,6 +65,8 @@ export async function seedDemo(opts: { season?: boolean } = {}): Promise<"create
     });
     fieldIds[f.name] = created.id;
   }
+
+  await seedPlanDemo(orgId); // a survey plan and a survey made from it (Willow Strip)
 
   const other = await createAccountWithOrganisation({
     name: OTHER_OWNER.name,

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { COLUMN_ROLES } from "@/geo";
+import { FieldworkField } from "./plan";
 
 export const MAX_UPLOAD_BYTES = 300 * 1024 * 1024;
 
@@ -37,4 +38,6 @@ export const UploadFields = z.object({
     .optional()
     .transform((v) => v === "true"),
   presetName: z.string().trim().min(1).max(80).optional(),
+  /** A survey's fieldwork as JSON (lib/validation/plan.ts FieldworkInput). */
+  fieldwork: FieldworkField,
 });

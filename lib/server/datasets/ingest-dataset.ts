@@ -20,6 +20,9 @@ import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
 import type { Viewer } from "@/lib/server/access";
 import { checkFileInField } from "./field-checks";
+import { createSurveyRecord } from "@/db/queries/survey-plans";
+import { prepareSurveyRecord } from "@/lib/server/plans/fieldwork";
+import type { FieldworkInput } from "@/lib/validation/plan";
 
 export interface IngestRequest {
   viewer: Viewer;
@@ -33,6 +36,8 @@ export interface IngestRequest {
   mapping?: ColumnMapping;
   acceptWarnings: boolean;
   presetName?: string;
+  /** A survey's fieldwork: the plan it was made from, the control-mark check, instrument, surveyor (optional). */
+  fieldwork?: FieldworkInput | null;
   onProgress?: (stage: "reading" | "checking" | "saving", fraction: number) => void;
 }
 
@@ -114,6 +119,20 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
       warnings,
     );
   }
+  if (r.fieldwork && r.kind !== "survey")
+    throw new AppError("invalid_input", "Fieldwork (plan, control mark, instrument) belongs to a survey upload.", [
+      { path: ["fieldwork"], message: "only for kind=survey" },
+    ]);
+  const record = r.fieldwork
+    ? await prepareSurveyRecord(db, {
+        orgId: r.viewer.orgId,
+        userId: r.viewer.userId,
+        fieldId: field.id,
+        fileName: r.fileName,
+        table: read.table,
+        fieldwork: r.fieldwork,
+      })
+    : null;
   progress("checking", 1);
 
   progress("saving", 0);
@@ -142,6 +161,7 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     acceptedWarnings: warnings,
     table: read.table,
     presetName: r.presetName,
+    alsoSave: record ? (tx, datasetId) => createSurveyRecord(tx, { ...record, datasetId }) : undefined,
   });
   progress("saving", 1);
   const [lon, lat] = centreLonLat(read.table, crs);

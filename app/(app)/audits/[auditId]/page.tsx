@@ -7,6 +7,7 @@ import { AuditResult } from "@/app/_components/audit/audit-result";
 import { getDb } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
 import { checkpointSurveyPrecision } from "@/lib/server/audits/survey-precision";
+import { AuditPlanPanel } from "@/app/(app)/plans/audit-plan-panel";
 
 export const metadata: Metadata = { title: "Audit result" };
 
@@ -17,5 +18,10 @@ export default async function AuditPage({ params }: { params: Promise<{ auditId:
   const db = await getDb();
   const audit = await getAuditById(db, { id: auditId, orgId: viewer.orgId });
   const precision = audit ? await checkpointSurveyPrecision(db, { audit, orgId: viewer.orgId }) : { rmseH: null };
-  return <AuditResult auditId={auditId} canPrepare={can(viewer.role, "CAN_PREPARE")} surveyPrecision={precision} />;
+  return (
+    <>
+      <AuditPlanPanel viewer={viewer} auditId={auditId} />
+      <AuditResult auditId={auditId} canPrepare={can(viewer.role, "CAN_PREPARE")} surveyPrecision={precision} />
+    </>
+  );
 }

@@ -158,7 +158,13 @@ export function ReviewWorkspace({
 
       {r.allowed.includes("sign_off") && checklist && audit.verdict ? (
         <section id="decide" aria-label="Decide" className="grid gap-6 lg:grid-cols-[3fr_2fr]">
-          <SignoffForm auditId={audit.id} viewerName={viewer.name} context={checklist} verdict={audit.verdict} />
+          <SignoffForm
+            auditId={audit.id}
+            viewerName={viewer.name}
+            context={checklist}
+            verdict={audit.verdict}
+            surveyDatasetId={audit.survey?.id ?? null}
+          />
           <ReturnForm auditId={audit.id} />
         </section>
       ) : r.state === "submitted" ? (

@@ -1,9 +1,12 @@
 "use client";
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
-import { useSWRConfig } from "swr";
+import useSWR, { useSWRConfig } from "swr";
+import { fetcher } from "@/lib/fetcher";
+import type { SurveyRecordDto } from "@/lib/plan/dto";
+import { MarkEvidence, markEvidenceNote } from "@/app/(app)/plans/mark-evidence";
 import { type ApiError, sendJson } from "@/lib/fetcher";
 import { reviewKeys } from "@/lib/review/keys";
 import { INSTRUMENT_RATIO, namesMatch, type ChecklistContext } from "@/lib/review/checklist";
@@ -32,12 +35,20 @@ export function SignoffForm({
   viewerName,
   context,
   verdict,
+  surveyDatasetId = null,
 }: {
   auditId: string;
   viewerName: string;
   context: ChecklistContext;
   verdict: Verdict;
+  /** The audit's survey: its upload may carry a control-mark check, shown instead of the bare confirmation. */
+  surveyDatasetId?: string | null;
 }) {
+  const { data: surveyRecord } = useSWR<{ record: SurveyRecordDto | null }>(
+    surveyDatasetId ? `/api/datasets/${surveyDatasetId}/survey-record` : null,
+    fetcher,
+  );
+  const markCheck = surveyRecord?.record?.instrumentCheck ? surveyRecord.record : null;
   const { mutate } = useSWRConfig();
   const [formError, setFormError] = useState<string | null>(null);
   const deviation = !verdict.passed;
@@ -88,6 +99,7 @@ export function SignoffForm({
     register,
     handleSubmit,
     watch,
+    setValue,
     setError,
     formState: { errors, isSubmitting },
   } = useForm<Values>({
@@ -103,6 +115,13 @@ export function SignoffForm({
       typedName: "",
     },
   });
+
+  // A recorded control-mark check stands for the confirmation: confirmed unless it failed, its figures as the note.
+  useEffect(() => {
+    if (!markCheck?.instrumentCheck) return;
+    setValue("controlMark", markCheck.instrumentCheck.word !== "fails");
+    setValue("controlMarkNote", markEvidenceNote(markCheck));
+  }, [markCheck, setValue]);
 
   const stated = watch("instrumentPrecisionMm");
   const precisionM =
@@ -255,22 +274,40 @@ export function SignoffForm({
             ) : null}
           </div>
         ) : null}
-        {box(
-          "controlMark",
-          "Control mark checked before the survey",
-          "The surveyor measured a known mark before the checkpoints and it agreed.",
+        {markCheck ? (
+          <div className="py-3" data-check="controlMark">
+            <MarkEvidence record={markCheck} />
+            {errors.controlMark ? (
+              <p className="mt-1 text-sm text-alarm" data-field-error="controlMark">
+                {errors.controlMark.message}
+              </p>
+            ) : null}
+          </div>
+        ) : (
+          <>
+            {box(
+              "controlMark",
+              "Control mark checked before the survey",
+              <>
+                The surveyor measured a known mark before the checkpoints and it agreed.{" "}
+                <span className="text-loam" data-testid="control-mark-manual-note">
+                  No control-mark check was recorded with this survey&apos;s upload: confirm it by hand.
+                </span>
+              </>,
+            )}
+            <div className="py-3 pl-7">
+              <label htmlFor="controlMarkNote" className="mb-1 block text-sm font-medium">
+                Which mark, and how far off (optional)
+              </label>
+              <input
+                id="controlMarkNote"
+                className={inputClass(!!errors.controlMarkNote)}
+                placeholder="e.g. KF-03, 1.5 mm"
+                {...register("controlMarkNote")}
+              />
+            </div>
+          </>
         )}
-        <div className="py-3 pl-7">
-          <label htmlFor="controlMarkNote" className="mb-1 block text-sm font-medium">
-            Which mark, and how far off (optional)
-          </label>
-          <input
-            id="controlMarkNote"
-            className={inputClass(!!errors.controlMarkNote)}
-            placeholder="e.g. KF-03, 1.5 mm"
-            {...register("controlMarkNote")}
-          />
-        </div>
         {box(
           "profileFits",
           "Right tolerance profile for the next operation",

@@ -65,6 +65,7 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
           <ActionLink href={`/fields/${field.id}/upload?kind=survey`}>Upload survey</ActionLink>
           {hasBoth ? <ActionLink href={`/fields/${field.id}/audits/new`}>New audit</ActionLink> : null}
           <ActionLink href={`/fields/${field.id}/edit`}>Edit field</ActionLink>
+          <ActionLink href={`/fields/${field.id}/plans`}>Survey plans</ActionLink>
         </nav>
       ) : null}
       <div className="grid gap-6">
