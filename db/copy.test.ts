@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { boolean, doublePrecision, integer, pgTable, text } from "drizzle-orm/pg-core";
 import { asc } from "drizzle-orm";
-import { openDb } from "./client";
+import { closeDb, openDb } from "./client";
 import { copyRows } from "./copy";
 
 const sample = pgTable("copy_sample", {
@@ -14,7 +14,8 @@ const sample = pgTable("copy_sample", {
 describe("copyRows", () => {
   it("copyRows -- text with quotes, commas and line breaks, empty text vs null, doubles exactly, booleans", async () => {
     const db = await openDb("memory://");
-    await db.$client.exec(
+    if (db.$engine.kind !== "embedded") throw new Error("embedded database expected");
+    await db.$engine.pglite.exec(
       "create table copy_sample (seq integer not null, note text, value double precision, flag boolean)",
     );
     const rows = [
@@ -27,6 +28,6 @@ describe("copyRows", () => {
     await copyRows(db, sample, rows);
     const back = await db.select().from(sample).orderBy(asc(sample.seq));
     expect(back).toEqual(rows);
-    await db.$client.close();
+    await closeDb(db);
   });
 });

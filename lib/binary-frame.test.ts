@@ -83,6 +83,19 @@ describe("binary frame", () => {
     expect(own).toEqual(a.i32);
   });
 
+  it("readFrame -- a Buffer inside a larger allocation (as node-postgres hands bytea over) is copied, not viewed", () => {
+    const { a, bytes } = sampleFrame();
+    const pool = Buffer.alloc(bytes.byteLength + 13);
+    pool.set(bytes, 5); // offset 5: every array is unaligned, so every one is copied
+    const inside = pool.subarray(5, 5 + bytes.byteLength);
+    const frame = readFrame(inside, ["TEST"]);
+    const offset = (frame.header.parts as { offset: number }[])[3].offset;
+    const own = frame.array("i32", offset, 3, { copy: true });
+    expect(own.buffer).not.toBe(pool.buffer);
+    expect(own.byteLength).toBe(own.buffer.byteLength);
+    expect(own).toEqual(a.i32);
+  });
+
   it("readFrame -- another magic is refused with both names in the message", () => {
     const { bytes } = sampleFrame();
     expect(() => readFrame(bytes, ["PPT2", "PPT1"])).toThrow('binary frame: expected PPT2 or PPT1, found "TEST"');

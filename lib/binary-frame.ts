@@ -156,7 +156,8 @@ export function readFrame(input: ArrayBuffer | Uint8Array, magics: readonly stri
     const make: ArrayMaker<K> = ARRAY_OF[kind];
     // A typed array must start on a multiple of its element size; a driver may hand over any offset.
     if (options?.copy || at % size !== 0)
-      return new make(bytes.slice(start + offset, start + offset + byteLength).buffer);
+      // Uint8Array's own slice copies; Node's Buffer.slice (node-postgres hands bytea over as a Buffer) is a view.
+      return new make(Uint8Array.prototype.slice.call(bytes, start + offset, start + offset + byteLength).buffer);
     return new make(bytes.buffer, at, count);
   };
   return { magic, header: header as Record<string, unknown>, dataLength, array };

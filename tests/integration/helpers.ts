@@ -1,11 +1,35 @@
-import { openDb, setDbForTests, type DB } from "@/db/client";
+import pg from "pg";
+import { openDb, openServerDb, setDbForTests, type DB } from "@/db/client";
 
-/** One in-memory database per test file, with the real migrations, used by the app's own getDb(). */
+/**
+ * A fresh database on the PostgreSQL server of TEST_DATABASE_URL (its role may create databases): one per test file,
+ * so files never see each other's rows. DATABASE_URL points at it, so the code under test is in server mode.
+ */
+async function freshServerDb(adminUrl: string): Promise<DB> {
+  const name = `plotproof_t${process.pid}_${Math.random().toString(36).slice(2, 8)}`;
+  const admin = new pg.Client({ connectionString: adminUrl });
+  await admin.connect();
+  try {
+    await admin.query(`CREATE DATABASE ${name}`);
+  } finally {
+    await admin.end();
+  }
+  const url = new URL(adminUrl);
+  url.pathname = `/${name}`;
+  process.env.DATABASE_URL = url.toString();
+  return openServerDb(url.toString());
+}
+
+/**
+ * One database per test file, with the real migrations, used by the app's own getDb(): in memory (embedded), or a
+ * fresh one on a PostgreSQL server when TEST_DATABASE_URL is set (the server-mode run of tests/run-all.mjs).
+ */
 export async function useMemoryDb(): Promise<DB> {
   process.env.BETTER_AUTH_SECRET ??= "test-secret-test-secret-test-secret-0123";
   process.env.BETTER_AUTH_URL ??= "http://localhost:3000";
   process.env.AUTH_SIGNIN_PER_MINUTE ??= "1000";
-  const db = await openDb("memory://");
+  const adminUrl = process.env.TEST_DATABASE_URL;
+  const db = adminUrl ? await freshServerDb(adminUrl) : await openDb("memory://");
   setDbForTests(db);
   return db;
 }
