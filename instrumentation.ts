@@ -9,10 +9,17 @@ export async function register() {
   // Once per process: a second register() (the dev server may load this file again) would find this process's own
   // computations "computing".
   const g = globalThis as { __plotproofRecovered?: boolean };
-  if (!g.__plotproofRecovered) {
+  // In server mode the job queue retries a computation whose worker stopped; other instances may be computing now.
+  const { isServerMode } = await import("./db/client");
+  if (!g.__plotproofRecovered && !isServerMode()) {
     g.__plotproofRecovered = true;
     const { recoverInterruptedAudits } = await import("./lib/server/audits/recovery");
     await recoverInterruptedAudits(db);
+  }
+  // Server mode: this instance also takes jobs from the queue unless JOB_WORKERS=0 (dedicated `npm run worker`s).
+  if (isServerMode() && Number(process.env.JOB_WORKERS ?? 1) > 0) {
+    const { startJobWorkers } = await import("./lib/server/jobs/worker");
+    await startJobWorkers({ concurrency: Number(process.env.JOB_WORKERS ?? 1) });
   }
   // Bundle the audit worker now (about a second when its sources changed) rather than on the first audit.
   const { workerBundle } = await import("./lib/workers/bundle");

@@ -28,6 +28,10 @@ export function env(): Env {
   if (cached) return cached;
   const parsed = EnvSchema.parse(process.env);
   let authSecret = parsed.BETTER_AUTH_SECRET;
+  if (!authSecret && process.env.DATABASE_URL)
+    throw new Error(
+      "BETTER_AUTH_SECRET is required in server mode (DATABASE_URL set): every app instance must sign sessions with the same secret.",
+    );
   if (!authSecret) {
     const dataDir =
       parsed.PGLITE_DIR && !parsed.PGLITE_DIR.startsWith("memory://")

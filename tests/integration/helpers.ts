@@ -17,7 +17,11 @@ async function freshServerDb(adminUrl: string): Promise<DB> {
   const url = new URL(adminUrl);
   url.pathname = `/${name}`;
   process.env.DATABASE_URL = url.toString();
-  return openServerDb(url.toString());
+  const db = await openServerDb(url.toString());
+  // Audits are computed by the queue's workers in server mode: this test file's process takes its own jobs.
+  const { startJobWorkers } = await import("@/lib/server/jobs/worker");
+  await startJobWorkers();
+  return db;
 }
 
 /**

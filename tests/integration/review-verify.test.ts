@@ -60,12 +60,11 @@ const check = (v: VerificationDto, id: string) => v.checks.filter((c) => c.id ==
 
 /** Change stored data behind the application's back, as someone with database access could (triggers off). */
 async function tamper(statement: ReturnType<typeof sql>): Promise<void> {
-  await w.db.execute(sql`set session_replication_role = replica`);
-  try {
-    await w.db.execute(statement);
-  } finally {
-    await w.db.execute(sql`set session_replication_role = origin`);
-  }
+  // One transaction, so the setting and the statement share a connection on a server's pool too.
+  await w.db.transaction(async (tx) => {
+    await tx.execute(sql`set local session_replication_role = replica`);
+    await tx.execute(statement);
+  });
 }
 
 describe("verify -- re-computing from the raw files against the signed record", () => {

@@ -20,6 +20,7 @@ import type { AuditDto } from "@/lib/api-types";
 import { buildAuditSettings } from "@/lib/audit/settings";
 import type { AuditCreateInput } from "@/lib/validation/audit";
 import type { Viewer } from "@/lib/server/access";
+import { dispatchComputation } from "@/lib/server/jobs/queue";
 
 /**
  * Check the request, create the audit ("computing") and start the computation in the background.
@@ -71,9 +72,7 @@ export async function startAudit(
     settings,
     title: input.title ?? `${field.name} — ${profile!.name}`,
   });
-  const run = computeStoredAudit(db, { id, orgId });
-  if (opts.wait) await run;
-  else void run;
+  await dispatchComputation(db, { auditId: id, orgId, plants: planted!.rowCount }, computeStoredAudit, opts);
   return (await getAuditById(db, { id, orgId }))!;
 }
 
@@ -90,9 +89,9 @@ export async function recomputeAudit(
   const orgId = viewer.orgId;
   const restarted = await restartFailedAudit(db, { id: auditId, orgId, actorId: viewer.userId });
   if (!restarted) throw new AppError("conflict", "This audit is no longer failed: someone started it again first.");
-  const run = computeStoredAudit(db, { id: auditId, orgId });
-  if (opts.wait) await run;
-  else void run;
+  const before = await getAuditById(db, { id: auditId, orgId });
+  const plants = before?.planted?.rowCount ?? 0;
+  await dispatchComputation(db, { auditId, orgId, plants }, computeStoredAudit, opts);
   const audit = await getAuditById(db, { id: auditId, orgId });
   if (!audit) throw notFound("Audit");
   return audit;

@@ -16,6 +16,7 @@ import {
   type AuditReviewRow,
 } from "@/db/queries/review";
 import { computeStoredAudit } from "@/lib/server/audits/run-audit";
+import { dispatchComputation } from "@/lib/server/jobs/queue";
 import { notifyDecision, notifySubmitted } from "@/lib/server/mail/notify";
 import { AppError, notFound } from "@/lib/errors";
 import type { Viewer } from "@/lib/server/access";
@@ -288,8 +289,6 @@ export async function reviseAudit(
   });
   if (!id)
     throw new AppError("conflict", "This returned audit already has a corrected revision; continue with that one.");
-  const run = computeStoredAudit(db, { id, orgId });
-  if (opts.wait) await run;
-  else void run;
+  await dispatchComputation(db, { auditId: id, orgId, plants: planted!.rowCount }, computeStoredAudit, opts);
   return (await getAuditById(db, { id, orgId }))!;
 }
