@@ -164,6 +164,10 @@ export function DeckView({
           pickable: true,
           radiusUnits: "pixels",
           getRadius: SIZES.pairRadius,
+          stroked: true,
+          lineWidthUnits: "pixels",
+          getLineWidth: SIZES.pointOutline,
+          getLineColor: COLOURS.pointOutline,
         }),
       );
     }
