@@ -106,7 +106,7 @@ export function RevisionTag({ revision }: { revision: number }) {
 export function TableScroll({ label, children }: { label: string; children: React.ReactNode }) {
   return (
     // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard (WCAG 2.1.1)
-    <div className="max-w-full overflow-x-auto" role="region" aria-label={label} tabIndex={0}>
+    <div className="relative max-w-full overflow-x-auto" role="region" aria-label={label} tabIndex={0}>
       {children}
     </div>
   );

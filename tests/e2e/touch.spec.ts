@@ -9,6 +9,8 @@ import { DEMO_PASSWORD } from "@/lib/demo/farm";
 test.describe.configure({ mode: "serial" });
 
 const TABLET = { width: 820, height: 1180 };
+let resultUrl = "";
+let mapUrl = "";
 const PHONE = { width: 390, height: 844 };
 
 async function noSidewaysScroll(page: Page) {
@@ -90,8 +92,10 @@ test("touch -- on a tablet the technician signs in, uploads both files, runs an 
   const verdict = await result.verdict.boundingBox();
   expect(verdict!.y).toBeLessThan(TABLET.height);
 
+  resultUrl = page.url();
   await page.getByTestId("map-link").tap();
   await expect(page.getByTestId("field-map")).toBeVisible({ timeout: 30_000 });
+  mapUrl = page.url();
   await noSidewaysScroll(page);
   // The map first, its filters behind one button below it.
   const frame = (await page.getByTestId("map-frame").boundingBox())!;
@@ -102,6 +106,46 @@ test("touch -- on a tablet the technician signs in, uploads both files, runs an 
   await expect(filters).toHaveAttribute("aria-expanded", "true");
   await expect(page.getByTestId("map-controls")).toBeVisible();
   await expect(page.getByText("Tap or click a plant for its full record")).toBeVisible();
+  await context.close();
+});
+
+test("keyboard -- Escape on the map's detail panel gives focus back to the control that opened it", async ({
+  page,
+}) => {
+  expect(mapUrl, "the map of the audit made by tapping").not.toBe("");
+  await new SignInPage(page).signInAs("technician");
+  await page.goto(mapUrl);
+  const next = page.getByTestId("next-out");
+  await expect(next).toBeEnabled({ timeout: 30_000 });
+  await next.focus();
+  await page.keyboard.press("Enter");
+  const details = page.getByTestId("map-details");
+  await expect(details).toBeVisible();
+  await expect(details.getByRole("heading", { name: "Checkpoint" })).toBeFocused();
+  await page.keyboard.press("Escape");
+  await expect(details).toHaveCount(0);
+  await expect(next).toBeFocused();
+  // The same from the Close button, by touch.
+  await next.click();
+  await details.getByRole("button", { name: "Close" }).click();
+  await expect(next).toBeFocused();
+});
+
+// The README's pictures of a phone (SCREENSHOTS=1 npx playwright test tests/e2e/touch.spec.ts rewrites them).
+test("screenshots -- the result page and the map on a phone", async ({ browser }) => {
+  test.skip(!process.env.SCREENSHOTS, "only when asked for with SCREENSHOTS=1");
+  const context = await browser.newContext({ viewport: PHONE, hasTouch: true, isMobile: true, deviceScaleFactor: 2 });
+  const page = await context.newPage();
+  await new SignInPage(page).signInAs("technician");
+  await page.goto(resultUrl);
+  await new AuditResultPage(page).waitUntilComputed();
+  await page.screenshot({ path: "docs/screenshots/result-phone.png" });
+  await page.goto(mapUrl);
+  await page.waitForFunction(
+    () => Number(document.querySelector<HTMLElement>('[data-testid="field-map"]')?.dataset.draws) > 0,
+  );
+  await page.getByTestId("map-frame").scrollIntoViewIfNeeded();
+  await page.screenshot({ path: "docs/screenshots/map-phone.png" });
   await context.close();
 });
 

@@ -157,7 +157,7 @@ export function ProfilesManager({ canEdit }: { canEdit: boolean }) {
           <Empty>No profiles yet.</Empty>
         ) : (
           <div
-            className="overflow-x-auto"
+            className="relative overflow-x-auto"
             role="region"
             aria-label="Tolerance profiles"
             // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard

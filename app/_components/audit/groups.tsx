@@ -79,7 +79,7 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
           return (
             <div
               key={name}
-              className="overflow-x-auto rounded-plot border border-chalk-line bg-white p-4"
+              className="relative overflow-x-auto rounded-plot border border-chalk-line bg-white p-4"
               role="region"
               aria-label={meta.title}
               // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard

@@ -281,7 +281,7 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
       </p>
 
       <div
-        className="overflow-x-auto rounded-plot border border-chalk-line bg-white"
+        className="relative overflow-x-auto rounded-plot border border-chalk-line bg-white"
         role="region"
         aria-label="Per-plant errors"
         // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard

@@ -102,7 +102,7 @@ function UnpairedList({
       ) : (
         <>
           <div
-            className="overflow-x-auto"
+            className="relative overflow-x-auto"
             role="region"
             aria-label="Unpaired points"
             // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard
