@@ -352,7 +352,11 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
             <div className="pointer-events-none absolute left-2 top-2">
               <NorthArrow crs={meta.crs} convergenceDeg={meta.gridConvergenceDeg} />
             </div>
-            <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
+            <div
+              className="absolute bottom-2 left-2 flex gap-1 sm:bottom-auto sm:left-auto sm:right-2 sm:top-2"
+              role="group"
+              aria-label="View"
+            >
               <button
                 type="button"
                 onClick={fitToField}

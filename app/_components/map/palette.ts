@@ -7,7 +7,7 @@ export const COLOURS = {
   ink: [29, 42, 36, 255] as Rgba,
   inkSoft: [68, 82, 75, 255] as Rgba,
   inkFaint: [92, 105, 98, 255] as Rgba,
-  ring: [92, 105, 98, 255] as Rgba, // records without a checkpoint: quiet grey, still 3:1 on a bed
+  ring: [92, 105, 98, 204] as Rgba, // records without a checkpoint: quiet grey at 80 %, still 3.2:1 on a bed
   // A thin dark edge round every checkpoint, so the light (high-error) end of viridis stays visible on a bed.
   pointOutline: [29, 42, 36, 255] as Rgba,
   chalkLine: [217, 211, 196, 255] as Rgba,
