@@ -1,18 +1,13 @@
 import type { Config } from "tailwindcss";
+import { tailwindColours } from "./lib/a11y/palette";
 
-// Plotproof's own palette and type scale; see DEVELOPERS.md "Visual identity".
+// Plotproof's own palette (lib/a11y/palette.ts, as CSS variables so the high-contrast option can swap them) and
+// type scale; see DEVELOPERS.md "Visual identity".
 const config: Config = {
   content: ["./app/**/*.{ts,tsx}", "./lib/**/*.{ts,tsx}"],
   theme: {
     extend: {
-      colors: {
-        ink: { DEFAULT: "#1d2a24", soft: "#44524b", faint: "#7b8781" },
-        chalk: { DEFAULT: "#f6f4ee", deep: "#ebe7dc", line: "#d9d3c4" },
-        leaf: { DEFAULT: "#2f6b45", deep: "#214d31", pale: "#dcebdf" },
-        loam: { DEFAULT: "#7a4b2a", pale: "#f1e4d8" },
-        stake: { DEFAULT: "#d99a1e", pale: "#fbf0d6" },
-        alarm: { DEFAULT: "#b3362b", pale: "#f8e0dc" },
-      },
+      colors: tailwindColours(),
       fontSize: {
         xs: ["0.75rem", { lineHeight: "1.1rem" }],
         sm: ["0.875rem", { lineHeight: "1.3rem" }],

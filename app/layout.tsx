@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import localFont from "next/font/local";
+import Script from "next/script";
 import "./globals.css";
+import { HIGH_CONTRAST_BOOT } from "@/lib/a11y/palette";
 
 const inter = localFont({
   src: "../node_modules/@fontsource-variable/inter/files/inter-latin-wght-normal.woff2",
@@ -17,7 +19,13 @@ export const metadata: Metadata = {
 
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
-    <html lang="en" className={inter.variable}>
+    // The high-contrast class may be added before React hydrates (HIGH_CONTRAST_BOOT), hence the warning switched off.
+    <html lang="en" className={inter.variable} suppressHydrationWarning>
+      <head>
+        <Script id="high-contrast-boot" strategy="beforeInteractive">
+          {HIGH_CONTRAST_BOOT}
+        </Script>
+      </head>
       <body className="min-h-screen bg-chalk font-sans text-ink antialiased">{children}</body>
     </html>
   );

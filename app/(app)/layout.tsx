@@ -1,12 +1,15 @@
 import { requirePageViewer } from "@/lib/server/access";
-import { AppHeader } from "@/app/_components/app-header";
+import { AppHeader, SkipLink } from "@/app/_components/app-header";
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const viewer = await requirePageViewer();
   return (
     <>
+      <SkipLink />
       <AppHeader viewer={viewer} />
-      <main className="mx-auto max-w-6xl px-6 py-8">{children}</main>
+      <main id="main" tabIndex={-1} className="mx-auto max-w-6xl px-4 py-6 outline-none sm:px-6 sm:py-8">
+        {children}
+      </main>
     </>
   );
 }

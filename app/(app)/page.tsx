@@ -15,6 +15,7 @@ import {
   TextLink,
   formatCount,
   formatMm,
+  TableScroll,
 } from "@/app/_components/ui";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
 import { STATE_NAME } from "@/lib/review/lifecycle";
@@ -109,64 +110,66 @@ async function GrowerHome({ viewer }: { viewer: Viewer }) {
           <p className="mb-3 text-sm text-ink-soft">
             Each field shows its latest signed-off audit only; an audit not yet signed off is never used here.
           </p>
-          <table className="w-full text-left text-sm" data-testid="grower-fields">
-            <thead className="text-ink-faint">
-              <tr>
-                <th className="py-1 font-medium">Field</th>
-                <th className="font-medium">Signed-off audit</th>
-                <th className="font-medium">Records against its profile</th>
-                <th className="font-medium">Plant by plant</th>
-                <th className="font-medium">Horizontal RMSE</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-chalk-deep">
-              {fields.map((f) => (
-                <tr key={f.field.id} data-field-id={f.field.id} data-signed-audit={f.signed?.id ?? ""}>
-                  <td className="py-2">
-                    <TextLink href={`/fields/${f.field.id}/map`}>{f.field.name}</TextLink>{" "}
-                    <span className="text-ink-faint">· {f.field.farm}</span>
-                  </td>
-                  <td>
-                    {f.signed ? (
-                      <>
-                        {f.signed.title}
-                        {f.signed.passed === null ? null : f.signed.passed ? " (passed)" : " (failed)"}
-                      </>
-                    ) : (
-                      "None signed off yet"
-                    )}
-                    {f.pending ? (
-                      <span className="block text-xs text-loam" data-testid="grower-pending">
-                        A newer audit is waiting for sign-off.
-                      </span>
-                    ) : null}
-                  </td>
-                  <td data-word={f.signed?.word ?? ""}>{f.signed?.word ?? "–"}</td>
-                  <td data-testid="grower-records">
-                    {f.signed?.records ? (
-                      <>
-                        {f.signed.records.doNotRely > 0 ? (
-                          <span className="block text-alarm">
-                            {formatCount(f.signed.records.doNotRely)} not to rely on
-                            {f.signed.causes.length ? ` (${f.signed.causes.join("; ")})` : ""}
-                          </span>
-                        ) : null}
-                        <span className="block">{formatCount(f.signed.records.rely)} to rely on</span>
-                        {f.signed.records.notShown > 0 ? (
-                          <span className="block text-loam">
-                            {formatCount(f.signed.records.notShown)} not yet shown
-                          </span>
-                        ) : null}
-                      </>
-                    ) : (
-                      "–"
-                    )}
-                  </td>
-                  <td>{formatMm(f.signed?.rmseR)}</td>
+          <TableScroll label="Your fields">
+            <table className="w-full text-left text-sm" data-testid="grower-fields">
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">Field</th>
+                  <th className="font-medium">Signed-off audit</th>
+                  <th className="font-medium">Records against its profile</th>
+                  <th className="font-medium">Plant by plant</th>
+                  <th className="font-medium">Horizontal RMSE</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="divide-y divide-chalk-deep">
+                {fields.map((f) => (
+                  <tr key={f.field.id} data-field-id={f.field.id} data-signed-audit={f.signed?.id ?? ""}>
+                    <td className="py-2">
+                      <TextLink href={`/fields/${f.field.id}/map`}>{f.field.name}</TextLink>{" "}
+                      <span className="text-ink-faint">· {f.field.farm}</span>
+                    </td>
+                    <td>
+                      {f.signed ? (
+                        <>
+                          {f.signed.title}
+                          {f.signed.passed === null ? null : f.signed.passed ? " (passed)" : " (failed)"}
+                        </>
+                      ) : (
+                        "None signed off yet"
+                      )}
+                      {f.pending ? (
+                        <span className="block text-xs text-loam" data-testid="grower-pending">
+                          A newer audit is waiting for sign-off.
+                        </span>
+                      ) : null}
+                    </td>
+                    <td data-word={f.signed?.word ?? ""}>{f.signed?.word ?? "–"}</td>
+                    <td data-testid="grower-records">
+                      {f.signed?.records ? (
+                        <>
+                          {f.signed.records.doNotRely > 0 ? (
+                            <span className="block text-alarm">
+                              {formatCount(f.signed.records.doNotRely)} not to rely on
+                              {f.signed.causes.length ? ` (${f.signed.causes.join("; ")})` : ""}
+                            </span>
+                          ) : null}
+                          <span className="block">{formatCount(f.signed.records.rely)} to rely on</span>
+                          {f.signed.records.notShown > 0 ? (
+                            <span className="block text-loam">
+                              {formatCount(f.signed.records.notShown)} not yet shown
+                            </span>
+                          ) : null}
+                        </>
+                      ) : (
+                        "–"
+                      )}
+                    </td>
+                    <td>{formatMm(f.signed?.rmseR)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         </>
       )}
     </Panel>

@@ -30,7 +30,7 @@ export function TextField({
         defaultValue={defaultValue}
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? errId : undefined}
-        className={`w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${error ? "border-alarm" : "border-chalk-line"}`}
+        className={`w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${error ? "border-alarm" : "border-ink-faint"}`}
       />
       {hint && !error ? <p className="mt-1 text-xs text-ink-faint">{hint}</p> : null}
       {error ? (
@@ -56,7 +56,7 @@ export function SubmitButton({ children, pending }: { children: React.ReactNode;
     <button
       type="submit"
       disabled={pending}
-      className="w-full rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep disabled:opacity-60"
+      className="min-h-11 w-full rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep disabled:opacity-60"
     >
       {pending ? "Working…" : children}
     </button>

@@ -7,7 +7,7 @@ export function SignOutButton() {
   return (
     <button
       type="button"
-      className="text-sm text-ink-soft hover:text-ink"
+      className="inline-flex min-h-11 items-center rounded-plot px-2 text-sm text-ink-soft underline-offset-2 hover:text-ink hover:underline"
       onClick={async () => {
         await authClient.signOut();
         router.replace("/login");

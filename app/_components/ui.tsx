@@ -104,3 +104,16 @@ export function RevisionTag({ revision }: { revision: number }) {
     </span>
   ) : null;
 }
+
+/**
+ * A wide table scrolls inside its own box on a narrow screen instead of widening the page. The box takes keyboard
+ * focus (arrow keys scroll it) and is named for screen readers.
+ */
+export function TableScroll({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard (WCAG 2.1.1)
+    <div className="relative max-w-full overflow-x-auto" role="region" aria-label={label} tabIndex={0}>
+      {children}
+    </div>
+  );
+}

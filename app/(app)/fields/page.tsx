@@ -3,7 +3,7 @@ import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { listFields } from "@/db/queries/fields";
 import Link from "next/link";
-import { Empty, PageTitle, Panel, TextLink, formatMm } from "@/app/_components/ui";
+import { Empty, PageTitle, Panel, TextLink, formatMm, TableScroll } from "@/app/_components/ui";
 import { can } from "@/lib/roles";
 
 export const metadata: Metadata = { title: "Fields" };
@@ -30,30 +30,32 @@ export default async function FieldsPage() {
         {fields.length === 0 ? (
           <Empty>No fields yet.</Empty>
         ) : (
-          <table className="w-full text-left text-sm" data-testid="field-list">
-            <thead className="text-ink-faint">
-              <tr>
-                <th className="py-1 font-medium">Field</th>
-                <th className="font-medium">Farm</th>
-                <th className="font-medium">CRS</th>
-                <th className="font-medium">Files</th>
-                <th className="font-medium">Latest horizontal RMSE</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-chalk-deep">
-              {fields.map((f) => (
-                <tr key={f.id}>
-                  <td className="py-2">
-                    <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>
-                  </td>
-                  <td>{f.farm}</td>
-                  <td className="font-mono text-xs">{f.crs}</td>
-                  <td>{f.datasetCount}</td>
-                  <td>{formatMm(f.latestAudit?.rmseR)}</td>
+          <TableScroll label="Fields">
+            <table className="w-full text-left text-sm" data-testid="field-list">
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">Field</th>
+                  <th className="font-medium">Farm</th>
+                  <th className="font-medium">CRS</th>
+                  <th className="font-medium">Files</th>
+                  <th className="font-medium">Latest horizontal RMSE</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="divide-y divide-chalk-deep">
+                {fields.map((f) => (
+                  <tr key={f.id}>
+                    <td className="py-2">
+                      <TextLink href={`/fields/${f.id}`}>{f.name}</TextLink>
+                    </td>
+                    <td>{f.farm}</td>
+                    <td className="font-mono text-xs">{f.crs}</td>
+                    <td>{f.datasetCount}</td>
+                    <td>{formatMm(f.latestAudit?.rmseR)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         )}
       </Panel>
     </>

@@ -157,7 +157,13 @@ export function ProfilesManager({ canEdit }: { canEdit: boolean }) {
         ) : profiles.length === 0 && !error ? (
           <Empty>No profiles yet.</Empty>
         ) : (
-          <div className="overflow-x-auto">
+          <div
+            className="relative overflow-x-auto"
+            role="region"
+            aria-label="Tolerance profiles"
+            // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard
+            tabIndex={0}
+          >
             <table className="w-full text-left text-sm tabular-nums" data-testid="profiles-table">
               <caption className="sr-only">Tolerance profiles: limits in millimetres</caption>
               <thead className="text-xs text-ink-faint">

@@ -7,7 +7,7 @@ import { z } from "zod";
 import { type ApiError, fetcher, sendJson } from "@/lib/fetcher";
 import { ROLES, ROLE_DUTY, ROLE_LABEL, type Role } from "@/lib/roles";
 import type { InvitationDto } from "@/lib/review/types";
-import { Empty, Panel } from "@/app/_components/ui";
+import { Empty, Panel, TableScroll } from "@/app/_components/ui";
 import { LocalTime } from "@/app/_components/local-time";
 import { FormError } from "@/app/_components/form";
 import { FieldRow, buttonClass, inputClass } from "@/app/_components/field-form/controls";
@@ -111,76 +111,78 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
         {!data ? (
           <p className="text-sm text-ink-faint">Loading…</p>
         ) : (
-          <table className="w-full text-left text-sm" data-testid="team-table">
-            <thead className="text-ink-faint">
-              <tr>
-                <th className="py-1 font-medium">Name</th>
-                <th className="font-medium">E-mail</th>
-                <th className="font-medium">Role</th>
-                <th className="font-medium">Since</th>
-                <th />
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-chalk-deep">
-              {data.members.map((m) => (
-                <tr key={m.memberId} data-email={m.email}>
-                  <td className="py-2">
-                    {m.name}
-                    {m.email === viewerEmail ? <span className="text-ink-faint"> (you)</span> : null}
-                  </td>
-                  <td>{m.email}</td>
-                  <td>
-                    <label className="sr-only" htmlFor={`role-${m.memberId}`}>
-                      Role of {m.name}
-                    </label>
-                    <select
-                      id={`role-${m.memberId}`}
-                      value={m.role}
-                      disabled={busy !== null}
-                      className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm"
-                      onChange={(e) => {
-                        const role = e.target.value as Role;
-                        void act(`role-${m.memberId}`, async () => {
-                          await sendJson(`/api/team/members/${m.memberId}`, "PATCH", { role });
-                          return `${m.name} is now ${ROLE_LABEL[role]}.`;
-                        });
-                      }}
-                    >
-                      {ROLES.map((r) => (
-                        <option key={r} value={r}>
-                          {ROLE_LABEL[r]}
-                        </option>
-                      ))}
-                    </select>
-                  </td>
-                  <td className="text-ink-soft">
-                    <LocalTime iso={m.joinedAt} />
-                  </td>
-                  <td className="text-right">
-                    <button
-                      type="button"
-                      className="text-sm font-medium text-alarm hover:underline disabled:opacity-50"
-                      disabled={busy !== null}
-                      onClick={() => {
-                        if (
-                          !window.confirm(
-                            `Remove ${m.name} from the organisation? Their account stays, and their past work keeps their name.`,
-                          )
-                        )
-                          return;
-                        void act(`remove-${m.memberId}`, async () => {
-                          await sendJson(`/api/team/members/${m.memberId}`, "DELETE");
-                          return `${m.name} was removed.`;
-                        });
-                      }}
-                    >
-                      Remove
-                    </button>
-                  </td>
+          <TableScroll label="Team members">
+            <table className="w-full text-left text-sm" data-testid="team-table">
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">Name</th>
+                  <th className="font-medium">E-mail</th>
+                  <th className="font-medium">Role</th>
+                  <th className="font-medium">Since</th>
+                  <th>
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="divide-y divide-chalk-deep">
+                {data.members.map((m) => (
+                  <tr key={m.memberId} data-email={m.email}>
+                    <td className="py-2">
+                      {m.name}
+                      {m.email === viewerEmail ? <span className="text-ink-faint"> (you)</span> : null}
+                    </td>
+                    <td>{m.email}</td>
+                    <td>
+                      <label className="sr-only" htmlFor={`role-${m.memberId}`}>
+                        Role of {m.name}
+                      </label>
+                      <select
+                        id={`role-${m.memberId}`}
+                        value={m.role}
+                        disabled={busy !== null}
+                        className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm"
+                        onChange={(e) => {
+                          const role = e.target.value as Role;
+                          void act(`role-${m.memberId}`, async () => {
+                            await sendJson(`/api/team/members/${m.memberId}`, "PATCH", { role });
+                            return `${m.name} is now ${ROLE_LABEL[role]}.`;
+                          });
+                        }}
+                      >
+                        {ROLES.map((r) => (
+                          <option key={r} value={r}>
+                            {ROLE_LABEL[r]}
+                          </option>
+                        ))}
+                      </select>
+                    </td>
+                    <td className="text-ink-soft"><LocalTime iso={m.joinedAt} /></td>
+                    <td className="text-right">
+                      <button
+                        type="button"
+                        className="text-sm font-medium text-alarm hover:underline disabled:opacity-50"
+                        disabled={busy !== null}
+                        onClick={() => {
+                          if (
+                            !window.confirm(
+                              `Remove ${m.name} from the organisation? Their account stays, and their past work keeps their name.`,
+                            )
+                          )
+                            return;
+                          void act(`remove-${m.memberId}`, async () => {
+                            await sendJson(`/api/team/members/${m.memberId}`, "DELETE");
+                            return `${m.name} was removed.`;
+                          });
+                        }}
+                      >
+                        Remove
+                      </button>
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         )}
         <ul className="mt-4 grid gap-1 text-xs text-ink-soft sm:grid-cols-2">
           {ROLES.map((r) => (
@@ -230,73 +232,75 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
         {!data ? null : pending.length === 0 && past.length === 0 ? (
           <Empty>No invitations yet.</Empty>
         ) : (
-          <table className="w-full text-left text-sm" data-testid="invitations-table">
-            <thead className="text-ink-faint">
-              <tr>
-                <th className="py-1 font-medium">E-mail</th>
-                <th className="font-medium">Role</th>
-                <th className="font-medium">Status</th>
-                <th className="font-medium">Expires</th>
-                <th />
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-chalk-deep">
-              {[...pending, ...past].map((i) => (
-                <tr key={i.id} data-email={i.email} data-status={i.status}>
-                  <td className="py-2">{i.email}</td>
-                  <td>{ROLE_LABEL[i.role]}</td>
-                  <td className={i.status === "expired" ? "text-alarm" : ""}>{STATUS_WORD[i.status]}</td>
-                  <td className="text-ink-soft">
-                    <LocalTime iso={i.expiresAt} />
-                  </td>
-                  <td className="space-x-3 text-right">
-                    {i.status === "pending" ? (
-                      <button
-                        type="button"
-                        className={buttonClass.quiet}
-                        onClick={() => {
-                          void navigator.clipboard?.writeText(i.link);
-                          setNotice({ tone: "ok", text: `Link copied: ${i.link}` });
-                        }}
-                      >
-                        Copy link
-                      </button>
-                    ) : null}
-                    {i.status === "pending" || i.status === "expired" ? (
-                      <>
+          <TableScroll label="Invitations">
+            <table className="w-full text-left text-sm" data-testid="invitations-table">
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">E-mail</th>
+                  <th className="font-medium">Role</th>
+                  <th className="font-medium">Status</th>
+                  <th className="font-medium">Expires</th>
+                  <th>
+                    <span className="sr-only">Actions</span>
+                  </th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-chalk-deep">
+                {[...pending, ...past].map((i) => (
+                  <tr key={i.id} data-email={i.email} data-status={i.status}>
+                    <td className="py-2">{i.email}</td>
+                    <td>{ROLE_LABEL[i.role]}</td>
+                    <td className={i.status === "expired" ? "text-alarm" : ""}>{STATUS_WORD[i.status]}</td>
+                    <td className="text-ink-soft"><LocalTime iso={i.expiresAt} /></td>
+                    <td className="space-x-3 text-right">
+                      {i.status === "pending" ? (
                         <button
                           type="button"
                           className={buttonClass.quiet}
-                          disabled={busy !== null}
-                          onClick={() =>
-                            void act(`resend-${i.id}`, async () => {
-                              await sendJson(`/api/team/invitations/${i.id}/resend`, "POST");
-                              return `Invitation sent to ${i.email} again.`;
-                            })
-                          }
+                          onClick={() => {
+                            void navigator.clipboard?.writeText(i.link);
+                            setNotice({ tone: "ok", text: `Link copied: ${i.link}` });
+                          }}
                         >
-                          Send again
+                          Copy link
                         </button>
-                        <button
-                          type="button"
-                          className="text-sm font-medium text-alarm hover:underline disabled:opacity-50"
-                          disabled={busy !== null}
-                          onClick={() =>
-                            void act(`cancel-${i.id}`, async () => {
-                              await sendJson(`/api/team/invitations/${i.id}`, "DELETE");
-                              return `The invitation to ${i.email} was withdrawn.`;
-                            })
-                          }
-                        >
-                          Withdraw
-                        </button>
-                      </>
-                    ) : null}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+                      ) : null}
+                      {i.status === "pending" || i.status === "expired" ? (
+                        <>
+                          <button
+                            type="button"
+                            className={buttonClass.quiet}
+                            disabled={busy !== null}
+                            onClick={() =>
+                              void act(`resend-${i.id}`, async () => {
+                                await sendJson(`/api/team/invitations/${i.id}/resend`, "POST");
+                                return `Invitation sent to ${i.email} again.`;
+                              })
+                            }
+                          >
+                            Send again
+                          </button>
+                          <button
+                            type="button"
+                            className="text-sm font-medium text-alarm hover:underline disabled:opacity-50"
+                            disabled={busy !== null}
+                            onClick={() =>
+                              void act(`cancel-${i.id}`, async () => {
+                                await sendJson(`/api/team/invitations/${i.id}`, "DELETE");
+                                return `The invitation to ${i.email} was withdrawn.`;
+                              })
+                            }
+                          >
+                            Withdraw
+                          </button>
+                        </>
+                      ) : null}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         )}
       </Panel>
     </div>

@@ -67,8 +67,9 @@ export function AuditResult({
   const audit = data.audit;
   const done = audit.state !== "computing" && audit.state !== "failed" && audit.summary !== null;
   return (
+    // On a phone the verdict comes straight after the title (order); the inputs and links follow it.
     <div className="grid gap-6" data-testid="audit-result" data-state={audit.state}>
-      <header>
+      <header className="-order-2 sm:order-none">
         <p className="text-sm text-ink-soft">
           <Link href={`/fields/${audit.field.id}`} className="font-medium text-leaf underline-offset-2 hover:underline">
             {audit.field.name}
@@ -92,6 +93,8 @@ export function AuditResult({
             </>
           ) : null}
         </p>
+      </header>
+      <div className="sm:-mt-3">
         <AuditInputs audit={audit} />
         <div className="mt-3 flex flex-wrap items-center gap-3">
           {done ? <DownloadLinks auditId={audit.id} /> : null}
@@ -123,7 +126,7 @@ export function AuditResult({
             </Link>
           ) : null}
         </div>
-      </header>
+      </div>
 
       {done ? <ReviewBar auditId={audit.id} timeZone={audit.field.timeZone} /> : null}
       {audit.state === "computing" ? <AuditProgress audit={audit} /> : null}
@@ -149,7 +152,9 @@ export function AuditResult({
 
       {done ? (
         <>
-          <VerdictPanel audit={audit} />
+          <div className="-order-1 sm:order-none">
+            <VerdictPanel audit={audit} />
+          </div>
           <ScopeCaution />
           <HeadlineFigures summary={audit.summary!} />
           <AccuracyStatementBlock
@@ -184,7 +189,7 @@ function AuditInputs({ audit }: { audit: AuditDto }) {
     ? { auto: "by plant id, else by position", id: "by plant id only", nearest: "by position only" }[st.match]
     : null;
   return (
-    <dl className="mt-3 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-[9rem_1fr]" data-testid="audit-inputs">
+    <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-[9rem_1fr]" data-testid="audit-inputs">
       <dt className="text-ink-faint">As-planted file</dt>
       <dd>
         {audit.planted ? (

@@ -54,7 +54,7 @@ export function DownloadLinks({ auditId }: { auditId: string }) {
         <label className="text-sm">
           Errors in{" "}
           <select
-            className="rounded-plot border border-chalk-line bg-white px-1 py-0.5"
+            className="min-h-9 rounded-plot border border-ink-faint bg-white px-1 py-0.5"
             value={units}
             onChange={(e) => setUnits(e.target.value as SheetUnits)}
           >
@@ -65,7 +65,7 @@ export function DownloadLinks({ auditId }: { auditId: string }) {
         <label className="text-sm">
           Spreadsheet style{" "}
           <select
-            className="rounded-plot border border-chalk-line bg-white px-1 py-0.5"
+            className="min-h-9 rounded-plot border border-ink-faint bg-white px-1 py-0.5"
             value={sep}
             onChange={(e) => setSep(e.target.value as SheetSeparator)}
           >

@@ -35,7 +35,7 @@ export function FieldShell({
 }
 
 const control = (error?: string) =>
-  `w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${error ? "border-alarm" : "border-chalk-line"}`;
+  `w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${error ? "border-alarm" : "border-ink-faint"}`;
 
 function described(id: string, hint?: React.ReactNode, error?: string) {
   return error ? `${id}-error` : hint ? `${id}-hint` : undefined;

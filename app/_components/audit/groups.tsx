@@ -77,7 +77,14 @@ export function BreakdownTables({ audit }: { audit: AuditDto }) {
           const rows = summary.groups[name]!;
           const meta = GROUP_TITLE[name] ?? { title: `By ${name}`, key: name };
           return (
-            <div key={name} className="overflow-x-auto rounded-plot border border-chalk-line bg-white p-4">
+            <div
+              key={name}
+              className="relative overflow-x-auto rounded-plot border border-chalk-line bg-white p-4"
+              role="region"
+              aria-label={meta.title}
+              // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard
+              tabIndex={0}
+            >
               <table className="w-full text-left text-sm tabular-nums" data-testid={`group-${name}`}>
                 <caption className="mb-2 text-left font-semibold">{meta.title}</caption>
                 <thead className="text-xs text-ink-faint">

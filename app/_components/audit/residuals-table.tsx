@@ -280,7 +280,13 @@ export function ResidualsTable({ audit }: { audit: AuditDto }) {
         {isValidating && !isLoading ? <span className="text-ink-faint"> · updating</span> : null}
       </p>
 
-      <div className="overflow-x-auto rounded-plot border border-chalk-line bg-white">
+      <div
+        className="relative overflow-x-auto rounded-plot border border-chalk-line bg-white"
+        role="region"
+        aria-label="Per-plant errors"
+        // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard
+        tabIndex={0}
+      >
         <table className="w-full text-left text-sm tabular-nums" data-testid="residuals-table" aria-busy={isValidating}>
           <caption className="sr-only">Per-plant errors, survey minus as-planted, in millimetres</caption>
           <thead className="bg-chalk text-xs text-ink-soft">

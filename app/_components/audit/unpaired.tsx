@@ -101,7 +101,13 @@ function UnpairedList({
         <p className="text-sm text-ink-faint">None.</p>
       ) : (
         <>
-          <div className="overflow-x-auto">
+          <div
+            className="relative overflow-x-auto"
+            role="region"
+            aria-label="Unpaired points"
+            // biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard
+            tabIndex={0}
+          >
             <table className="w-full text-left text-sm tabular-nums">
               <caption className="sr-only">
                 {title}: {total} points

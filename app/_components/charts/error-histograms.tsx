@@ -7,7 +7,7 @@ import { CHART, ChartFigure } from "./frame";
 const TARGET_BINS = 24;
 
 function limitLabel(value: string, position: "insideTopRight" | "insideBottomRight" = "insideTopRight") {
-  return { value, position, fontSize: 11, fill: CHART.alarm };
+  return { value, position, fontSize: 12, fill: CHART.alarm };
 }
 
 function LimitSwatch({ colour = CHART.alarm, dash = "5 3" }: { colour?: string; dash?: string }) {
@@ -73,13 +73,13 @@ export function RadialHistogram({
           dataKey="mid"
           domain={[0, max]}
           ticks={niceTicks(0, max)}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           height={40}
           label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
         />
         <YAxis
           allowDecimals={false}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           width={44}
           label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
         />
@@ -152,7 +152,7 @@ export function RadialCumulative({
           domain={[0, max]}
           ticks={niceTicks(0, max)}
           allowDataOverflow
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           height={40}
           label={{ value: "radial error (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
         />
@@ -160,7 +160,7 @@ export function RadialCumulative({
           type="number"
           domain={[0, 100]}
           ticks={[0, 25, 50, 75, 100]}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           width={44}
           label={{ value: "plants within (%)", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
         />
@@ -238,7 +238,7 @@ export function CrossHistogram({
           dataKey="mid"
           domain={[-half, half]}
           ticks={niceTicks(-half, half)}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           height={40}
           label={{
             value: "cross-row error (mm, + = right of row direction)",
@@ -249,7 +249,7 @@ export function CrossHistogram({
         />
         <YAxis
           allowDecimals={false}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
           width={44}
           label={{ value: "plants", angle: -90, position: "insideLeft", offset: 10, fontSize: 12 }}
         />

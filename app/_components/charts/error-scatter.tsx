@@ -127,7 +127,7 @@ export function ErrorScatter({
             allowDataOverflow
             height={axis}
             label={{ value: "dE, east (mm)", position: "insideBottom", offset: 0, fontSize: 12 }}
-            tick={{ fontSize: 11 }}
+            tick={{ fontSize: 12 }}
           />
           <YAxis
             type="number"
@@ -138,7 +138,7 @@ export function ErrorScatter({
             allowDataOverflow
             width={axis}
             label={{ value: "dN, north (mm)", angle: -90, position: "insideLeft", offset: 4, fontSize: 12 }}
-            tick={{ fontSize: 11 }}
+            tick={{ fontSize: 12 }}
           />
           <ReferenceLine x={0} stroke={CHART.axis} />
           <ReferenceLine y={0} stroke={CHART.axis} />
@@ -200,7 +200,7 @@ function RingLayer({ rings }: { rings: Ring[] }) {
               x={lx + (Math.cos(a) >= 0 ? 3 : -3)}
               y={ly + (Math.sin(a) >= 0 ? -3 : 11)}
               textAnchor={Math.cos(a) >= 0 ? "start" : "end"}
-              fontSize={11}
+              fontSize={12}
               fill={r.colour}
               paintOrder="stroke"
               stroke="#fff"

@@ -1,13 +1,15 @@
 /** Small building blocks for forms driven by react-hook-form: a label, the control, a hint and an error, tied together. */
 
 export const inputClass = (invalid: boolean) =>
-  `w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${invalid ? "border-alarm" : "border-chalk-line"}`;
+  `w-full rounded-plot border bg-white px-3 py-2 text-base outline-none focus:border-leaf ${invalid ? "border-alarm" : "border-ink-faint"}`;
 
 export const buttonClass = {
-  primary: "rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep disabled:opacity-60",
+  primary:
+    "inline-flex min-h-11 items-center justify-center rounded-plot bg-leaf px-4 py-2 font-medium text-white hover:bg-leaf-deep disabled:opacity-60",
   secondary:
-    "rounded-plot border border-chalk-line bg-white px-3 py-1.5 text-sm font-medium text-ink hover:border-leaf hover:text-leaf disabled:opacity-50 disabled:hover:border-chalk-line disabled:hover:text-ink",
-  quiet: "text-sm font-medium text-leaf underline-offset-2 hover:underline disabled:opacity-50",
+    "inline-flex min-h-11 items-center justify-center rounded-plot border border-ink-faint bg-white px-3 py-1.5 text-sm font-medium text-ink hover:border-leaf hover:text-leaf disabled:opacity-50 disabled:hover:border-ink-faint disabled:hover:text-ink",
+  quiet:
+    "inline-flex min-h-6 items-center text-sm font-medium text-leaf underline-offset-2 hover:underline disabled:opacity-50",
 };
 
 /** Ids of a control's hint and error, for aria-describedby. */

@@ -169,6 +169,10 @@ export function DeckView({
           pickable: true,
           radiusUnits: "pixels",
           getRadius: SIZES.pairRadius,
+          stroked: true,
+          lineWidthUnits: "pixels",
+          getLineWidth: SIZES.pointOutline,
+          getLineColor: COLOURS.pointOutline,
         }),
       );
     }

@@ -5,6 +5,7 @@ import { type ApiError, fetcher, toApiError } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { AuditDto } from "@/lib/api-types";
 import { AuditProgress } from "@/app/_components/audit/progress";
+import { FilterDrawer } from "./filter-drawer";
 import { decodeMapPayload } from "@/lib/map/binary";
 import { mapKeys } from "@/lib/map/keys";
 import { aggregateCells, type Cell } from "@/lib/map/cells";
@@ -121,12 +122,25 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   const { meta, arrays } = data;
   const [settings, setSettings] = useState<MapSettings>(() => initialSettings(mode, arrays.pairFlags.length));
   const [hover, setHover] = useState<{ target: MapTarget; x: number; y: number } | null>(null);
-  const [selected, setSelected] = useState<MapTarget | null>(null);
+  const [selected, setSelectedState] = useState<MapTarget | null>(null);
   const [size, setSize] = useState<{ width: number; height: number } | null>(null);
   const [viewState, setViewState] = useState<MapViewState | null>(null);
   const rootRef = useRef<HTMLDivElement>(null);
   const frameRef = useRef<HTMLDivElement>(null);
   const draws = useRef(0);
+  // The control that opened the details panel (a button, the canvas) gets focus back when it closes (WCAG 2.4.3).
+  const opener = useRef<HTMLElement | null>(null);
+  const setSelected = (t: MapTarget | null) => {
+    if (t) {
+      const active = document.activeElement as HTMLElement | null;
+      if (active && active !== document.body && !active.closest('[data-testid="map-details"]')) opener.current = active;
+      setSelectedState(t);
+      return;
+    }
+    setSelectedState(null);
+    const back = opener.current?.isConnected ? opener.current : frameRef.current?.querySelector("canvas");
+    requestAnimationFrame(() => back?.focus());
+  };
   const hasAlong = useMemo(() => arrays.pairAlong.some(Number.isFinite), [arrays]);
   const hasVerdict = useMemo(() => arrays.pairFlags.some((f) => (f & PAIR_FLAG.WITHIN_KNOWN) !== 0), [arrays]);
 
@@ -176,7 +190,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   const recordMarks = useRecordMarks(mode === "grower" ? auditId : null, meta);
   // A plant's or a cell's details belong to the layer they were picked on: switching layers closes the panel.
   // biome-ignore lint/correctness/useExhaustiveDependencies: runs on a layer change only
-  useEffect(() => setSelected(null), [settings.layer]);
+  useEffect(() => setSelectedState(null), [settings.layer]);
 
   const cells = useMemo<Cell[] | null>(() => {
     if (settings.layer !== "cells") return null;
@@ -356,11 +370,13 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
       data-draws="0"
     >
       <div className="grid gap-4 lg:grid-cols-[15rem_1fr]">
-        <MapControls mode={mode} meta={meta} settings={settings} onChange={setSettings} hasAlong={hasAlong} />
-        <div className="grid gap-2">
+        <FilterDrawer>
+          <MapControls mode={mode} meta={meta} settings={settings} onChange={setSettings} hasAlong={hasAlong} />
+        </FilterDrawer>
+        <div className="order-1 grid gap-2 lg:order-none">
           <div
             ref={frameRef}
-            className="relative h-[62vh] min-h-[420px] overflow-hidden rounded-plot border border-chalk-line bg-chalk-deep"
+            className="relative h-[62vh] min-h-[320px] overflow-hidden sm:min-h-[420px] rounded-plot border border-chalk-line bg-chalk-deep"
             data-testid="map-frame"
           >
             {viewState ? (
@@ -377,11 +393,15 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
             <div className="pointer-events-none absolute left-2 top-2">
               <NorthArrow crs={meta.crs} convergenceDeg={meta.gridConvergenceDeg} />
             </div>
-            <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
+            <div
+              className="absolute bottom-2 left-2 flex gap-1 sm:bottom-auto sm:left-auto sm:right-2 sm:top-2"
+              role="group"
+              aria-label="View"
+            >
               <button
                 type="button"
                 onClick={fitToField}
-                className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm hover:bg-chalk"
+                className="min-h-11 rounded-plot border border-ink-faint bg-white px-3 py-1 text-sm hover:bg-chalk"
                 data-testid="map-fit"
               >
                 Fit to field
@@ -390,7 +410,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                 type="button"
                 onClick={() => zoomBy(1)}
                 aria-label="Zoom in"
-                className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk"
+                className="min-h-11 min-w-11 rounded-plot border border-ink-faint bg-white py-1 text-base hover:bg-chalk"
               >
                 +
               </button>
@@ -398,7 +418,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                 type="button"
                 onClick={() => zoomBy(-1)}
                 aria-label="Zoom out"
-                className="w-8 rounded-plot border border-chalk-line bg-white py-1 text-sm hover:bg-chalk"
+                className="min-h-11 min-w-11 rounded-plot border border-ink-faint bg-white py-1 text-base hover:bg-chalk"
               >
                 −
               </button>
@@ -464,7 +484,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                 .
               </p>
             ) : null}
-            <p className="max-w-sm text-[11px] text-ink-soft" data-testid="layout-note">
+            <p className="max-w-sm text-xs text-ink-soft" data-testid="layout-note">
               {layout.note}
               {meta.boundary.source === "records"
                 ? " The outline is the hull of the records: the field has no boundary set."
@@ -506,7 +526,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                   type="button"
                   disabled={!worstFirst.length}
                   onClick={() => step(-1)}
-                  className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint"
+                  className="min-h-11 rounded-plot border border-ink-faint bg-white px-3 py-1 text-sm disabled:text-ink-faint"
                 >
                   ◀ Previous
                 </button>
@@ -514,7 +534,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                   type="button"
                   disabled={!worstFirst.length}
                   onClick={() => step(1)}
-                  className="rounded-plot border border-chalk-line bg-white px-2 py-1 text-sm disabled:text-ink-faint"
+                  className="min-h-11 rounded-plot border border-ink-faint bg-white px-3 py-1 text-sm disabled:text-ink-faint"
                   data-testid="next-out"
                 >
                   Next out of tolerance ▶

@@ -11,7 +11,7 @@ import {
   type MapSettings,
 } from "./map-state";
 
-const selectCls = "w-full rounded-plot border border-chalk-line bg-white px-2 py-1.5 text-sm";
+const selectCls = "w-full min-h-11 rounded-plot border border-ink-faint bg-white px-2 py-1.5 text-sm lg:min-h-9";
 const labelCls = "mb-1 block text-xs font-medium text-ink-soft";
 
 function Toggle({
@@ -31,7 +31,7 @@ function Toggle({
       aria-pressed={pressed}
       onClick={onClick}
       data-testid={testId}
-      className={`flex-1 rounded-plot border px-2 py-1.5 text-sm font-medium ${pressed ? "border-leaf bg-leaf text-white" : "border-chalk-line bg-white text-ink hover:bg-chalk"}`}
+      className={`min-h-11 flex-1 rounded-plot border px-2 py-1.5 text-sm font-medium lg:min-h-9 ${pressed ? "border-leaf bg-leaf text-white" : "border-chalk-line bg-white text-ink hover:bg-chalk"}`}
     >
       {children}
     </button>
@@ -52,14 +52,17 @@ function Check({
   disabled?: boolean;
 }) {
   return (
-    <label htmlFor={id} className={`flex items-center gap-2 text-sm ${disabled ? "text-ink-faint" : ""}`}>
+    <label
+      htmlFor={id}
+      className={`flex min-h-11 items-center gap-2 text-sm lg:min-h-8 ${disabled ? "text-ink-faint" : ""}`}
+    >
       <input
         id={id}
         type="checkbox"
         checked={checked}
         disabled={disabled}
         onChange={(e) => onChange(e.target.checked)}
-        className="h-4 w-4 accent-leaf"
+        className="h-5 w-5 accent-leaf"
       />
       {children}
     </label>
@@ -231,7 +234,7 @@ export function MapControls({
           type="button"
           disabled={!anyFilter}
           onClick={() => onChange({ ...settings, filter: { codes: {}, onlyOut: false } })}
-          className="rounded-plot border border-chalk-line bg-white px-2 py-1.5 text-sm disabled:text-ink-faint"
+          className="min-h-11 rounded-plot border border-ink-faint bg-white px-2 py-1.5 text-sm disabled:text-ink-faint lg:min-h-9"
         >
           Clear filters
         </button>

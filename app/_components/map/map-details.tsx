@@ -32,7 +32,7 @@ export function tooltipText(data: MapData, target: MapTarget, metricValue: (seq:
     const kind = UNPAIRED_KINDS[a.unpairedKind[i]];
     const bed = codeText(dict.bed, a.unpairedCodes.bed, i),
       row = codeText(dict.row, a.unpairedCodes.row, i);
-    return `${KIND_WORDS[kind]}${bed ? ` · bed ${bed}` : ""}${row ? ` row ${row}` : ""} · click for details`;
+    return `${KIND_WORDS[kind]}${bed ? ` · bed ${bed}` : ""}${row ? ` row ${row}` : ""} · tap or click for details`;
   }
   const i = target.seq;
   const id = a.pairIds[i] || "plant without id";
@@ -174,7 +174,7 @@ export function DetailsPanel({
   const title = target.kind === "pair" ? "Checkpoint" : target.kind === "unpaired" ? "Unpaired point" : "Cell";
   return (
     <aside
-      className="absolute bottom-2 right-2 top-12 z-10 w-80 overflow-y-auto rounded-plot border border-chalk-line bg-white p-4 shadow-sm"
+      className="absolute bottom-2 right-2 top-14 z-10 w-[min(20rem,calc(100%-1rem))] overflow-y-auto rounded-plot border border-chalk-line bg-white p-4 shadow-sm"
       aria-label={`${title} details`}
       data-testid="map-details"
       onKeyDown={(e) => {
@@ -188,7 +188,7 @@ export function DetailsPanel({
         <button
           type="button"
           onClick={onClose}
-          className="rounded-plot border border-chalk-line px-2 py-0.5 text-sm hover:bg-chalk"
+          className="min-h-11 rounded-plot border border-ink-faint px-3 py-1 text-sm hover:bg-chalk"
         >
           Close
         </button>

@@ -34,7 +34,7 @@ export function ColourLegend({
           <span className="absolute -top-1 h-5 w-0.5 bg-ink" style={{ left: `calc(${(limit / max) * 100}% - 1px)` }} />
         ) : null}
       </div>
-      <div className="relative mt-0.5 h-4 text-[11px] text-ink-soft" aria-hidden="true">
+      <div className="relative mt-0.5 h-4 text-xs text-ink-soft" aria-hidden="true">
         {ticks.map((t, i) => (
           <span
             key={t.value}
@@ -47,7 +47,7 @@ export function ColourLegend({
       </div>
       <p className="sr-only">{`Colour from dark purple at ${ticks[0].label} to yellow at ${ticks[ticks.length - 1].label} or more.`}</p>
       {limit !== null && limit !== undefined ? (
-        <p className="text-[11px] text-ink-soft">▮ {limitLabel ?? `limit ${format(limit)}`}</p>
+        <p className="text-xs text-ink-soft">▮ {limitLabel ?? `limit ${format(limit)}`}</p>
       ) : null}
     </figure>
   );
@@ -69,9 +69,10 @@ export function SymbolKey({
     </svg>
   );
   return (
-    <ul className="grid gap-0.5 text-[11px] text-ink-soft" data-testid="symbol-key">
+    <ul className="grid gap-0.5 text-xs text-ink-soft" data-testid="symbol-key">
       <li className="flex items-center gap-1.5">
-        {dot(SIZES.pairRadius, "rgb(33,145,140)")} checkpoint paired with its record (colour = error)
+        {dot(SIZES.pairRadius, "rgb(33,145,140)", HEX.ink, SIZES.pointOutline)} checkpoint paired with its record
+        (colour = error, dark edge)
       </li>
       <li className="flex items-center gap-1.5">
         {dot(SIZES.outRadius - 1, "rgb(253,231,37)", HEX.alarm, SIZES.outStroke)} out of tolerance (red ring, larger)
@@ -113,7 +114,7 @@ export function ScaleBar({ zoom }: { zoom: number }) {
   const bar = scaleBar(metresPerPixel(zoom), 120);
   return (
     <div
-      className="rounded-plot bg-white/90 px-2 py-1 text-[11px] text-ink"
+      className="rounded-plot bg-white/90 px-2 py-1 text-xs text-ink"
       data-testid="scale-bar"
       data-metres={bar.metres}
       role="img"
@@ -135,7 +136,7 @@ export function NorthArrow({ crs, convergenceDeg }: { crs: string; convergenceDe
         : `true north is ${Math.abs(convergenceDeg).toFixed(1)}° ${convergenceDeg > 0 ? "west" : "east"} of it here`;
   return (
     <div
-      className="flex items-center gap-1.5 rounded-plot bg-white/90 px-2 py-1 text-[11px] text-ink"
+      className="flex items-center gap-1.5 rounded-plot bg-white/90 px-2 py-1 text-xs text-ink"
       data-testid="north-arrow"
     >
       <svg width="18" height="26" viewBox="0 0 18 26" aria-hidden="true">

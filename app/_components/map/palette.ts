@@ -6,25 +6,27 @@ type Rgba = [number, number, number, number];
 export const COLOURS = {
   ink: [29, 42, 36, 255] as Rgba,
   inkSoft: [68, 82, 75, 255] as Rgba,
-  inkFaint: [123, 135, 129, 255] as Rgba,
-  ring: [123, 135, 129, 160] as Rgba, // records without a checkpoint: present but quiet
+  inkFaint: [92, 105, 98, 255] as Rgba,
+  ring: [92, 105, 98, 204] as Rgba, // records without a checkpoint: quiet grey at 80 %, still 3.2:1 on a bed
+  // A thin dark edge round every checkpoint, so the light (high-error) end of viridis stays visible on a bed.
+  pointOutline: [29, 42, 36, 255] as Rgba,
   chalkLine: [217, 211, 196, 255] as Rgba,
   field: [255, 255, 255, 255] as Rgba,
   bed: [241, 228, 216, 255] as Rgba, // loam pale
   row: [122, 75, 42, 110] as Rgba, // loam, translucent
   vector: [29, 42, 36, 200] as Rgba,
   surveyOnly: [122, 75, 42, 255] as Rgba, // loam
-  ambiguous: [217, 154, 30, 255] as Rgba, // stake
-  selected: [217, 154, 30, 255] as Rgba,
+  ambiguous: [156, 107, 12, 255] as Rgba, // stake deep: 3.7:1 on a bed, where stake itself gave 2.0:1
+  selected: [156, 107, 12, 255] as Rgba,
   out: [...OUT_OF_TOLERANCE_RGB, 255] as Rgba, // alarm
 };
 
 /** Hex forms for the HTML legend. */
 export const HEX = {
   ink: "#1d2a24",
-  inkFaint: "#7b8781",
+  inkFaint: "#5c6962",
   loam: "#7a4b2a",
-  stake: "#d99a1e",
+  stake: "#9c6b0c",
   alarm: "#b3362b",
   bed: "#f1e4d8",
 };
@@ -36,6 +38,7 @@ export const SIZES = {
   outStroke: 2.5,
   unpairedRadius: 2.5,
   icon: 15,
+  pointOutline: 1,
 };
 
 /**

@@ -162,7 +162,7 @@ export function ReviewBar({
               onChange={(e) => setNote(e.target.value)}
               maxLength={1000}
               name="note"
-              className="w-full rounded-plot border border-chalk-line px-3 py-1.5 outline-none focus:border-leaf"
+              className="w-full rounded-plot border border-ink-faint px-3 py-1.5 outline-none focus:border-leaf"
             />
           </label>
           <button type="submit" className={button} disabled={busy}>

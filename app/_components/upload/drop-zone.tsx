@@ -70,19 +70,22 @@ export function DropZone({
       />
       <label
         htmlFor={id}
-        className={`block cursor-pointer rounded-plot border-2 border-dashed px-6 py-8 text-center transition-colors peer-focus-visible:outline-2 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-stake peer-disabled:cursor-not-allowed peer-disabled:opacity-60 ${
+        className={`flex min-h-40 cursor-pointer flex-col items-center justify-center rounded-plot border-2 border-dashed px-6 py-10 text-center transition-colors peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-stake-deep peer-disabled:cursor-not-allowed peer-disabled:opacity-60 ${
           over
             ? "border-leaf bg-leaf-pale"
             : error
               ? "border-alarm bg-white"
-              : "border-chalk-line bg-white hover:border-leaf"
+              : "border-ink-faint bg-white hover:border-leaf"
         }`}
       >
-        <span className="block text-base font-medium">Choose a file or drop it here</span>
+        <svg aria-hidden="true" viewBox="0 0 24 24" className="mb-2 h-8 w-8 text-leaf">
+          <path d="M12 16V4M7 9l5-5 5 5M4 16v4h16v-4" fill="none" stroke="currentColor" strokeWidth="2" />
+        </svg>
+        <span className="block text-lg font-medium">Choose a file or drop it here</span>
         <span className="mt-1 block text-sm text-ink-soft">
           {chosen
             ? `Chosen: ${chosen.name} — choose again to replace it`
-            : "Click, or press Enter or Space, to open the file picker"}
+            : "Tap or click here, or press Enter or Space, to open the file picker"}
         </span>
       </label>
       <p id={hintId} className="mt-2 text-xs text-ink-faint">

@@ -136,7 +136,7 @@ function PreviewTable({
               return (
                 <th key={`${i}-${h}`} scope="col" className="px-2 py-1.5 align-bottom font-medium">
                   {h}
-                  <span className={`block font-sans text-[11px] ${role ? "text-leaf" : "text-ink-faint"}`}>
+                  <span className={`block font-sans text-xs ${role ? "text-leaf" : "text-ink-faint"}`}>
                     {role ? label(role) : "not read"}
                   </span>
                 </th>

@@ -13,11 +13,11 @@ export function ProgressBar({
   const pct = value === null ? null : Math.max(0, Math.min(100, Math.round(value * 100)));
   return (
     <div className="mb-3">
-      <div className="mb-1 flex justify-between text-sm">
+      <div className="mb-1 flex flex-wrap justify-between gap-x-3 text-sm sm:text-base">
         <span id={`${id}-label`} className="font-medium">
           {label}
         </span>
-        <span className="text-ink-soft" aria-hidden="true">
+        <span className="font-medium tabular-nums text-ink" aria-hidden="true">
           {pct === null ? "…" : `${pct} %`}
           {detail ? ` · ${detail}` : ""}
         </span>
@@ -30,7 +30,7 @@ export function ProgressBar({
         aria-valuenow={pct ?? undefined}
         aria-valuetext={pct === null ? `${label}: working` : `${label}: ${pct} %${detail ? `, ${detail}` : ""}`}
         data-testid={id}
-        className="h-3 overflow-hidden rounded-plot bg-chalk-deep"
+        className="h-4 overflow-hidden rounded-plot border border-ink-faint bg-chalk-deep"
       >
         <div
           className={`h-full bg-leaf transition-[width] duration-150 ${pct === null ? "w-1/3 animate-pulse" : ""}`}

@@ -138,7 +138,9 @@ export function ApiKeysPanel() {
                 <th className="font-medium">Last used</th>
                 <th className="font-medium">Expiry</th>
                 <th className="font-medium">State</th>
-                <th />
+                <th>
+                  <span className="sr-only">Actions</span>
+                </th>
               </tr>
             </thead>
             <tbody className="divide-y divide-chalk-deep">

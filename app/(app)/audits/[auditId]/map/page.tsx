@@ -37,8 +37,9 @@ export default async function AuditMapPage({ params }: { params: Promise<{ audit
         </p>
         <h1 className="text-xl font-semibold tracking-tight">Map: {audit.title}</h1>
         <p className="mt-1 text-sm text-ink-soft">
-          Each checkpoint where its record says the plant is, coloured by how far the survey found it from there. Hover
-          for a summary, click for the full record.
+          Each checkpoint where its record says the plant is, coloured by how far the survey found it from there. Tap or
+          click a plant for its full record; with a mouse, point at one for a summary. On a keyboard, “Next out of
+          tolerance” steps through the worst plants.
         </p>
       </header>
       <MapLoader auditId={audit.id} mode="audit" />

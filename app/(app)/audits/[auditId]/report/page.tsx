@@ -4,15 +4,15 @@ import { notFound } from "next/navigation";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { chartData, getAuditById } from "@/db/queries/audits";
-import { checkpointSurveyPrecision } from "@/lib/server/audits/survey-precision";
 import { getDatasetById } from "@/db/queries/datasets";
+import { checkpointSurveyPrecision } from "@/lib/server/audits/survey-precision";
 import { getSignoff, userName } from "@/db/queries/review";
 import { logActivity } from "@/db/queries/activity";
 import { ROLE_LABEL, isRole } from "@/lib/roles";
 import type { AuditSummary, DatasetDto } from "@/lib/api-types";
 import { auditTrust } from "@/lib/audit/audit-trust";
 import { Mark } from "@/app/_components/mark";
-import { FieldTime, formatMm } from "@/app/_components/ui";
+import { FieldTime, formatMm, TableScroll } from "@/app/_components/ui";
 import { idFromParams } from "@/lib/validation/ids";
 import { AccuracyStatementBlock } from "@/app/_components/audit/accuracy-statement";
 import { ErrorScatterSvg } from "./error-scatter-svg";
@@ -98,7 +98,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
 
   return (
     <article
-      className="report mx-auto max-w-[190mm] bg-white p-6 text-ink shadow-sm print:p-0 print:shadow-none"
+      className="report mx-auto max-w-[190mm] bg-white p-3 text-ink sm:p-6 shadow-sm print:p-0 print:shadow-none"
       data-testid="signoff-report"
       data-signed={!!signoff}
     >
@@ -143,42 +143,45 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
       )}
 
       <Section title="Inputs">
-        <table className="w-full text-left text-xs [&_td]:pr-3 [&_th]:pr-3">
-          <thead className="text-ink-soft">
-            <tr>
-              <th className="py-0.5 font-medium">File</th>
-              <th className="font-medium">Kind</th>
-              <th className="font-medium">Rows</th>
-              <th className="font-medium">CRS</th>
-              <th className="whitespace-nowrap font-medium">Uploaded</th>
-            </tr>
-          </thead>
-          <tbody>
-            {datasets.map((d) => (
-              <tr key={d.id} className="border-t border-chalk-deep align-top">
-                <td className="py-1">
-                  <span className="font-medium">{d.fileName}</span>
-                  <br />
-                  <span className="font-mono text-[9px] break-all" data-testid={`report-sha-${d.kind}`}>
-                    SHA-256 {d.sha256}
-                  </span>
-                </td>
-                <td>{d.kind === "planted" ? "as-planted records" : "survey"}</td>
-                <td className="tabular-nums">{d.rowCount}</td>
-                <td className="whitespace-nowrap">{d.crs}</td>
-                <td className="whitespace-nowrap">
-                  <FieldTime iso={d.uploadedAt} timeZone={audit.field.timeZone} />
-                  {d.uploadedBy ? (
-                    <>
-                      <br />
-                      {uploaders.get(d.uploadedBy)}
-                    </>
-                  ) : null}
-                </td>
+        <TableScroll label="Input files">
+          {" "}
+          <table className="w-full text-left text-xs [&_td]:pr-3 [&_th]:pr-3">
+            <thead className="text-ink-soft">
+              <tr>
+                <th className="py-0.5 font-medium">File</th>
+                <th className="font-medium">Kind</th>
+                <th className="font-medium">Rows</th>
+                <th className="font-medium">CRS</th>
+                <th className="whitespace-nowrap font-medium">Uploaded</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {datasets.map((d) => (
+                <tr key={d.id} className="border-t border-chalk-deep align-top">
+                  <td className="py-1">
+                    <span className="font-medium">{d.fileName}</span>
+                    <br />
+                    <span className="font-mono text-xs print:text-[9px] break-all" data-testid={`report-sha-${d.kind}`}>
+                      SHA-256 {d.sha256}
+                    </span>
+                  </td>
+                  <td>{d.kind === "planted" ? "as-planted records" : "survey"}</td>
+                  <td className="tabular-nums">{d.rowCount}</td>
+                  <td className="whitespace-nowrap">{d.crs}</td>
+                  <td className="whitespace-nowrap">
+                    <FieldTime iso={d.uploadedAt} timeZone={audit.field.timeZone} />
+                    {d.uploadedBy ? (
+                      <>
+                        <br />
+                        {uploaders.get(d.uploadedBy)}
+                      </>
+                    ) : null}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </TableScroll>
         {audit.settings ? (
           <p className="mt-1 text-xs text-ink-soft">
             Pairing:{" "}
@@ -227,7 +230,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
       ) : null}
 
       {s ? (
-        <div className="grid grid-cols-[1fr_auto] gap-6">
+        <div className="grid grid-cols-1 gap-6 sm:grid-cols-[1fr_auto] print:grid-cols-[1fr_auto]">
           <Section title="Headline figures">
             <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 text-xs" data-testid="report-figures">
               <dt className="text-ink-soft">Pairs</dt>
@@ -282,9 +285,13 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
 
       {groups.length ? (
         <Section title="Breakdown">
-          <div className="grid grid-cols-2 gap-x-6 gap-y-3">
+          <div className="grid grid-cols-1 gap-x-6 gap-y-3 sm:grid-cols-2 print:grid-cols-2">
             {groups.map(([name, rows]) => (
-              <table key={name} className="w-full text-left text-[10px]" data-testid={`report-group-${name}`}>
+              <table
+                key={name}
+                className="w-full text-left text-xs print:text-[10px]"
+                data-testid={`report-group-${name}`}
+              >
                 <caption className="text-left text-xs font-semibold">{GROUP_TITLE[name] ?? name}</caption>
                 <thead className="text-ink-soft">
                   <tr>
@@ -334,9 +341,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               typed name “{signoff.typedName}”
             </dd>
             <dt className="text-ink-soft">Signed at</dt>
-            <dd>
-              <FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} />
-            </dd>
+            <dd><FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} /></dd>
             <dt className="text-ink-soft">Confirmed</dt>
             <dd>
               {signoff.checklist.checkpoints.pairs} checkpoints (at least {signoff.checklist.checkpoints.required}{" "}
@@ -353,11 +358,11 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               </>
             ) : null}
             <dt className="text-ink-soft">SHA-256</dt>
-            <dd className="font-mono text-[9px] break-all" data-testid="report-hash">
+            <dd className="font-mono text-xs print:text-[9px] break-all" data-testid="report-hash">
               {signoff.sha256}
             </dd>
           </dl>
-          <p className="mt-1 text-[10px] text-ink-soft">
+          <p className="mt-1 text-xs print:text-[10px] text-ink-soft">
             The hash covers the raw files&apos; hashes, the pairing settings, the profile, the summary, the verdict, a
             digest of every per-plant residual and unpaired point, the stored CSV reports and this sign-off. Anyone in{" "}
             {viewer.orgName} can re-compute the audit from the raw files and check it on the audit&apos;s review page
@@ -379,7 +384,7 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
           licensed practice.
         </p>
       </section>
-      <p className="mt-3 text-[10px] text-ink-faint">
+      <p className="mt-3 text-xs print:text-[10px] text-ink-faint">
         Printed from Plotproof by {viewer.name} · audit {audit.id}
       </p>
     </article>

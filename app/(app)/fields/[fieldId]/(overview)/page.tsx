@@ -6,7 +6,7 @@ import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { listAudits } from "@/db/queries/audits";
 import { listDatasets } from "@/db/queries/datasets";
-import { Empty, FieldTime, PageTitle, Panel, RevisionTag, formatMm } from "@/app/_components/ui";
+import { Empty, FieldTime, PageTitle, Panel, RevisionTag, formatMm, TableScroll } from "@/app/_components/ui";
 import { STATE_NAME } from "@/lib/review/lifecycle";
 import { idFromParams } from "@/lib/validation/ids";
 import { can } from "@/lib/roles";
@@ -18,7 +18,7 @@ function ActionLink({ href, children }: { href: string; children: React.ReactNod
   return (
     <Link
       href={href}
-      className="rounded-plot border border-leaf px-3 py-1.5 text-sm font-medium text-leaf hover:bg-leaf-pale"
+      className="inline-flex min-h-11 items-center rounded-plot border border-leaf px-3 py-1.5 text-sm font-medium text-leaf no-underline hover:bg-leaf-pale"
     >
       {children}
     </Link>
@@ -73,90 +73,96 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
           {audits.length === 0 ? (
             <Empty>No audits for this field yet.</Empty>
           ) : (
-            <table className="w-full text-left text-sm" data-testid="field-audits">
-              <thead className="text-ink-faint">
-                <tr>
-                  <th className="py-1 font-medium">Audit</th>
-                  <th className="font-medium">State</th>
-                  <th className="font-medium">Verdict</th>
-                  <th className="font-medium">Horizontal RMSE</th>
-                  <th className="font-medium">Updated</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-chalk-deep">
-                {audits.map((a) => (
-                  <tr key={a.id}>
-                    <td className="py-2">
-                      <Link href={`/audits/${a.id}`} className="font-medium text-leaf hover:underline">
-                        {a.title}
-                      </Link>
-                      <RevisionTag revision={a.revision} />
-                      {a.profileName ? <span className="block text-xs text-ink-faint">{a.profileName}</span> : null}
-                    </td>
-                    <td data-testid="field-audit-state">{STATE_NAME[a.state]}</td>
-                    <td>
-                      {a.passed === null ? (
-                        "–"
-                      ) : a.passed ? (
-                        <span className="text-leaf">✓ passed</span>
-                      ) : (
-                        <span className="text-alarm">✗ failed</span>
-                      )}
-                    </td>
-                    <td>{formatMm(a.rmseR)}</td>
-                    <td className="text-ink-faint">
-                      <FieldTime iso={a.updatedAt} timeZone={field.timeZone} />
-                    </td>
+            <TableScroll label="Audits of this field">
+              <table className="w-full text-left text-sm" data-testid="field-audits">
+                <thead className="text-ink-faint">
+                  <tr>
+                    <th className="py-1 font-medium">Audit</th>
+                    <th className="font-medium">State</th>
+                    <th className="font-medium">Verdict</th>
+                    <th className="font-medium">Horizontal RMSE</th>
+                    <th className="font-medium">Updated</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody className="divide-y divide-chalk-deep">
+                  {audits.map((a) => (
+                    <tr key={a.id}>
+                      <td className="py-2">
+                        <Link href={`/audits/${a.id}`} className="font-medium text-leaf hover:underline">
+                          {a.title}
+                        </Link>
+                        <RevisionTag revision={a.revision} />
+                        {a.profileName ? <span className="block text-xs text-ink-faint">{a.profileName}</span> : null}
+                      </td>
+                      <td data-testid="field-audit-state">{STATE_NAME[a.state]}</td>
+                      <td>
+                        {a.passed === null ? (
+                          "–"
+                        ) : a.passed ? (
+                          <span className="text-leaf">✓ passed</span>
+                        ) : (
+                          <span className="text-alarm">✗ failed</span>
+                        )}
+                      </td>
+                      <td>{formatMm(a.rmseR)}</td>
+                      <td className="text-ink-faint">
+                        <FieldTime iso={a.updatedAt} timeZone={field.timeZone} />
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
           )}
         </Panel>
         <Panel title="Files">
           {datasets.length === 0 ? (
             <Empty>No files uploaded for this field yet.</Empty>
           ) : (
-            <table className="w-full text-left text-sm" data-testid="field-datasets">
-              <thead className="text-ink-faint">
-                <tr>
-                  <th className="py-1 font-medium">File</th>
-                  <th className="font-medium">Kind</th>
-                  <th className="font-medium">Rows</th>
-                  <th className="font-medium">CRS</th>
-                  <th className="font-medium">SHA-256</th>
-                  <th className="font-medium">Uploaded</th>
-                  <th />
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-chalk-deep">
-                {datasets.map((d) => (
-                  <tr key={d.id}>
-                    <td className="py-2">
-                      <a href={`/api/datasets/${d.id}/file`} className="text-leaf hover:underline">
-                        {d.fileName}
-                      </a>
-                    </td>
-                    <td>{d.kind === "planted" ? "as-planted" : "survey"}</td>
-                    <td>{d.rowCount.toLocaleString("en-GB")}</td>
-                    <td className="font-mono text-xs">{d.crs}</td>
-                    <td className="font-mono text-xs" title={d.sha256}>
-                      {d.sha256.slice(0, 12)}…
-                    </td>
-                    <td className="text-ink-faint">
-                      <FieldTime iso={d.uploadedAt} timeZone={field.timeZone} />
-                    </td>
-                    <td className="text-right">
-                      {canPrepare && !d.inUse ? (
-                        <DeleteDatasetButton id={d.id} name={d.fileName} />
-                      ) : d.inUse ? (
-                        <span className="text-xs text-ink-faint">used by an audit</span>
-                      ) : null}
-                    </td>
+            <TableScroll label="Files of this field">
+              <table className="w-full text-left text-sm" data-testid="field-datasets">
+                <thead className="text-ink-faint">
+                  <tr>
+                    <th className="py-1 font-medium">File</th>
+                    <th className="font-medium">Kind</th>
+                    <th className="font-medium">Rows</th>
+                    <th className="font-medium">CRS</th>
+                    <th className="font-medium">SHA-256</th>
+                    <th className="font-medium">Uploaded</th>
+                    <th>
+                      <span className="sr-only">Actions</span>
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody className="divide-y divide-chalk-deep">
+                  {datasets.map((d) => (
+                    <tr key={d.id}>
+                      <td className="py-2">
+                        <a href={`/api/datasets/${d.id}/file`} className="text-leaf hover:underline">
+                          {d.fileName}
+                        </a>
+                      </td>
+                      <td>{d.kind === "planted" ? "as-planted" : "survey"}</td>
+                      <td>{d.rowCount.toLocaleString("en-GB")}</td>
+                      <td className="font-mono text-xs">{d.crs}</td>
+                      <td className="font-mono text-xs" title={d.sha256}>
+                        {d.sha256.slice(0, 12)}…
+                      </td>
+                      <td className="text-ink-faint">
+                        <FieldTime iso={d.uploadedAt} timeZone={field.timeZone} />
+                      </td>
+                      <td className="text-right">
+                        {canPrepare && !d.inUse ? (
+                          <DeleteDatasetButton id={d.id} name={d.fileName} />
+                        ) : d.inUse ? (
+                          <span className="text-xs text-ink-faint">used by an audit</span>
+                        ) : null}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
           )}
         </Panel>
       </div>
