@@ -55,7 +55,7 @@ export default async function globalSetup() {
     OPEN_SIGNUP: "1",
     QUEUE_MAINTENANCE_SECONDS: "1",
   };
-  const workerArgs = ["--conditions=react-server", "--import", "tsx", "lib/cli/worker.ts"];
+  const workerArgs = ["--conditions=react-server", "--import", "tsx", "lib/server/jobs/worker-main.ts"];
   const workers = [1, 2].map((i) => {
     const log = path.join(dir, `worker-${i}.log`);
     const child = start(`worker ${i}`, workerArgs, common, log);

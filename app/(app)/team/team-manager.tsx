@@ -156,7 +156,9 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
                         ))}
                       </select>
                     </td>
-                    <td className="text-ink-soft"><LocalTime iso={m.joinedAt} /></td>
+                    <td className="text-ink-soft">
+                      <LocalTime iso={m.joinedAt} />
+                    </td>
                     <td className="text-right">
                       <button
                         type="button"
@@ -251,7 +253,9 @@ export function TeamManager({ viewerEmail }: { viewerEmail: string }) {
                     <td className="py-2">{i.email}</td>
                     <td>{ROLE_LABEL[i.role]}</td>
                     <td className={i.status === "expired" ? "text-alarm" : ""}>{STATUS_WORD[i.status]}</td>
-                    <td className="text-ink-soft"><LocalTime iso={i.expiresAt} /></td>
+                    <td className="text-ink-soft">
+                      <LocalTime iso={i.expiresAt} />
+                    </td>
                     <td className="space-x-3 text-right">
                       {i.status === "pending" ? (
                         <button

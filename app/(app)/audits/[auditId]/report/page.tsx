@@ -341,7 +341,9 @@ export default async function ReportPage({ params }: { params: Promise<{ auditId
               typed name “{signoff.typedName}”
             </dd>
             <dt className="text-ink-soft">Signed at</dt>
-            <dd><FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} /></dd>
+            <dd>
+              <FieldTime iso={signoff.signedAt} timeZone={audit.field.timeZone} />
+            </dd>
             <dt className="text-ink-soft">Confirmed</dt>
             <dd>
               {signoff.checklist.checkpoints.pairs} checkpoints (at least {signoff.checklist.checkpoints.required}{" "}
