@@ -1,10 +1,12 @@
 #!/usr/bin/env node
 // The whole test suite: types, lint and format, layer rules (dependency-cruiser), unit + integration (vitest),
-// production build, browser tests (Playwright driving Debian's chromium). Installs chromium with apt-get when it is
-// missing and we are root.
+// the integration tests again on a throwaway PostgreSQL server (server mode), production build, browser tests
+// (Playwright driving Debian's chromium) embedded and as a two-instance server deployment. Installs chromium and
+// postgresql with apt-get when they are missing and we are root.
 // Ends with one summary line: "tests: N passed, N failed".
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
+import { freePort, postgresBin, startPostgres } from "./pg/throwaway-postgres.mjs";
 
 const chromium = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 const steps = [];
@@ -32,6 +34,18 @@ if (!fs.existsSync(chromium)) {
   }
 }
 
+if (!postgresBin()) {
+  if (process.getuid?.() === 0) {
+    run("install postgresql", "sh", [
+      "-c",
+      "apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq postgresql",
+    ]);
+  } else {
+    console.error("PostgreSQL not found. Install it with: sudo apt-get install -y postgresql");
+    failed = true;
+  }
+}
+
 // Playwright empties test-results/ when it starts, so the runners' JSON reports live elsewhere.
 fs.rmSync(".test-report", { recursive: true, force: true });
 fs.mkdirSync(".test-report", { recursive: true });
@@ -45,10 +59,38 @@ run("unit and integration tests", "npx", [
   "--reporter=json",
   "--outputFile=.test-report/unit.json",
 ]);
+if (postgresBin()) {
+  const pg = startPostgres(await freePort());
+  try {
+    run(
+      "integration tests on PostgreSQL (server mode)",
+      "npx",
+      [
+        "vitest",
+        "run",
+        "tests/integration",
+        "db",
+        "--reporter=default",
+        "--reporter=json",
+        "--outputFile=.test-report/unit-pg.json",
+      ],
+      { TEST_DATABASE_URL: pg.url },
+    );
+  } finally {
+    pg.stop();
+  }
+}
 const built = run("production build", "npx", ["next", "build"]);
 if (built && fs.existsSync(chromium)) {
   fs.rmSync("data/e2e", { recursive: true, force: true });
   run("browser tests", "npx", ["playwright", "test"], { PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD: "1" });
+  if (postgresBin())
+    run("browser tests, server mode (PostgreSQL, two instances, two workers)", "npx", [
+      "playwright",
+      "test",
+      "-c",
+      "playwright.server.config.ts",
+    ]);
 }
 
 function readJson(path) {
@@ -58,17 +100,17 @@ function readJson(path) {
     return null;
   }
 }
-const unit = readJson(".test-report/unit.json");
-const e2e = readJson(".test-report/e2e.json");
 let passed = 0,
   failures = 0,
   skipped = 0;
-if (unit) {
+for (const unit of [readJson(".test-report/unit.json"), readJson(".test-report/unit-pg.json")]) {
+  if (!unit) continue;
   passed += unit.numPassedTests;
   failures += unit.numFailedTests;
   skipped += unit.numPendingTests + unit.numTodoTests;
 }
-if (e2e) {
+for (const e2e of [readJson(".test-report/e2e.json"), readJson(".test-report/e2e-server.json")]) {
+  if (!e2e) continue;
   passed += e2e.stats.expected + e2e.stats.flaky;
   failures += e2e.stats.unexpected;
   skipped += e2e.stats.skipped;
