@@ -62,7 +62,7 @@ test("server mode -- an audit started on instance A is computed by a worker and 
       title: "Two-instance check",
     },
   });
-  expect(res.status(), await res.text()).toBe(201);
+  expect(res.status(), await res.text()).toBe(202); // accepted: a worker computes it
   const started = (await res.json()).audit as AuditDto;
   expect(started.state).toBe("computing");
 
@@ -110,6 +110,8 @@ test("server mode -- a worker killed mid-audit: the queue gives the job to the o
   browser,
 }) => {
   const { a, b } = state();
+  // Both workers are up and taking jobs before one of them is killed.
+  expect(workerLogs().filter((w) => w.text.includes("takes jobs"))).toHaveLength(2);
   const tech = await signedIn(browser, a, "technician");
   const files = await benchFiles(100_000);
   const created = await tech.page.request.post("/api/fields", {
@@ -148,7 +150,7 @@ test("server mode -- a worker killed mid-audit: the queue gives the job to the o
       title: "Kill test",
     },
   });
-  expect(res.status(), await res.text()).toBe(201);
+  expect(res.status(), await res.text()).toBe(202);
   const id = ((await res.json()).audit as AuditDto).id;
 
   // Kill whichever worker took it, as soon as it says so.

@@ -1,5 +1,6 @@
 import "server-only";
 import { setTimeout as sleep } from "node:timers/promises";
+import pg from "pg";
 import PgBoss from "pg-boss";
 import { type DB, isServerMode } from "@/db/client";
 import { getAuditById } from "@/db/queries/audits";
@@ -48,8 +49,17 @@ export function getQueue(): Promise<PgBoss> {
         max: 4,
       });
       boss.on("error", (err) => console.error("[plotproof] job queue", err));
-      await boss.start();
-      for (const name of Object.values(QUEUES)) await boss.createQueue(name);
+      // Instances and workers starting together would deadlock creating the queue's tables and queues: one at a time.
+      const lock = new pg.Client({ connectionString: url });
+      await lock.connect();
+      try {
+        await lock.query("select pg_advisory_lock(724520)");
+        await boss.start();
+        for (const name of Object.values(QUEUES)) await boss.createQueue(name);
+      } finally {
+        await lock.query("select pg_advisory_unlock(724520)").catch(() => {});
+        await lock.end();
+      }
       return boss;
     })();
     g.__plotproofBoss.catch(() => {
