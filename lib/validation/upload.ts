@@ -37,4 +37,9 @@ export const UploadFields = z.object({
     .optional()
     .transform((v) => v === "true"),
   presetName: z.string().trim().min(1).max(80).optional(),
+  // Machines (issue 13): the machine that recorded an as-planted file; empty = not named.
+  machineId: z.preprocess(
+    (v) => (v === "" ? undefined : v),
+    z.uuid({ message: "machineId must be the id of one of your machines" }).optional(),
+  ),
 });

@@ -16,6 +16,7 @@ import {
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { createDataset } from "@/db/queries/datasets";
+import { getMachineById } from "@/db/queries/machines";
 import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
 import type { Viewer } from "@/lib/server/access";
@@ -33,6 +34,8 @@ export interface IngestRequest {
   mapping?: ColumnMapping;
   acceptWarnings: boolean;
   presetName?: string;
+  /** As-planted only: the organisation's machine that recorded the file. */
+  machineId?: string;
   onProgress?: (stage: "reading" | "checking" | "saving", fraction: number) => void;
 }
 
@@ -56,6 +59,17 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   const db = await getDb();
   const field = await getFieldById(db, { id: r.fieldId, orgId: r.viewer.orgId });
   if (!field) throw notFound("Field");
+  // Machines (issue 13): checked before the file is read, so a wrong machine saves nothing.
+  if (r.machineId) {
+    if (r.kind !== "planted")
+      throw new AppError("invalid_input", "Only as-planted records name a machine; a survey file does not.", [
+        { path: ["machineId"], message: "Leave the machine empty for a survey file" },
+      ]);
+    if (!(await getMachineById(db, { id: r.machineId, orgId: r.viewer.orgId })))
+      throw new AppError("invalid_input", "There is no such machine in this organisation. Choose one from the list.", [
+        { path: ["machineId"], message: "No such machine" },
+      ]);
+  }
   if (r.bytes.byteLength === 0) {
     throw new AppError("invalid_file", `${r.fileName} is empty.`, [
       {
@@ -142,6 +156,7 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     acceptedWarnings: warnings,
     table: read.table,
     presetName: r.presetName,
+    machineId: r.machineId ?? null,
   });
   progress("saving", 1);
   const [lon, lat] = centreLonLat(read.table, crs);

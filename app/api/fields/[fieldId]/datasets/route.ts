@@ -18,7 +18,7 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
 });
 
 /**
- * Upload an as-planted or survey file (multipart: file, kind, crs?, mapping?, acceptWarnings?, presetName?).
+ * Upload an as-planted or survey file (multipart: file, kind, crs?, mapping?, acceptWarnings?, presetName?, machineId?).
  * With `Accept: application/x-ndjson` the answer streams progress lines and ends with the result.
  */
 export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
@@ -42,6 +42,7 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
     mapping: fields.mapping,
     acceptWarnings: fields.acceptWarnings,
     presetName: fields.presetName,
+    machineId: fields.machineId,
   };
 
   if (!(req.headers.get("accept") ?? "").includes("application/x-ndjson")) {
