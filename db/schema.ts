@@ -512,7 +512,7 @@ export const mailCapture = pgTable(
     envelopeFrom: text("envelope_from"),
     envelopeTo: jsonb("envelope_to").notNull(),
     subject: text("subject").notNull(),
-    /** From the X-Plotproof-Kind header: invitation, password-reset, audit-submitted, audit-signed-off, audit-returned. */
+    /** From the X-Plotproof-Kind header: invitation, password-reset, audit-submitted, audit-signed-off, audit-returned, audit-alert. */
     kind: text("kind"),
     textBody: text("text_body").notNull(),
     raw: text("raw").notNull(),

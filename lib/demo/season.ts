@@ -5,7 +5,8 @@ import "server-only";
  * one failing its profile with the reasons — so the diagnostics, comparison and season pages have something to show on first
  * start. Invented data for the demo only (error model: lib/demo/generate.ts; every planting has arm 3 off by +3 mm
  * cross-row and a float-fix stretch in bed 3, rows 2–3, plants 31–110; the June planting of Long Acre was recorded
- * with wrong base-station coordinates, a shift of the whole pass).
+ * with wrong base-station coordinates, a shift of the whole pass). Each as-planted upload names its machine
+ * (DEMO_MACHINES), and the organisation starts with alert thresholds (DEMO_ALERT_RULES) the season's audits cross.
  */
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
