@@ -28,9 +28,9 @@ describe("evaluateAlerts", () => {
     expect(found).toHaveLength(1);
     expect(found[0].kind).toBe("arm-cross-offset");
     // |−3.1 mm| > 2.0 mm: arithmetic, worked by hand
-    expect(found[0].detail).toMatchObject({ arm: "3", crossMeanM: -0.0031, n: 38, limitM: 0.002 });
+    expect(found[0].detail).toEqual({ arms: "3", largestM: 0.0031, limitM: 0.002, everyArm: false });
     expect(found[0].message).toBe(
-      "Arm 3: mean cross-row error 3.1 mm (records right of the plants, 38 fixed-fix checkpoints), above the 2.0 mm limit.",
+      "Mean cross-row error of arm 3 3.1 mm (records right of the plants, 38 fixed-fix checkpoints), above the 2.0 mm limit.",
     );
     const right = evaluateAlerts(
       { ...NONE, armCrossOffsetM: 0.002 },
@@ -44,6 +44,31 @@ describe("evaluateAlerts", () => {
       null,
     );
     expect(noFix[0].message).toContain("20 checkpoints, the records state no fix");
+  });
+
+  it("evaluateAlerts -- several arms over the limit make one finding; every arm over it points at a whole-pass shift", () => {
+    const two = figures({
+      arms: [
+        { arm: "1", crossMean: 0.0004, crossSignificant: false, n: 40 },
+        { arm: "2", crossMean: 0.0025, crossSignificant: true, n: 30 },
+        { arm: "3", crossMean: -0.0031, crossSignificant: true, n: 38 },
+      ],
+    });
+    const found = evaluateAlerts({ ...NONE, armCrossOffsetM: 0.002 }, two, null);
+    expect(found).toHaveLength(1);
+    expect(found[0].message).toBe(
+      "Mean cross-row errors of arm 2 2.5 mm (records left of the plants, 30 fixed-fix checkpoints), arm 3 3.1 mm (records right of the plants, 38 fixed-fix checkpoints), above the 2.0 mm limit.",
+    );
+    expect(found[0].detail).toMatchObject({ arms: "2,3", everyArm: false });
+    // A wrong reference frame: every arm off by metres
+    const frame = figures({
+      arms: ["1", "2"].map((arm) => ({ arm, crossMean: -230.85, crossSignificant: true, n: 40 })),
+    });
+    const shifted = evaluateAlerts({ ...NONE, armCrossOffsetM: 0.002 }, frame, null);
+    expect(shifted[0].message).toBe(
+      "Mean cross-row errors of arm 1 230.85 m (records right of the plants, 40 fixed-fix checkpoints), arm 2 230.85 m (records right of the plants, 40 fixed-fix checkpoints), above the 2.0 mm limit. Every arm is off, so a shift of the whole pass (base-station coordinates, reference frame) is more likely than the arms' calibration.",
+    );
+    expect(shifted[0].detail.everyArm).toBe(true);
   });
 
   it("evaluateAlerts -- an offset at the limit, or larger but not significant, is no alert", () => {

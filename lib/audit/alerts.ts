@@ -52,18 +52,45 @@ export interface AlertFinding {
   detail: Record<string, string | number | boolean | null>;
 }
 
-const mm = (m: number) => `${(m * 1000).toFixed(1)} mm`;
+/** Millimetres with one decimal; metres from a metre up (a wrong reference frame is off by metres, not millimetres). */
+const mm = (m: number) => (Math.abs(m) >= 1 ? `${m.toFixed(2)} m` : `${(m * 1000).toFixed(1)} mm`);
+const armName = (arm: string | null) => (arm === null ? "records without an arm" : `arm ${arm}`);
+
+/** One finding for all arms over the limit; when every arm is, the whole pass is more likely shifted. */
+function armFinding(over: AlertAuditFigures["arms"], limit: number, everyArm: boolean): AlertFinding {
+  const basis = (a: AlertAuditFigures["arms"][number]) =>
+    a.basis === "all" ? "checkpoints, the records state no fix" : "fixed-fix checkpoints";
+  // survey − planted < 0: the plants lie left of the records, so the records sit right of the plants.
+  const side = (m: number) => (m < 0 ? "records right of the plants" : "records left of the plants");
+  const parts = over.map(
+    (a) => `${armName(a.arm)} ${mm(Math.abs(a.crossMean!))} (${side(a.crossMean!)}, ${a.n} ${basis(a)})`,
+  );
+  const head = over.length === 1 ? "Mean cross-row error of" : "Mean cross-row errors of";
+  const shift = everyArm
+    ? " Every arm is off, so a shift of the whole pass (base-station coordinates, reference frame) is more likely than the arms' calibration."
+    : "";
+  return {
+    kind: "arm-cross-offset",
+    message: `${head} ${parts.join(", ")}, above the ${mm(limit)} limit.${shift}`,
+    detail: {
+      arms: over.map((a) => a.arm ?? "").join(","),
+      largestM: Math.max(...over.map((a) => Math.abs(a.crossMean!))),
+      limitM: limit,
+      everyArm,
+    },
+  };
+}
 const pct = (share: number) => `${(share * 100).toFixed(0)} %`;
 
 /**
- * The thresholds the audit breaches, in a fixed order (arms by their order in `figures`, then the RMSE rise, then
- * the verdict). A cross-row offset breaches when |mean| > limit and the offset is significant; the RMSE rise when
+ * The thresholds the audit breaches, in a fixed order (arms, then the RMSE rise, then the verdict). A cross-row
+ * offset breaches when |mean| > limit and the offset is significant; all arms over the limit make one finding; the RMSE rise when
  * rmseR/previous.rmseR − 1 > rise (not checked without a previous audit or with a previous RMSE of zero). Inputs
  * are not modified.
  *
  * @example evaluateAlerts({ armCrossOffsetM: 0.002, rmseRise: null, failedVerdict: false },
  *   { arms: [{ arm: "3", crossMean: -0.003, crossSignificant: true, n: 40 }], rmseR: 0.01, passed: true, failedCriteria: [] },
- *   null) // [{ kind: "arm-cross-offset", message: "Arm 3: mean cross-row error 3.0 mm (left of the row), above the 2.0 mm limit.", … }]
+ *   null) // [{ kind: "arm-cross-offset", message: "Mean cross-row error of arm 3 3.0 mm (records right of the plants, 40 fixed-fix checkpoints), above the 2.0 mm limit.", … }]
  */
 export function evaluateAlerts(
   thresholds: AlertThresholds,
@@ -74,17 +101,9 @@ export function evaluateAlerts(
   const limit = thresholds.armCrossOffsetM;
   if (limit !== null) {
     if (!(limit > 0)) throw new Error(`evaluateAlerts: armCrossOffsetM must be above 0 m, got ${limit}`);
-    for (const a of figures.arms) {
-      if (a.crossMean === null || !a.crossSignificant || !(Math.abs(a.crossMean) > limit)) continue;
-      const name = a.arm === null ? "Records without an arm" : `Arm ${a.arm}`;
-      // survey − planted < 0: the plants lie left of the records, so the records sit right of the plants.
-      const side = a.crossMean < 0 ? "records right of the plants" : "records left of the plants";
-      found.push({
-        kind: "arm-cross-offset",
-        message: `${name}: mean cross-row error ${mm(Math.abs(a.crossMean))} (${side}, ${a.n} ${a.basis === "all" ? "checkpoints, the records state no fix" : "fixed-fix checkpoints"}), above the ${mm(limit)} limit.`,
-        detail: { arm: a.arm, crossMeanM: a.crossMean, n: a.n, limitM: limit },
-      });
-    }
+    const measured = figures.arms.filter((a) => a.crossMean !== null && a.crossSignificant);
+    const over = measured.filter((a) => Math.abs(a.crossMean!) > limit);
+    if (over.length) found.push(armFinding(over, limit, over.length >= 2 && over.length === figures.arms.length));
   }
   const rise = thresholds.rmseRise;
   if (rise !== null) {
@@ -109,7 +128,9 @@ export function evaluateAlerts(
     }
   }
   if (thresholds.failedVerdict && figures.passed === false) {
-    const reasons = figures.failedCriteria.length ? ` ${figures.failedCriteria.join(" ")}` : "";
+    const reasons = figures.failedCriteria.length
+      ? ` ${figures.failedCriteria.map((c) => c.replace(/[.\s]+$/, "")).join("; ")}.`
+      : "";
     found.push({
       kind: "failed-verdict",
       message: `The audit failed its tolerance profile.${reasons}`,

@@ -118,7 +118,7 @@ test("alerts -- a QA lead sets a threshold, a technician's audit breaches it, th
 
   // The e-mail to the QA lead, through the demo outbox
   const mail = await new Outbox(browser).waitFor("idris@kestrelfen.example", /Alert: Long Acre arm check/);
-  expect(mail.text).toContain("Arm 3: mean cross-row error");
+  expect(mail.text).toContain("Mean cross-row error of arm 3");
   expect(mail.text).toContain("above the 2.5 mm limit");
   expect(mail.link).toContain(`/audits/${auditId}/diagnostics`);
 

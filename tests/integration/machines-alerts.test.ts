@@ -214,7 +214,7 @@ describe("alerts", () => {
     // Planted in lib/demo/generate.ts: arm 3 records +3 mm right of the plants on every planting (limit 2 mm)
     expect(of("Long Acre April planting")).toEqual(["arm-cross-offset"]);
     expect(alerts.find((a) => a.audit.title === "Long Acre April planting")!.message).toMatch(
-      /^Arm 3: mean cross-row error [23]\.\d mm \(records right of the plants/,
+      /^Mean cross-row error of arm 3 [23]\.\d mm \(records right of the plants/,
     );
     // The June shift raises the RMSE well over 30 % from the May planting of the same machine
     expect(of("Long Acre June planting")).toContain("rmse-rise");
@@ -324,7 +324,7 @@ describe("alerts", () => {
     expect(mine[0].machine?.name).toBe(DEMO_MACHINES[0].name);
     const m = await mail.waitFor((x) => x.subject.includes("Long Acre check after recalibration"));
     expect(m.subject).toBe("Alert: Long Acre check after recalibration crossed a threshold");
-    expect(m.text).toContain("Arm 3: mean cross-row error");
+    expect(m.text).toContain("Mean cross-row error of arm 3");
     expect(m.text).toContain(`/audits/${audit.id}/diagnostics`);
     const to = mail.messages
       .filter((x) => x.subject === m.subject)
