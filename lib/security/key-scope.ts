@@ -18,7 +18,8 @@ export const SCOPE_LABEL: Record<ApiKeyScope, string> = {
 /** One line each: what a key with this scope may do. Also the second half of the 403 message. */
 export const SCOPE_ALLOWS: Record<ApiKeyScope, string> = {
   full: "everything its creator's current role may do",
-  upload: "listing and reading fields, uploading files to a field (POST /api/fields/:id/datasets), reading datasets and listing machines",
+  upload:
+    "listing and reading fields, uploading files to a field (POST /api/fields/:id/datasets), reading datasets and listing machines",
   read: "reading (GET requests) whatever its creator's role may read",
 };
 
