@@ -512,7 +512,7 @@ export const mailCapture = pgTable(
     envelopeFrom: text("envelope_from"),
     envelopeTo: jsonb("envelope_to").notNull(),
     subject: text("subject").notNull(),
-    /** From the X-Plotproof-Kind header: invitation, password-reset, audit-submitted, audit-signed-off, audit-returned. */
+    /** From the X-Plotproof-Kind header: invitation, password-reset, audit-submitted, audit-signed-off, audit-returned, audit-alert. */
     kind: text("kind"),
     textBody: text("text_body").notNull(),
     raw: text("raw").notNull(),
@@ -656,4 +656,95 @@ export const surveyRecord = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index("survey_record_plan_idx").on(t.planId), index("survey_record_org_idx").on(t.orgId)],
+);
+
+// ---------------------------------------------------------------------------
+// Machines and alerts (issue 13): the planting machines of an organisation, which machine recorded an as-planted
+// upload, the organisation's alert thresholds and the breaches found when an audit is computed.
+// ---------------------------------------------------------------------------
+
+/** A planting machine: its tool arms and what it records positions with. */
+export const machine = pgTable(
+  "machine",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    name: text("name").notNull(),
+    /** Working width across the rows, metres. */
+    workingWidthM: doublePrecision("working_width_m").notNull(),
+    /** Number of tool arms (planting units). */
+    toolArms: integer("tool_arms").notNull(),
+    receiverNotes: text("receiver_notes"),
+    cameraNotes: text("camera_notes"),
+    createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex("machine_org_name_uq").on(t.orgId, t.name),
+    check("machine_width_positive", sql`${t.workingWidthM} > 0`),
+    check("machine_arms_positive", sql`${t.toolArms} >= 1`),
+  ],
+);
+
+/** Which machine recorded an as-planted upload (at most one; kept apart from the dataset row). */
+export const datasetMachine = pgTable(
+  "dataset_machine",
+  {
+    datasetId: uuid("dataset_id")
+      .primaryKey()
+      .references(() => dataset.id, { onDelete: "cascade" }),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    /** A machine named by an upload cannot be deleted. */
+    machineId: uuid("machine_id")
+      .notNull()
+      .references(() => machine.id, { onDelete: "restrict" }),
+  },
+  (t) => [index("dataset_machine_machine_idx").on(t.orgId, t.machineId)],
+);
+
+/** The organisation's alert thresholds (one row per organisation; a null threshold is not checked). */
+export const alertRule = pgTable("alert_rule", {
+  orgId: text("org_id")
+    .primaryKey()
+    .references(() => organization.id, { onDelete: "cascade" }),
+  /** Alert when an arm's mean cross-row error (fixed-fix checkpoints, significant) exceeds this, metres. */
+  armCrossOffsetM: doublePrecision("arm_cross_offset_m"),
+  /** Alert when the horizontal RMSE rose by more than this share (0.3 = 30 %) from the previous audit. */
+  rmseRise: doublePrecision("rmse_rise"),
+  /** Alert when the audit fails its tolerance profile. */
+  failedVerdict: boolean("failed_verdict").notNull().default(false),
+  updatedBy: text("updated_by").references(() => user.id, { onDelete: "set null" }),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** One threshold an audit breached when it was computed. */
+export const alertBreach = pgTable(
+  "alert_breach",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    orgId: text("org_id")
+      .notNull()
+      .references(() => organization.id, { onDelete: "cascade" }),
+    auditId: uuid("audit_id")
+      .notNull()
+      .references(() => audit.id, { onDelete: "cascade" }),
+    /** "arm-cross-offset", "rmse-rise" or "failed-verdict" (lib/audit/alerts.ts). */
+    kind: text("kind").notNull(),
+    /** The breach in one sentence, as listed and e-mailed. */
+    message: text("message").notNull(),
+    /** Figures of the breach (measured value, threshold, arm, previous audit). */
+    detail: jsonb("detail"),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    acknowledgedAt: timestamp("acknowledged_at", { withTimezone: true }),
+    acknowledgedBy: text("acknowledged_by").references(() => user.id, { onDelete: "set null" }),
+  },
+  (t) => [
+    index("alert_breach_org_created_idx").on(t.orgId, t.createdAt),
+    index("alert_breach_audit_idx").on(t.auditId),
+  ],
 );

@@ -118,6 +118,8 @@ export interface AuditDto {
   field: { id: string; name: string; crs: string; timeZone: string };
   planted: { id: string; fileName: string; sha256: string; rowCount: number } | null;
   survey: { id: string; fileName: string; sha256: string; rowCount: number } | null;
+  /** The machine the as-planted upload names (absent on DTOs made before machines). */
+  machine?: { id: string; name: string } | null;
   profile: ProfileSnapshot | null;
   settings: AuditSettingsDto | null;
   summary: AuditSummary | null;

@@ -1,5 +1,14 @@
 import { describe, expect, it } from "vitest";
-import { can, MAILED_ON_DECISION, MAILED_ON_SUBMIT, PERMISSIONS, ROLES, type Permission, type Role } from "./roles";
+import {
+  can,
+  MAILED_ON_ALERT,
+  MAILED_ON_DECISION,
+  MAILED_ON_SUBMIT,
+  PERMISSIONS,
+  ROLES,
+  type Permission,
+  type Role,
+} from "./roles";
 
 // The permission table, written out by hand: a change to who may do what has to change this file too.
 const EXPECTED: Record<Permission, Role[]> = {
@@ -11,6 +20,8 @@ const EXPECTED: Record<Permission, Role[]> = {
   CAN_MANAGE_TEAM: ["owner"],
   CAN_MANAGE_KEYS: ["owner"],
   CAN_READ_OUTBOX: ["owner"],
+  CAN_MANAGE_MACHINES: ["owner", "qa_lead"],
+  CAN_SET_ALERTS: ["owner", "qa_lead"],
 };
 
 describe("roles", () => {
@@ -41,5 +52,10 @@ describe("roles", () => {
 
   it("MAILED_ON_DECISION -- the growers hear of sign-offs and returns", () => {
     expect(MAILED_ON_DECISION).toEqual(["grower"]);
+  });
+
+  it("MAILED_ON_ALERT -- owners and QA leads hear of alerts; everyone mailed can set the thresholds", () => {
+    expect(MAILED_ON_ALERT).toEqual(["owner", "qa_lead"]);
+    for (const role of MAILED_ON_ALERT) expect(can(role, "CAN_SET_ALERTS"), role).toBe(true);
   });
 });

@@ -36,6 +36,11 @@ export const CAN_MANAGE_KEYS: readonly Role[] = ["owner"];
 /** Read the outbox of e-mails the organisation sent. */
 export const CAN_READ_OUTBOX: readonly Role[] = ["owner"];
 
+/** Create, edit and delete the organisation's planting machines (everyone reads them; uploads name them). */
+export const CAN_MANAGE_MACHINES: readonly Role[] = ["owner", "qa_lead"];
+/** Set the organisation's alert thresholds and acknowledge alerts. */
+export const CAN_SET_ALERTS: readonly Role[] = ["owner", "qa_lead"];
+
 /** The named permissions, for `can` and for the test that pins them. */
 export const PERMISSIONS = {
   ANY_ROLE,
@@ -46,6 +51,8 @@ export const PERMISSIONS = {
   CAN_MANAGE_TEAM,
   CAN_MANAGE_KEYS,
   CAN_READ_OUTBOX,
+  CAN_MANAGE_MACHINES,
+  CAN_SET_ALERTS,
 } as const;
 export type Permission = keyof typeof PERMISSIONS;
 
@@ -60,6 +67,9 @@ export function can(role: Role, permission: Permission): boolean {
 export const MAILED_ON_SUBMIT: readonly (readonly Role[])[] = [["qa_lead"], ["owner"]];
 /** "Signed off" and "Returned" go to the submitter and to these roles. */
 export const MAILED_ON_DECISION: readonly Role[] = ["grower"];
+
+/** Alerts (a computed audit breaching the organisation's thresholds) go to these roles. */
+export const MAILED_ON_ALERT: readonly Role[] = ["owner", "qa_lead"];
 
 export function isRole(value: unknown): value is Role {
   return typeof value === "string" && (ROLES as readonly string[]).includes(value);

@@ -4,6 +4,8 @@
 export interface SeasonPoint {
   auditId: string;
   title: string;
+  /** The field the audit belongs to (a machine's season spans fields). */
+  fieldName: string;
   state: string;
   /** Signed off (drawn solid) or not (hollow). */
   signed: boolean;
@@ -16,5 +18,10 @@ export interface SeasonPoint {
 
 export interface FieldSeason {
   field: { id: string; name: string; timeZone: string };
+  points: SeasonPoint[];
+}
+
+export interface MachineSeason {
+  machine: { id: string; name: string; toolArms: number };
   points: SeasonPoint[];
 }

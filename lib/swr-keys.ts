@@ -27,6 +27,13 @@ export const keys = {
   auditChartData: (auditId: string) => `/api/audits/${auditId}/chart-data`,
   auditCsv: (auditId: string, kind: "residuals" | "summary" | "unpaired") => `/api/audits/${auditId}/${kind}.csv`,
   apiKeys: () => "/api/keys",
+  // Machines and alerts (issue 13)
+  machines: () => "/api/machines",
+  machine: (id: string) => `/api/machines/${id}`,
+  machineSeason: (id: string) => `/api/machines/${id}/season`,
+  alertRules: () => "/api/alerts/rules",
+  alerts: (open?: boolean) => `/api/alerts${qs({ open: open ? "true" : undefined })}`,
+  alert: (id: string) => `/api/alerts/${id}`,
 };
 
 /** Server-side paging, sorting and filtering of per-plant residuals. */

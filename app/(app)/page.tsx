@@ -19,6 +19,7 @@ import {
 } from "@/app/_components/ui";
 import { ROLE_DUTY, ROLE_LABEL } from "@/lib/roles";
 import { STATE_NAME } from "@/lib/review/lifecycle";
+import { countOpenAlerts } from "@/db/queries/alerts";
 
 export const metadata: Metadata = { title: "Home" };
 
@@ -29,6 +30,7 @@ export default async function HomePage() {
       <PageTitle sub={ROLE_DUTY[viewer.role]}>{homeTitle(viewer)}</PageTitle>
       <div className="grid gap-6" data-testid={`home-${viewer.role}`}>
         {viewer.role === "technician" ? <TechnicianHome viewer={viewer} /> : null}
+        {viewer.role === "qa_lead" || viewer.role === "owner" ? <OpenAlerts viewer={viewer} /> : null}
         {viewer.role === "qa_lead" ? <QaLeadHome viewer={viewer} /> : null}
         {viewer.role === "grower" ? <GrowerHome viewer={viewer} /> : null}
         {viewer.role === "owner" ? <OwnerHome viewer={viewer} /> : null}
@@ -82,6 +84,23 @@ async function TechnicianHome({ viewer }: { viewer: Viewer }) {
         <AuditList title="Recent audits" audits={audits} empty="No audits yet." />
       </div>
     </>
+  );
+}
+
+/** Alerts (issue 13): how many breaches of the thresholds nobody has acknowledged yet. */
+async function OpenAlerts({ viewer }: { viewer: Viewer }) {
+  const open = await countOpenAlerts(await getDb(), { orgId: viewer.orgId });
+  return (
+    <p
+      className={`rounded-plot border px-4 py-3 text-sm ${open ? "border-alarm bg-alarm-pale" : "border-chalk-line bg-white"}`}
+      data-testid="home-alerts"
+      data-open={open}
+    >
+      {open === 0
+        ? "No open alerts: no computed audit has crossed your thresholds since the last ones were acknowledged. "
+        : `${open} open ${open === 1 ? "alert" : "alerts"}: computed audits crossed your thresholds. `}
+      <TextLink href="/alerts">{open ? "Read the alerts" : "Thresholds and alerts"}</TextLink>
+    </p>
   );
 }
 

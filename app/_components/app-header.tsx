@@ -21,6 +21,9 @@ const NAV: { href: string; label: string; roles: readonly Role[] }[] = [
   { href: "/profiles", label: "Tolerance profiles", roles: ANY_ROLE },
   { href: "/review", label: "Review", roles: CAN_REVIEW },
   { href: "/activity", label: "Activity", roles: ANY_ROLE },
+  // Machines and alerts (issue 13)
+  { href: "/machines", label: "Machines", roles: ANY_ROLE },
+  { href: "/alerts", label: "Alerts", roles: ANY_ROLE },
   { href: "/team", label: "Team", roles: CAN_MANAGE_TEAM },
   { href: "/settings/keys", label: "API keys", roles: CAN_MANAGE_KEYS },
   { href: "/outbox", label: "Outbox", roles: CAN_READ_OUTBOX },

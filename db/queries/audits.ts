@@ -18,6 +18,7 @@ import type {
 } from "@/lib/api-types";
 import type { ResidualQueryInput, ResidualSort } from "@/lib/validation/audit";
 import { logActivity } from "./activity";
+import { getDatasetMachine } from "./machines";
 
 export type AuditListItem = AuditListItemDto;
 
@@ -397,6 +398,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
         .from(dataset)
         .where(and(inArray(dataset.id, ids), eq(dataset.orgId, orgId)))
     : [];
+  const machine = row.plantedDatasetId ? await getDatasetMachine(db, { datasetId: row.plantedDatasetId, orgId }) : null;
   return {
     id: row.id,
     title: row.title,
@@ -408,6 +410,7 @@ export async function getAuditById(db: DB, { id, orgId }: { id: string; orgId: s
     field: { id: row.fieldId, name: row.fieldName, crs: row.fieldCrs, timeZone: row.fieldTimeZone },
     planted: ds.find((d) => d.id === row.plantedDatasetId) ?? null,
     survey: ds.find((d) => d.id === row.surveyDatasetId) ?? null,
+    machine,
     profile: (row.profile as ProfileSnapshot | null) ?? null,
     settings: (row.settings as AuditSettingsDto | null) ?? null,
     summary: (row.summary as AuditSummary | null) ?? null,

@@ -7,6 +7,7 @@ import type { ColumnMapping, InputIssue, PointTable } from "@/geo";
 import type { DatasetDto } from "@/lib/api-types";
 import { logActivity } from "./activity";
 import { savePreset } from "./presets";
+import { linkDatasetMachine } from "./machines";
 
 const cols = {
   id: dataset.id,
@@ -131,6 +132,8 @@ export interface NewDataset {
   presetName?: string;
   /** More rows to save in the same transaction, given the new dataset's id (a survey's fieldwork record). */
   alsoSave?: (tx: Pick<DB, "insert">, datasetId: string) => Promise<void>;
+  /** As-planted only: the machine that recorded the file (checked by the caller to be the organisation's). */
+  machineId?: string | null;
 }
 
 /** Save the file exactly as received, its parsed points and an activity entry, all in one transaction. */
@@ -155,6 +158,7 @@ export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> 
       })
       .returning(cols);
     await tx.insert(datasetFile).values({ datasetId: row.id, contentType: d.contentType, bytes: d.bytes });
+    if (d.machineId) await linkDatasetMachine(tx, { datasetId: row.id, machineId: d.machineId, orgId: d.orgId });
     if (d.presetName) {
       await savePreset(tx, {
         orgId: d.orgId,

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, isNotNull, lt, ne, or, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
-import { audit, auditResidual, field } from "@/db/schema";
+import { audit, auditResidual, datasetMachine, field } from "@/db/schema";
 import type { AuditState, AuditSummary } from "@/lib/api-types";
 
 /** The stored per-plant rows the diagnostics read, in pairing order; the audit must belong to the caller's organisation. */
@@ -119,6 +119,58 @@ export async function getPreviousFieldAudit(
       and(
         eq(audit.orgId, orgId),
         eq(audit.fieldId, fieldId),
+        ne(audit.id, auditId),
+        inArray(audit.state, STATES_WITH_RESULTS),
+        isNotNull(audit.summary),
+        or(lt(audit.createdAt, createdAt), and(eq(audit.createdAt, createdAt), sql`${audit.id} < ${auditId}`)),
+      ),
+    )
+    .orderBy(desc(audit.createdAt), desc(audit.id))
+    .limit(1);
+  return row ? toSeasonRow(row) : null;
+}
+
+// Machines (issue 13): an audit belongs to the machine that recorded its as-planted dataset.
+
+/** Audits with results of one machine (any field), oldest first (at most `limit`). */
+export async function listMachineSeason(
+  db: DB,
+  { orgId, machineId, limit = 60 }: { orgId: string; machineId: string; limit?: number },
+): Promise<SeasonAuditRow[]> {
+  const rows = await db
+    .select(seasonCols)
+    .from(audit)
+    .innerJoin(field, eq(field.id, audit.fieldId))
+    .innerJoin(datasetMachine, eq(datasetMachine.datasetId, audit.plantedDatasetId))
+    .where(
+      and(
+        eq(audit.orgId, orgId),
+        eq(datasetMachine.orgId, orgId),
+        eq(datasetMachine.machineId, machineId),
+        inArray(audit.state, STATES_WITH_RESULTS),
+        isNotNull(audit.summary),
+      ),
+    )
+    .orderBy(desc(audit.createdAt))
+    .limit(limit);
+  return rows.map(toSeasonRow).reverse();
+}
+
+/** The audit with results of the same machine (any field) created just before this one, or null. */
+export async function getPreviousMachineAudit(
+  db: DB,
+  { orgId, machineId, auditId, createdAt }: { orgId: string; machineId: string; auditId: string; createdAt: Date },
+): Promise<SeasonAuditRow | null> {
+  const [row] = await db
+    .select(seasonCols)
+    .from(audit)
+    .innerJoin(field, eq(field.id, audit.fieldId))
+    .innerJoin(datasetMachine, eq(datasetMachine.datasetId, audit.plantedDatasetId))
+    .where(
+      and(
+        eq(audit.orgId, orgId),
+        eq(datasetMachine.orgId, orgId),
+        eq(datasetMachine.machineId, machineId),
         ne(audit.id, auditId),
         inArray(audit.state, STATES_WITH_RESULTS),
         isNotNull(audit.summary),

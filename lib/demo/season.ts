@@ -5,13 +5,17 @@ import "server-only";
  * one failing its profile with the reasons — so the diagnostics, comparison and season pages have something to show on first
  * start. Invented data for the demo only (error model: lib/demo/generate.ts; every planting has arm 3 off by +3 mm
  * cross-row and a float-fix stretch in bed 3, rows 2–3, plants 31–110; the June planting of Long Acre was recorded
- * with wrong base-station coordinates, a shift of the whole pass).
+ * with wrong base-station coordinates, a shift of the whole pass). Each as-planted upload names its machine
+ * (DEMO_MACHINES), and the organisation starts with alert thresholds (DEMO_ALERT_RULES) the season's audits cross.
  */
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { user } from "@/db/schema";
 import { listProfiles } from "@/db/queries/profiles";
 import { getAuditForReview } from "@/db/queries/review";
+import { createMachine } from "@/db/queries/machines";
+import { saveAlertRules } from "@/db/queries/alerts";
+import { settleAlertChecks } from "@/lib/server/alerts/check";
 import type { Role } from "@/lib/roles";
 import type { Viewer } from "@/lib/server/access";
 import { startAudit } from "@/lib/server/audits/run-audit";
@@ -33,13 +37,41 @@ export interface SeasonAuditSpec {
   outcome: SeasonOutcome;
   shiftE?: number;
   shiftN?: number;
+  /** The demo machine that planted it (DEMO_MACHINES). */
+  machine: string;
 }
+
+/**
+ * The demo farm's planting machines (invented). The five-arm transplanter plants Long Acre's five rows a bed and,
+ * with four arms set to Willow Strip's rows, the May planting there; the four-arm one planted Willow Strip in June.
+ */
+export const DEMO_MACHINES = [
+  {
+    name: "Reedling 5-arm transplanter",
+    workingWidthM: 2.5,
+    toolArms: 5,
+    receiverNotes: "Dual-frequency RTK receiver on the toolbar centre; corrections from the farm's own base station.",
+    cameraNotes:
+      "Row camera behind each arm corrects the recorded position to the plant; arm 3 camera refitted in March.",
+  },
+  {
+    name: "Sedgeway 4-arm planter",
+    workingWidthM: 1.6,
+    toolArms: 4,
+    receiverNotes: "Single RTK receiver over the rear axle; network corrections.",
+    cameraNotes: null,
+  },
+] as const;
+
+/** Alert thresholds the demo organisation starts with (Alerts page; the season's audits breach them). */
+export const DEMO_ALERT_RULES = { armCrossOffsetM: 0.002, rmseRise: 0.3, failedVerdict: true };
 
 /** The season, in planting order. Seeds differ from the files in public/demo, so no upload is a duplicate. */
 export const DEMO_SEASON: SeasonAuditSpec[] = [
   {
     field: "Long Acre",
     title: "Long Acre April planting",
+    machine: "Reedling 5-arm transplanter",
     startUtc: "2026-04-14T07:10:00Z",
     seed: 2026041401,
     profile: "Inter-row hoeing",
@@ -48,6 +80,7 @@ export const DEMO_SEASON: SeasonAuditSpec[] = [
   {
     field: "Willow Strip",
     title: "Willow Strip May planting",
+    machine: "Reedling 5-arm transplanter",
     startUtc: "2026-05-05T06:30:00Z",
     seed: 2026050501,
     profile: "Inter-row hoeing",
@@ -56,6 +89,7 @@ export const DEMO_SEASON: SeasonAuditSpec[] = [
   {
     field: "Long Acre",
     title: "Long Acre May planting",
+    machine: "Reedling 5-arm transplanter",
     startUtc: "2026-05-19T06:40:00Z",
     seed: 2026051901,
     profile: "In-row weeding around plants",
@@ -64,6 +98,7 @@ export const DEMO_SEASON: SeasonAuditSpec[] = [
   {
     field: "Long Acre",
     title: "Long Acre June planting",
+    machine: "Reedling 5-arm transplanter",
     startUtc: "2026-06-16T05:50:00Z",
     seed: 2026061601,
     profile: "Inter-row hoeing",
@@ -74,6 +109,7 @@ export const DEMO_SEASON: SeasonAuditSpec[] = [
   {
     field: "Willow Strip",
     title: "Willow Strip June planting",
+    machine: "Sedgeway 4-arm planter",
     startUtc: "2026-06-23T06:15:00Z",
     seed: 2026062301,
     profile: "Inter-row hoeing",
@@ -103,6 +139,10 @@ export async function seedDemoSeason(orgId: string, fieldIds: Record<string, str
   const lead = await viewerFor(orgId, "qa_lead");
   const profiles = await listProfiles(db, { orgId });
   const profileId = (name: string) => profiles.find((p) => p.name === name)!.id;
+  const machineIds: Record<string, string> = {};
+  for (const m of DEMO_MACHINES)
+    machineIds[m.name] = (await createMachine(db, { orgId, userId: lead.userId, input: { ...m } })).id;
+  await saveAlertRules(db, { orgId, userId: lead.userId, input: DEMO_ALERT_RULES });
   for (const s of DEMO_SEASON) {
     const base = DEMO_FIELDS.find((f) => f.name === s.field)!;
     const spec: DemoFieldSpec = { ...base, startUtc: s.startUtc, seed: s.seed, shiftE: s.shiftE, shiftN: s.shiftN };
@@ -120,6 +160,7 @@ export async function seedDemoSeason(orgId: string, fieldIds: Record<string, str
         bytes: encoder.encode(text),
         crs,
         acceptWarnings: true,
+        machineId: kind === "planted" ? machineIds[s.machine] : undefined,
       });
     const planted = await upload("planted", files.plantedCsv, DEMO_PLANTED_CRS);
     // The failed audit: the survey was uploaded as ED50 / UTM 31N although it is ETRS89, so the datum shift moves
@@ -166,4 +207,6 @@ export async function seedDemoSeason(orgId: string, fieldIds: Record<string, str
       });
     }
   }
+  // The alert checks run in the background after each computation; let them finish before the demo opens.
+  await settleAlertChecks();
 }

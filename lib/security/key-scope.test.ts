@@ -28,6 +28,7 @@ describe("keyScopeAllows", () => {
     expect(keyScopeAllows("upload", "GET", "/api/datasets/d1")).toBe(true);
     expect(keyScopeAllows("upload", "GET", "/api/datasets/d1/file")).toBe(true);
     expect(keyScopeAllows("upload", "GET", "/api/fields/")).toBe(true); // trailing slash, same route
+    expect(keyScopeAllows("upload", "GET", "/api/machines")).toBe(true); // to name the machine in the upload
   });
 
   it("keyScopeAllows -- an upload key may do nothing else", () => {
@@ -45,6 +46,9 @@ describe("keyScopeAllows", () => {
       ["GET", `/api/fields/${FIELD}/map`],
       ["GET", `/api/fields/${FIELD}/derived`],
       ["GET", "/api/me"],
+      ["POST", "/api/machines"],
+      ["GET", "/api/machines/m1/season"],
+      ["PUT", "/api/alerts/rules"],
       ["GET", "/fields"], // a page
       ["POST", `/fields/${FIELD}`], // a server action
       ["GET", "/api/fields/x/datasets/../../../team"],

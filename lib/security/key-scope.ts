@@ -18,7 +18,8 @@ export const SCOPE_LABEL: Record<ApiKeyScope, string> = {
 /** One line each: what a key with this scope may do. Also the second half of the 403 message. */
 export const SCOPE_ALLOWS: Record<ApiKeyScope, string> = {
   full: "everything its creator's current role may do",
-  upload: "listing and reading fields, uploading files to a field (POST /api/fields/:id/datasets) and reading datasets",
+  upload:
+    "listing and reading fields, uploading files to a field (POST /api/fields/:id/datasets), reading datasets and listing machines",
   read: "reading (GET requests) whatever its creator's role may read",
 };
 
@@ -38,6 +39,8 @@ const UPLOAD_ROUTES: readonly { methods: ReadonlySet<string>; path: readonly str
   { methods: new Set([...READS, "POST"]), path: ["api", "fields", "*", "datasets"] },
   { methods: READS, path: ["api", "datasets", "*"] },
   { methods: READS, path: ["api", "datasets", "*", "file"] },
+  // Machines (issue 13): the push names its machine, so it may list them to find the id.
+  { methods: READS, path: ["api", "machines"] },
 ];
 
 /**

@@ -40,4 +40,9 @@ export const UploadFields = z.object({
   presetName: z.string().trim().min(1).max(80).optional(),
   /** A survey's fieldwork as JSON (lib/validation/plan.ts FieldworkInput). */
   fieldwork: FieldworkField,
+  // Machines (issue 13): the machine that recorded an as-planted file; empty = not named.
+  machineId: z.preprocess(
+    (v) => (v === "" ? undefined : v),
+    z.uuid({ message: "machineId must be the id of one of your machines" }).optional(),
+  ),
 });

@@ -203,6 +203,16 @@ function AuditInputs({ audit }: { audit: AuditDto }) {
           "removed"
         )}
       </dd>
+      {audit.machine ? (
+        <>
+          <dt className="text-ink-faint">Machine</dt>
+          <dd data-testid="audit-machine">
+            <Link className="text-leaf hover:underline" href={`/machines/${audit.machine.id}/season`}>
+              {audit.machine.name}
+            </Link>
+          </dd>
+        </>
+      ) : null}
       <dt className="text-ink-faint">Survey file</dt>
       <dd>
         {audit.survey ? (

@@ -21,6 +21,7 @@ export function FileStep({
   kind,
   onBusy,
   onReset,
+  machineId,
 }: {
   file: File;
   preview: Preview;
@@ -28,9 +29,19 @@ export function FileStep({
   kind: FileKind;
   onBusy: (busy: boolean) => void;
   onReset: () => void;
+  /** As-planted only: the machine the uploader chose (issue 13). */
+  machineId?: string;
 }) {
   const mapping = useColumnMapping({ preview, field, kind });
-  const upload = useUpload({ file, field, kind, format: preview.format, setError: mapping.form.setError, onBusy });
+  const upload = useUpload({
+    file,
+    field,
+    kind,
+    format: preview.format,
+    setError: mapping.form.setError,
+    onBusy,
+    machineId,
+  });
   const locked = upload.uploading || upload.result.name === "saved";
 
   return (

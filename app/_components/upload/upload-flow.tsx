@@ -6,6 +6,7 @@ import { DropZone, fileProblem } from "./drop-zone";
 import { FileStep, type UploadField } from "./file-step";
 import type { FileKind } from "./mapping-schema";
 import { usePreview } from "./use-preview";
+import { MachinePicker } from "./machine-picker";
 
 const INTRO: Record<FileKind, string> = {
   planted:
@@ -15,8 +16,18 @@ const INTRO: Record<FileKind, string> = {
 };
 
 /** Choose a file → preview → columns → save, for one field and one kind of file. */
-export function UploadFlow({ field, kind }: { field: UploadField; kind: FileKind }) {
+export function UploadFlow({
+  field,
+  kind,
+  machines,
+}: {
+  field: UploadField;
+  kind: FileKind;
+  /** As-planted only: the organisation's machines to name the one that recorded the file (issue 13). */
+  machines?: { id: string; name: string; toolArms: number }[];
+}) {
   const [file, setFile] = useState<File | null>(null);
+  const [machineId, setMachineId] = useState("");
   const [generation, setGeneration] = useState(0);
   const [fileError, setFileError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -42,6 +53,9 @@ export function UploadFlow({ field, kind }: { field: UploadField; kind: FileKind
         </h2>
         <p className="mb-4 text-sm text-ink-soft">{INTRO[kind]}</p>
         <DropZone id="upload-file" onFile={take} disabled={busy} error={fileError} chosen={file} />
+        {kind === "planted" && machines ? (
+          <MachinePicker machines={machines} value={machineId} onChange={setMachineId} disabled={busy} />
+        ) : null}
       </section>
 
       {preview.status === "reading" ? (
@@ -63,6 +77,7 @@ export function UploadFlow({ field, kind }: { field: UploadField; kind: FileKind
           kind={kind}
           onBusy={setBusy}
           onReset={reset}
+          machineId={kind === "planted" && machineId ? machineId : undefined}
         />
       ) : null}
     </>

@@ -38,6 +38,7 @@ export function useUpload({
   format,
   setError,
   onBusy,
+  machineId,
 }: {
   file: File;
   field: UploadField;
@@ -45,6 +46,8 @@ export function useUpload({
   format: Preview["format"];
   setError: UseFormSetError<MappingValues>;
   onBusy: (busy: boolean) => void;
+  /** As-planted only: the machine that recorded the file (issue 13). */
+  machineId?: string;
 }) {
   const router = useRouter();
   const { mutate } = useSWRConfig();
@@ -84,6 +87,7 @@ export function useUpload({
     body.set("mapping", JSON.stringify(toColumnMapping(v, format)));
     body.set("acceptWarnings", acceptWarnings ? "true" : "false");
     if (v.savePreset && v.presetName.trim()) body.set("presetName", v.presetName.trim());
+    if (kind === "planted" && machineId) body.set("machineId", machineId);
     const { done, abort } = sendUpload(keys.fieldDatasets(field.id), body, {
       onTransfer: (transfer) => setProgress((p) => (p ? { ...p, transfer } : p)),
       onStage: (stage, fraction) =>

@@ -2,7 +2,13 @@ import "server-only";
 import { projectTable } from "@/geo";
 import { getDb } from "@/db/client";
 import { loadDatasetPoints } from "@/db/queries/datasets";
-import { getPreviousFieldAudit, listDiagnosticRows, type SeasonAuditRow } from "@/db/queries/diagnostics";
+import {
+  getPreviousFieldAudit,
+  getPreviousMachineAudit,
+  listDiagnosticRows,
+  type SeasonAuditRow,
+} from "@/db/queries/diagnostics";
+import { getDatasetMachine } from "@/db/queries/machines";
 import {
   type AuditDiagnostics,
   compareDiagnostics,
@@ -98,10 +104,41 @@ export async function diagnosticsOf(
 export interface DiagnosticsView {
   audit: AuditDto;
   diagnostics: AuditDiagnostics;
-  previous: { id: string; title: string; state: string; comparison: DiagnosticsComparison } | null;
+  /** The machine that recorded the as-planted records, when the upload named one. */
+  machine: { id: string; name: string } | null;
+  previous: {
+    id: string;
+    title: string;
+    state: string;
+    /** The previous audit of the same machine, else (no machine, or its first audit) of the same field. */
+    basis: "machine" | "field";
+    fieldName: string;
+    comparison: DiagnosticsComparison;
+  } | null;
 }
 
-/** The diagnostics page's data: this audit's diagnostics and the comparison with the field's previous audit. */
+/**
+ * The audit before this one to compare with: the same machine's previous audit (any field) when the as-planted
+ * upload named a machine and it has one, else the field's previous audit.
+ */
+export async function previousAuditFor(
+  orgId: string,
+  audit: { id: string; createdAt: string; fieldId: string; plantedDatasetId: string | null },
+): Promise<{ row: SeasonAuditRow; basis: "machine" | "field"; machine: { id: string; name: string } | null } | null> {
+  const db = await getDb();
+  const createdAt = new Date(audit.createdAt);
+  const machine = audit.plantedDatasetId
+    ? await getDatasetMachine(db, { datasetId: audit.plantedDatasetId, orgId })
+    : null;
+  if (machine) {
+    const row = await getPreviousMachineAudit(db, { orgId, machineId: machine.id, auditId: audit.id, createdAt });
+    if (row) return { row, basis: "machine", machine };
+  }
+  const row = await getPreviousFieldAudit(db, { orgId, fieldId: audit.fieldId, auditId: audit.id, createdAt });
+  return row ? { row, basis: "field", machine } : null;
+}
+
+/** The diagnostics page's data: this audit's diagnostics and the comparison with the previous audit (machine, else field). */
 export async function auditDiagnosticsFor(viewer: Viewer, params: { id: string }): Promise<DiagnosticsView> {
   const audit = await auditForViewer(viewer, params);
   const summary = requireSummary(audit);
@@ -111,19 +148,29 @@ export async function auditDiagnosticsFor(viewer: Viewer, params: { id: string }
     crs: summary.crs,
     confidence: summary.confidence,
   });
-  const db = await getDb();
-  const prev = await getPreviousFieldAudit(db, {
-    orgId: viewer.orgId,
+  const prev = await previousAuditFor(viewer.orgId, {
+    id: audit.id,
+    createdAt: audit.createdAt,
     fieldId: audit.field.id,
-    auditId: audit.id,
-    createdAt: new Date(audit.createdAt),
+    plantedDatasetId: audit.planted?.id ?? null,
   });
-  return { audit, diagnostics, previous: prev ? await compareWith(viewer.orgId, prev, diagnostics) : null };
+  const machine =
+    prev?.machine ??
+    (audit.planted
+      ? await getDatasetMachine(await getDb(), { datasetId: audit.planted.id, orgId: viewer.orgId })
+      : null);
+  return {
+    audit,
+    diagnostics,
+    machine,
+    previous: prev ? await compareWith(viewer.orgId, prev.row, prev.basis, diagnostics) : null,
+  };
 }
 
 async function compareWith(
   orgId: string,
   prev: SeasonAuditRow,
+  basis: "machine" | "field",
   current: AuditDiagnostics,
 ): Promise<DiagnosticsView["previous"]> {
   const before = await diagnosticsOf(orgId, {
@@ -136,6 +183,8 @@ async function compareWith(
     id: prev.id,
     title: prev.title,
     state: prev.state,
+    basis,
+    fieldName: prev.fieldName,
     comparison: compareDiagnostics(before, current, current.confidence),
   };
 }

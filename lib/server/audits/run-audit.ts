@@ -21,6 +21,7 @@ import { buildAuditSettings } from "@/lib/audit/settings";
 import type { AuditCreateInput } from "@/lib/validation/audit";
 import type { Viewer } from "@/lib/server/access";
 import { dispatchComputation } from "@/lib/server/jobs/queue";
+import { scheduleAlertCheck } from "@/lib/server/alerts/check";
 
 /**
  * Check the request, create the audit ("computing") and start the computation in the background.
@@ -188,6 +189,8 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
       reports: computed.reports,
       onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
     });
+    // Alerts (issue 13): checked in the background once the results are stored; a failure there is logged only.
+    scheduleAlertCheck(db, { id, orgId });
   } catch (err) {
     console.error("[plotproof] audit computation failed", err);
     await failAudit(db, { id, orgId, error: `The computation failed: ${(err as Error).message}` }).catch(() => {});

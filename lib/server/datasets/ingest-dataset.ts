@@ -16,6 +16,7 @@ import {
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { createDataset } from "@/db/queries/datasets";
+import { getMachineById } from "@/db/queries/machines";
 import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
 import type { Viewer } from "@/lib/server/access";
@@ -38,6 +39,8 @@ export interface IngestRequest {
   presetName?: string;
   /** A survey's fieldwork: the plan it was made from, the control-mark check, instrument, surveyor (optional). */
   fieldwork?: FieldworkInput | null;
+  /** As-planted only: the organisation's machine that recorded the file. */
+  machineId?: string;
   onProgress?: (stage: "reading" | "checking" | "saving", fraction: number) => void;
 }
 
@@ -61,6 +64,17 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
   const db = await getDb();
   const field = await getFieldById(db, { id: r.fieldId, orgId: r.viewer.orgId });
   if (!field) throw notFound("Field");
+  // Machines (issue 13): checked before the file is read, so a wrong machine saves nothing.
+  if (r.machineId) {
+    if (r.kind !== "planted")
+      throw new AppError("invalid_input", "Only as-planted records name a machine; a survey file does not.", [
+        { path: ["machineId"], message: "Leave the machine empty for a survey file" },
+      ]);
+    if (!(await getMachineById(db, { id: r.machineId, orgId: r.viewer.orgId })))
+      throw new AppError("invalid_input", "There is no such machine in this organisation. Choose one from the list.", [
+        { path: ["machineId"], message: "No such machine" },
+      ]);
+  }
   if (r.bytes.byteLength === 0) {
     throw new AppError("invalid_file", `${r.fileName} is empty.`, [
       {
@@ -162,6 +176,7 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     table: read.table,
     presetName: r.presetName,
     alsoSave: record ? (tx, datasetId) => createSurveyRecord(tx, { ...record, datasetId }) : undefined,
+    machineId: r.machineId ?? null,
   });
   progress("saving", 1);
   const [lon, lat] = centreLonLat(read.table, crs);

@@ -1,7 +1,13 @@
 /** The messages Plotproof sends, as plain text with a simple HTML twin. Our own wording. Pure. */
 import { ROLE_DUTY, ROLE_LABEL, type Role } from "@/lib/roles";
 
-export type MailKind = "invitation" | "password-reset" | "audit-submitted" | "audit-signed-off" | "audit-returned";
+export type MailKind =
+  | "invitation"
+  | "password-reset"
+  | "audit-submitted"
+  | "audit-signed-off"
+  | "audit-returned"
+  | "audit-alert";
 
 export interface MailContent {
   kind: MailKind;
@@ -117,4 +123,23 @@ export function auditReturnedMail(
     "Correct it and start a new revision here:",
     a.link,
   ]);
+}
+
+/** Alerts (issue 13): the organisation's thresholds an audit breached when it was computed. */
+export function auditAlertMail(
+  a: AuditMailFacts & { machineName: string | null; breaches: string[]; alertsLink: string },
+): MailContent {
+  return compose(
+    "audit-alert",
+    `Alert: ${a.title} crossed ${a.breaches.length === 1 ? "a threshold" : `${a.breaches.length} thresholds`}`,
+    [
+      `The audit “${a.title}” of ${a.fieldName}${a.machineName ? ` (machine ${a.machineName})` : ""} has been computed and crossed the alert thresholds ${a.orgName} set:`,
+      a.breaches.map((b) => `• ${b}`).join("\n"),
+      "The audit's diagnostics:",
+      a.link,
+      "All alerts:",
+      a.alertsLink,
+      "An alert says the records need a look before the next operation; it does not stop anything. Follow your own safety rules before working near the machine.",
+    ],
+  );
 }

@@ -79,7 +79,7 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
       );
     throw err;
   }
-  const { audit, diagnostics: d, previous } = view;
+  const { audit, diagnostics: d, previous, machine } = view;
   const tz = audit.field.timeZone;
   const h = d.headline;
   const pct = Math.round(d.confidence * 100);
@@ -99,6 +99,12 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
               Download the diagnostics (CSV)
             </a>{" "}
             · <TextLink href={`/fields/${audit.field.id}/season`}>the field's season</TextLink>
+            {machine ? (
+              <>
+                {" "}
+                · <TextLink href={`/machines/${machine.id}/season`}>{machine.name}'s season</TextLink>
+              </>
+            ) : null}
           </>
         }
       >
@@ -259,6 +265,13 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
       <Panel title={previous ? `Compared with “${previous.title}”` : "Compared with the previous audit"}>
         {previous ? (
           <div className="space-y-2 text-sm" data-testid="comparison">
+            <p className="text-ink-soft" data-testid="comparison-basis">
+              {previous.basis === "machine"
+                ? `The previous audit of the same machine${machine ? ` (${machine.name})` : ""}, on ${previous.fieldName}.`
+                : machine
+                  ? `The field's previous audit: this is the first audit of ${machine.name} with results.`
+                  : "The field's previous audit (the as-planted upload names no machine)."}
+            </p>
             <p className="font-medium">{previous.comparison.sentence}</p>
             <table className="w-full">
               <thead>
@@ -292,7 +305,11 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
             <TextLink href={`/audits/${previous.id}/diagnostics`}>Diagnostics of the previous audit</TextLink>
           </div>
         ) : (
-          <Empty>This is the field's first audit with results.</Empty>
+          <Empty>
+            {machine
+              ? `This is the first audit with results of this field and of ${machine.name}.`
+              : "This is the field's first audit with results."}
+          </Empty>
         )}
       </Panel>
 

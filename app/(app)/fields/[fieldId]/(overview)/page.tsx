@@ -57,6 +57,14 @@ export default async function FieldPage({ params }: { params: Promise<{ fieldId:
           <Link href={`/fields/${field.id}/map`} className="font-medium text-leaf hover:underline">
             Where can the records be trusted? Open the field map
           </Link>
+          {" · "}
+          <Link
+            href={`/fields/${field.id}/season`}
+            className="font-medium text-leaf hover:underline"
+            data-testid="field-season-link"
+          >
+            The field's season: its audits over the months
+          </Link>
         </p>
       ) : null}
       {canPrepare ? (

@@ -5,6 +5,7 @@ import { z } from "zod";
 import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
+import { listMachines } from "@/db/queries/machines";
 import { CAN_PREPARE } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { FieldSafetyNote, PageTitle } from "@/app/_components/ui";
@@ -28,6 +29,7 @@ export default async function UploadPage({
   const field = await getFieldById(await getDb(), { id: fieldId, orgId: viewer.orgId });
   if (!field) notFound();
   const { kind } = KindParam.parse(await searchParams);
+  const machines = kind === "planted" ? await listMachines(await getDb(), { orgId: viewer.orgId }) : undefined;
   return (
     <>
       <PageTitle
@@ -59,7 +61,12 @@ export default async function UploadPage({
           <FieldSafetyNote />
         </div>
       ) : null}
-      <UploadFlow key={kind} field={{ id: field.id, name: field.name, crs: field.crs }} kind={kind} />
+      <UploadFlow
+        key={kind}
+        field={{ id: field.id, name: field.name, crs: field.crs }}
+        kind={kind}
+        machines={machines?.map((m) => ({ id: m.id, name: m.name, toolArms: m.toolArms }))}
+      />
     </>
   );
 }

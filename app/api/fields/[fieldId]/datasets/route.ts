@@ -19,7 +19,7 @@ export const GET = guardedRoute<{ fieldId: string }>(ANY_ROLE, async ({ viewer, 
 
 /**
  * Upload an as-planted or survey file (multipart: file, kind, crs?, mapping?, acceptWarnings?, presetName?,
- * fieldwork? — a survey's plan, control-mark check and instrument as JSON).
+ * fieldwork? — a survey's plan, control-mark check and instrument as JSON; machineId? — an as-planted file's machine).
  * With `Accept: application/x-ndjson` the answer streams progress lines and ends with the result.
  */
 export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req, viewer, params }) => {
@@ -44,6 +44,7 @@ export const POST = guardedRoute<{ fieldId: string }>(CAN_PREPARE, async ({ req,
     acceptWarnings: fields.acceptWarnings,
     presetName: fields.presetName,
     fieldwork: fields.fieldwork,
+    machineId: fields.machineId,
   };
 
   if (!(req.headers.get("accept") ?? "").includes("application/x-ndjson")) {
