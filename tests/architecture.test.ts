@@ -22,8 +22,10 @@ function projectOptions() {
 }
 
 /** "rule: from → to" for every violation. */
+/** "rule: from → to", an installed package named as imported (it resolves to a file under node_modules when present). */
 function violations(result: ICruiseResult): string[] {
-  return result.summary.violations.map((v) => `${v.rule.name}: ${v.from} → ${v.to}`).sort();
+  const named = (to: string) => to.replace(/^(?:\.\.\/)*node_modules\/((?:@[^/]+\/)?[^/]+)\/.*$/, "$1");
+  return result.summary.violations.map((v) => `${v.rule.name}: ${v.from} → ${named(v.to)}`).sort();
 }
 
 describe("layers", () => {
