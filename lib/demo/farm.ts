@@ -1,6 +1,6 @@
 /**
- * The demo scenario: a fictional farm business, Kestrel Fen Growers, on reclaimed polder land
- * in the Netherlands, and a fictional contractor used to show that organisations are kept apart.
+ * The demo scenario: a fictional farm business, Kestrel Fen Growers, on reclaimed fenland in eastern England
+ * (ETRS89 / UTM 31N, Europe/London), and a fictional contractor used to show that organisations are kept apart.
  * Everything here is invented for the demo.
  */
 
@@ -20,7 +20,7 @@ export const OTHER_OWNER = { role: "owner", name: "Corin Dale", email: "corin@sa
 
 /** Work CRS of the farm: ETRS89 / UTM zone 31N. */
 export const DEMO_CRS = "EPSG:25831";
-export const DEMO_TIME_ZONE = "Europe/Amsterdam";
+export const DEMO_TIME_ZONE = "Europe/London";
 
 export interface DemoFieldSpec {
   name: string;
@@ -55,8 +55,8 @@ export const DEMO_FIELDS: DemoFieldSpec[] = [
     name: "Long Acre",
     farm: "Kestrel Fen",
     crop: "lettuce",
-    originE: 662_410,
-    originN: 5_821_330,
+    originE: 317_960,
+    originN: 5_816_690,
     bearingDeg: 22.5,
     beds: 6,
     rowsPerBed: 5,
@@ -65,7 +65,7 @@ export const DEMO_FIELDS: DemoFieldSpec[] = [
     plantSpacingM: 0.3,
     plantsPerRow: 160,
     surveyEvery: 12,
-    startUtc: "2026-04-14T21:40:00Z",
+    startUtc: "2026-04-14T22:40:00Z",
     secondsPerPlant: 2.6,
     idPrefix: "LA",
     seed: 20260414,
@@ -74,8 +74,8 @@ export const DEMO_FIELDS: DemoFieldSpec[] = [
     name: "Willow Strip",
     farm: "Kestrel Fen",
     crop: "celeriac",
-    originE: 663_105,
-    originN: 5_820_870,
+    originE: 320_620,
+    originN: 5_814_920,
     bearingDeg: 112,
     beds: 4,
     rowsPerBed: 4,
@@ -95,5 +95,5 @@ export const OTHER_FIELD = {
   name: "Saltings Trial Plot",
   farm: "Saltings",
   crs: "EPSG:25831",
-  timeZone: "Europe/Amsterdam",
+  timeZone: "Europe/London",
 };

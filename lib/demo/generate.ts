@@ -50,7 +50,8 @@ export function generateDemoFiles(spec: DemoFieldSpec): DemoFiles {
   const survey = ["plant_id,method,precision_m,easting,northing,observed_at"];
   let plantCount = 0;
   let checkpointCount = 0;
-  const surveyStart = start + 6 * 86_400_000;
+  // The check survey six days later, in daylight (09:30 UTC), whatever time of day the planting was.
+  const surveyStart = Math.floor(start / 86_400_000) * 86_400_000 + 6 * 86_400_000 + 9.5 * 3_600_000;
 
   for (let bed = 1; bed <= spec.beds; bed++) {
     for (let row = 1; row <= spec.rowsPerBed; row++) {

@@ -77,10 +77,10 @@ test("field form -- technician creates Reed Margin with a CRS from the search li
   const projected = structuredClone(BOUNDARY);
   projected.geometry.coordinates = [
     [
-      [662410, 5821330],
-      [662500, 5821330],
-      [662500, 5821500],
-      [662410, 5821330],
+      [317960, 5816690],
+      [318050, 5816690],
+      [318050, 5816860],
+      [317960, 5816690],
     ],
   ];
   await form.boundaryFromFile({

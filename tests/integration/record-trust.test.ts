@@ -83,9 +83,9 @@ describe("record trust through the API", () => {
     const rows = Papa.parse<Record<string, string>>(text, { header: true, comments: "#", skipEmptyLines: true }).data;
     expect(new Set(rows.map((r) => r.plant_id))).toEqual(floatIds);
     expect(rows.every((r) => r.judgement === "do not rely" && r.fix === "rtk-float")).toBe(true);
-    // Long Acre lies near 662,4xx E, 5,821,3xx N (ETRS89 / UTM 31N)
-    expect(Number(rows[0].easting)).toBeGreaterThan(662_000);
-    expect(Number(rows[0].northing)).toBeGreaterThan(5_821_000);
+    // Long Acre lies near 317,9xx E, 5,816,7xx N (ETRS89 / UTM 31N)
+    expect(Number(rows[0].easting)).toBeGreaterThan(317_900);
+    expect(Number(rows[0].northing)).toBeGreaterThan(5_816_600);
   });
 
   it("exclusions -- GeoJSON points with the audit and profile in its own member", async () => {

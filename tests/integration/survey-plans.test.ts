@@ -163,7 +163,7 @@ describe("survey plans through the API", () => {
     // and the other organisation cannot upload against this organisation's plan in its own field
     const r = await upload(
       cookies.other,
-      "plant_id,easting,northing\nA,663105,5820870\n",
+      "plant_id,easting,northing\nA,320620,5814920\n",
       "s.csv",
       { kind: "survey", crs: "EPSG:25831", acceptWarnings: "true", fieldwork: JSON.stringify({ planId: demoPlan.id }) },
       foreignFieldId,
@@ -182,7 +182,7 @@ describe("survey plans through the API", () => {
     expect(text.split("\r\n")[0]).toBe("point,easting,northing,plant_id,crop,bed,row,arm,kind");
     const first = text.split("\r\n")[1].split(",");
     expect(first[0]).toMatch(/^C0001-B1$/);
-    expect(Number(first[1])).toBeGreaterThan(663_000); // ETRS89 / UTM 31N easting near the field's origin
+    expect(Number(first[1])).toBeGreaterThan(320_000); // ETRS89 / UTM 31N easting near the field's origin
     const again = await routes.plans.POST(
       post(`/api/fields/${fieldId}/plans`, cookies.qa_lead, {
         ...demoPlan.parameters,
@@ -259,7 +259,7 @@ describe("survey plans through the API", () => {
   });
 
   it("control marks -- QA lead adds one; a technician may not; a duplicate name is refused", async () => {
-    const body = { name: "WS-CM2", e: 663100.5, n: 5820860.25, h: null, description: "Second pin", source: "test" };
+    const body = { name: "WS-CM2", e: 320615.5, n: 5814910.25, h: null, description: "Second pin", source: "test" };
     expect(
       (
         await routes.marks.POST(
@@ -326,7 +326,7 @@ describe("survey plans through the API", () => {
     );
     const nomatch = await upload(
       cookies.technician,
-      "plant_id,easting,northing\nQQ-1,663105.1,5820870.1\nQQ-2,663106.1,5820870.1\n",
+      "plant_id,easting,northing\nQQ-1,320620.1,5814920.1\nQQ-2,320621.1,5814920.1\n",
       "nomatch.csv",
       {
         kind: "survey",
