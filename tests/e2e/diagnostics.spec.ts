@@ -22,12 +22,19 @@ test("season -- the QA lead follows Long Acre through the demo season and opens 
   const id = await fieldId(page, "Long Acre");
   await page.goto(`/fields/${id}/season`);
   await expect(page.getByRole("heading", { level: 1 })).toHaveText("Season: Long Acre");
-  // Three audits of Long Acre with results: the April one signed off (filled), May and June not (hollow)
+  // The demo season's three audits of Long Acre: the April one signed off (filled), May and June not (hollow).
+  // Other browser tests add audits of Long Acre, so the season holds at least these.
   const headline = page.getByTestId("season-headline");
-  await expect(headline.locator('circle[data-signed="yes"]')).toHaveCount(1);
-  await expect(headline.locator('circle[data-signed="no"]')).toHaveCount(2);
-  await expect(page.getByTestId("season-table").locator("tbody tr")).toHaveCount(3);
-  await expect(page.getByTestId("season-table")).toContainText("arm 3");
+  expect(await headline.locator('circle[data-signed="yes"]').count()).toBeGreaterThanOrEqual(1);
+  expect(await headline.locator('circle[data-signed="no"]').count()).toBeGreaterThanOrEqual(2);
+  const table = page.getByTestId("season-table");
+  const row = (title: string) => table.locator("tbody tr", { hasText: title });
+  await expect(row("Long Acre April planting")).toContainText("Signed off");
+  for (const t of ["Long Acre May planting", "Long Acre June planting"]) {
+    await expect(row(t)).toHaveCount(1);
+    await expect(row(t)).not.toContainText("Signed off");
+  }
+  await expect(table).toContainText("arm 3");
 
   await page.getByRole("link", { name: "Long Acre April planting" }).click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText("Diagnostics: Long Acre April planting");
