@@ -3,6 +3,10 @@ import { armDiagnostics } from "./arm-offsets";
 import { compareDiagnostics } from "./compare";
 import { simulatePairs } from "../test-helpers";
 
+// Sources: Welch's t-test (Welch, Biometrika 34 (1947) 28–35) for per-arm means; F-test of variances (NIST/SEMATECH
+// e-Handbook §1.3.5.9) for the horizontal RMSE with 2n degrees of freedom (two components per checkpoint). Expected
+// directions are the offsets and spreads planted in the simulated pairs (common practice, no source).
+
 const headline = (pairs: ReturnType<typeof simulatePairs>) => ({
   pairs: pairs.length,
   rmseR: Math.sqrt(pairs.reduce((s, p) => s + p.dE ** 2 + p.dN ** 2, 0) / pairs.length),
@@ -10,6 +14,7 @@ const headline = (pairs: ReturnType<typeof simulatePairs>) => ({
 
 describe("compareDiagnostics", () => {
   it("compareDiagnostics -- a fixed arm offset shows as a significant move of that arm", () => {
+    // expected: arm 3's planted 3 mm offset removed between the two simulations (common practice, no source)
     const before = simulatePairs({ armCross: [0, 0, 0.003, 0], seed: 1 });
     const after = simulatePairs({ armCross: [0, 0, 0, 0], seed: 2 });
     const c = compareDiagnostics(
@@ -24,6 +29,7 @@ describe("compareDiagnostics", () => {
     expect(c.rmseR.relative!).toBeLessThan(0);
   });
   it("compareDiagnostics -- horizontal RMSE F-test with 2n degrees of freedom", () => {
+    // expected: spread doubled from 2 mm to 4 mm between the simulations; F-test per NIST/SEMATECH e-Handbook §1.3.5.9
     const before = simulatePairs({ seed: 3, sd: 0.002 });
     const after = simulatePairs({ seed: 4, sd: 0.004 });
     const c = compareDiagnostics(

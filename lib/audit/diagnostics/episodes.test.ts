@@ -2,6 +2,9 @@ import { describe, expect, it } from "vitest";
 import { degradedFixEpisodes, errorJumps, passSeries, type PlantedTrack } from "./episodes";
 import { simulatePairs } from "../test-helpers";
 
+// Sources: the error-jump rule is median + 3 scaled MAD (Hampel, J. Amer. Statist. Assoc. 69 (1974) 383–393; scale
+// 1.4826 for the normal); episode ranges are the float stretches planted in the hand-built track (common practice, no source).
+
 /** Every record of rows 1–4 (100 plants each, 3 s apart, side by side); rows 2–3 plants 31–80 float. */
 function track(): PlantedTrack {
   const n = 400;
@@ -22,6 +25,7 @@ function track(): PlantedTrack {
 
 describe("degradedFixEpisodes", () => {
   it("degradedFixEpisodes -- one episode with the exact plant range of each row", () => {
+    // expected: rows 2–3, plants 31–80 set to float in track() above, 3 s apart (common practice, no source)
     const eps = degradedFixEpisodes(track(), []);
     expect(eps).toHaveLength(1);
     expect(eps[0].parts.map((p) => [p.row, p.firstPlantId, p.lastPlantId, p.count])).toEqual([
@@ -33,6 +37,7 @@ describe("degradedFixEpisodes", () => {
     expect(eps[0].end! - eps[0].start!).toBe(49 * 3000);
   });
   it("degradedFixEpisodes -- two outages far apart in time are two episodes", () => {
+    // expected: plants 91–100 of row 1 set to DGPS, 33 s after the float stretch (common practice, no source)
     const t = track();
     const base = t.fix;
     const k = (i: number) => i % 100;
@@ -45,6 +50,7 @@ describe("degradedFixEpisodes", () => {
 
 describe("errorJumps", () => {
   it("errorJumps -- finds a run of large errors and marks it as explained by the float fix", () => {
+    // expected: the float stretch planted in rows 2–3 of the simulation; Hampel (1974) 3-MAD rule flags it
     const pairs = simulatePairs({ rows: 4, float: { rows: [2, 3], from: 10, to: 20, along: 0.03, cross: 0.012 } });
     const fixEps = degradedFixEpisodes(
       {
@@ -68,12 +74,14 @@ describe("errorJumps", () => {
     expect(jumps[0].duringDegradedFix).toBe(true);
   });
   it("errorJumps -- nothing on clean data", () => {
+    // Hampel (1974): no value beyond median + 3 scaled MAD in simulated N(0, σ) errors of this seed
     expect(errorJumps(simulatePairs({ rows: 4 }), [])).toEqual([]);
   });
 });
 
 describe("passSeries", () => {
   it("passSeries -- planting order, unknown times last", () => {
+    // common practice, no source: checkpoints without a planting time go last
     const pairs = simulatePairs({ rows: 2, checkpointsPerRow: 3 });
     pairs[0] = { ...pairs[0], time: null };
     const s = passSeries(pairs);

@@ -2,6 +2,9 @@ import { describe, expect, it } from "vitest";
 import jStat from "jstat";
 import { fCdf, varianceRatioTest } from "./f-test";
 
+// Sources: scipy 1.17.1 stats.f (computed on this machine) and jstat 1.9.6 as independent oracles; NIST/SEMATECH
+// e-Handbook §1.3.6.7.3 F distribution table.
+
 describe("fCdf", () => {
   it("fCdf -- agrees with scipy and jstat (independent oracles)", () => {
     // scipy 1.17.1 stats.f.cdf(2, 20, 20) = 0.9352338272090371; stats.f.cdf(0.5, 5, 12) = 0.22923615040316783;
@@ -20,6 +23,7 @@ describe("fCdf", () => {
     expect(fCdf(2.978, 10, 10)).toBeCloseTo(0.95, 3);
   });
   it("varianceRatioTest -- two-sided p-value", () => {
+    // two-sided p = 2·(1 − F(ratio)); scipy 1.17.1 stats.f.cdf(2, 20, 20) = 0.9352338272090371
     const r = varianceRatioTest(1, 20, 2, 20)!;
     expect(r.ratio).toBe(2);
     expect(r.p).toBeCloseTo(2 * (1 - 0.9352338272090371), 10); // scipy 1.17.1 as above
