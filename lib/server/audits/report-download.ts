@@ -29,10 +29,11 @@ function noResults(audit: AuditDto): AppError {
   );
 }
 
-function fileName(audit: AuditDto, kind: string): string {
+/** A download's name: field, audit title, revision, computation day and what it holds, e.g. `…_rev2_2026-04-20_summary.csv`. */
+export function auditFileName(audit: AuditDto, kind: string, extension = "csv"): string {
   const day = (audit.computedAt ?? audit.createdAt).slice(0, 10);
   const rev = audit.revision > 1 ? `_rev${audit.revision}` : "";
-  return `plotproof_${fileSlug(audit.field.name)}_${fileSlug(audit.title)}${rev}_${day}_${kind}.csv`;
+  return `plotproof_${fileSlug(audit.field.name)}_${fileSlug(audit.title)}${rev}_${day}_${kind}.${extension}`;
 }
 
 function csvResponse(body: BodyInit, name: string): Response {
@@ -75,13 +76,13 @@ export async function downloadReport(
         ? await residualsVariant(viewer, audit, format)
         : await summaryVariant(viewer, audit, format);
     await logDownload(viewer, audit.id, { kind, format: sheetSuffix(format) });
-    return csvResponse(body, fileName(audit, `${kind}-${sheetSuffix(format)}`));
+    return csvResponse(body, auditFileName(audit, `${kind}-${sheetSuffix(format)}`));
   }
   const db = await getDb();
   const bytes = await getAuditReport(db, { auditId: audit.id, kind });
   if (!bytes) throw noResults(audit);
   await logDownload(viewer, audit.id, { kind });
-  return csvResponse(bytes as BodyInit, fileName(audit, kind));
+  return csvResponse(bytes as BodyInit, auditFileName(audit, kind));
 }
 
 const BATCH = 2000;

@@ -19,6 +19,7 @@ import {
   rowStretches,
 } from "@/lib/map/exclusions";
 import { contentDisposition, fileSlug } from "@/lib/http";
+import { auditFileName } from "@/lib/server/audits/report-download";
 import type { RecordTrustQuery } from "@/lib/validation/audit";
 import { recordTrustDto, type RecordTrustDto } from "@/lib/map/record-guidance";
 
@@ -208,9 +209,7 @@ export async function recordTrustResponse(
     subjectId: audit.id,
     detail: { kind: `exclusions.${format}`, profile: r.dto.profile.name, records: String(records.length) },
   });
-  const day = (audit.computedAt ?? audit.createdAt).slice(0, 10);
-  const rev = audit.revision > 1 ? `_rev${audit.revision}` : "";
-  const name = `plotproof_${fileSlug(audit.field.name)}_${fileSlug(audit.title)}${rev}_${day}_do-not-rely_${fileSlug(r.dto.profile.name)}.${format}`;
+  const name = auditFileName(audit, `do-not-rely_${fileSlug(r.dto.profile.name)}`, format);
   const body =
     format === "csv" ? `\uFEFF${exclusionCsv(ctx, records)}` : JSON.stringify(exclusionGeoJson(ctx, records));
   return new Response(body, {
