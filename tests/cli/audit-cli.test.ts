@@ -12,7 +12,7 @@ const root = path.resolve(import.meta.dirname, "../..");
 const fx = (name: string) => path.join("tests/fixtures/engine", name);
 
 function audit(...args: string[]) {
-  const r = spawnSync(process.execPath, ["--import", "tsx", "lib/cli/audit.ts", ...args], {
+  const r = spawnSync(process.execPath, ["lib/cli/launch.mjs", "lib/cli/audit.ts", ...args], {
     cwd: root,
     encoding: "utf8",
     timeout: 60_000,
