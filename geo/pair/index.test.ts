@@ -312,3 +312,37 @@ describe("pairing", () => {
     for (let k = 0; k < n; k++) expect(perm[q.surveyIndex[k]]).toBe(q.plantedIndex[k]);
   });
 });
+
+describe("pairing -- cell grid and k-d tree", () => {
+  // Oracle: the same pairing with candidates from kdbush's k-d tree (a general-purpose index from the npm registry).
+  it("pairing -- the cell grid gives the same pairs, ambiguous points and unpaired lists as the k-d tree, on crowded random fields", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.double({ min: 0, max: 3, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true })), {
+          minLength: 1,
+          maxLength: 400,
+        }),
+        fc.array(
+          fc.tuple(
+            fc.double({ min: -0.05, max: 0.05, noNaN: true }),
+            fc.double({ min: -0.05, max: 0.05, noNaN: true }),
+          ),
+        ),
+        fc.double({ min: 0.02, max: 0.3, noNaN: true }),
+        (plants, jitter, maxDistanceM) => {
+          const planted = pts(plants.map(([e, n]) => [400_000 + e, 6_000_000 + n]));
+          const survey = pts(
+            plants.map(([e, n], i) => [400_000 + e + (jitter[i]?.[0] ?? 0.01), 6_000_000 + n + (jitter[i]?.[1] ?? 0)]),
+          );
+          const grid = pairPoints(planted, survey, { mode: "nearest", maxDistanceM });
+          const tree = pairPoints(planted, survey, { mode: "nearest", maxDistanceM, spatialIndex: "kd-tree" });
+          expect(pairsOf(grid)).toEqual(pairsOf(tree));
+          expect(Array.from(grid.ambiguousSurvey)).toEqual(Array.from(tree.ambiguousSurvey));
+          expect(Array.from(grid.unmatchedPlanted)).toEqual(Array.from(tree.unmatchedPlanted));
+          expect(Array.from(grid.unmatchedSurvey)).toEqual(Array.from(tree.unmatchedSurvey));
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+});

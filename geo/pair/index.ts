@@ -1,5 +1,6 @@
 import KDBush from "kdbush";
 import { indexIds, type IdColumn } from "../ids";
+import { buildCellGrid } from "./cell-grid";
 import { PAIRED_BY_ID, PAIRED_BY_POSITION, type Pairing } from "../types";
 
 /** The part of a table pairing needs: positions in one metric CRS, and ids when present. */
@@ -25,6 +26,8 @@ export interface PairOptions {
   ambiguityGap?: number;
   /** At most this many nearest planted candidates are considered per survey point (default 16). */
   maxCandidates?: number;
+  /** How candidates are found: "auto" (default) a uniform cell grid, or the k-d tree when points are spread too far for one; "kd-tree" always the tree. Results are the same; tests compare them. */
+  spatialIndex?: "auto" | "kd-tree";
 }
 
 /** Counts that explain a pairing, for messages. */
@@ -49,7 +52,8 @@ export const DEFAULT_MAX_PAIR_DISTANCE_M = 0.1;
  *
  * **By position** (modes "auto" — for survey points without a matching id and records not paired by
  * id — and "nearest"): candidate edges are all (survey, plant) pairs within `maxDistanceM`, found with
- * a static k-d tree (kdbush; at most `maxCandidates` nearest per survey point). Edges are then taken
+ * a uniform cell grid (or a static k-d tree, kdbush, when the points are spread too far for one; at most
+ * `maxCandidates` nearest per survey point). Edges are then taken
  * greedily in ascending distance; an edge is accepted when both ends are still free.
  * Guarantee: the result is the *stable* one-to-one matching — no survey point and plant that are not
  * paired with each other are nearer to each other than either is to its own partner (or unpaired),
@@ -134,10 +138,14 @@ export function pairPoints(
     if (nFree > 0) pairByPosition();
 
     function pairByPosition(): void {
-      // Leaves of 16: queries of a few centimetres touch fewer points than with the default 64.
-      const tree = new KDBush(freeP.length, 16, Float64Array);
-      for (let j = 0; j < freeP.length; j++) tree.add(px[freeP[j]], py[freeP[j]]);
-      tree.finish();
+      const tree = (options.spatialIndex !== "kd-tree" && buildCellGrid(px, py, freeP, maxDistanceM)) || kdTree();
+      function kdTree(): KDBush {
+        // Leaves of 16: queries of a few centimetres touch fewer points than with the default 64.
+        const t = new KDBush(freeP.length, 16, Float64Array);
+        for (let j = 0; j < freeP.length; j++) t.add(px[freeP[j]], py[freeP[j]]);
+        t.finish();
+        return t;
+      }
 
       // Candidate lists per survey point, nearest first. Survey points are visited in a spatial
       // order (coarse grid cells) so consecutive queries touch nearby tree nodes (cache-friendly).
