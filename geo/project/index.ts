@@ -1,6 +1,7 @@
 import proj4 from "proj4";
 import { geographicOf, resolveCrs, sameDefinition, utmFor, type CrsEntry } from "../crs/registry";
 import type { PointTable, ProjectedTable } from "../types";
+import { isTransverseMercator, transverseMercatorForward } from "./transverse-mercator";
 
 /** A CRS given as an entry or as text ("EPSG:n", proj string). */
 export type CrsLike = CrsEntry | string;
@@ -102,6 +103,17 @@ export function convertArrays(
   const p = [0, 0];
   if (fe.kind === "geographic" && te.kind === "projected" && n >= 64 && fastPathAgrees(x, y, f, t, c)) {
     const dest = projObject(t);
+    if (isTransverseMercator(dest)) {
+      // Whole arrays at once (UTM and other transverse Mercator targets: nearly every field); bit-for-bit proj4.
+      transverseMercatorForward(dest, x, y, D2R, ox, oy);
+      for (let i = 0; i < n; i++) {
+        const xi = x[i],
+          yi = y[i];
+        if (xi !== xi || yi !== yi || yi > 90 || yi < -90 || !(ox[i] - ox[i] === 0) || !(oy[i] - oy[i] === 0))
+          slow(i, p);
+      }
+      return [ox, oy];
+    }
     const pt = { x: 0, y: 0 };
     for (let i = 0; i < n; i++) {
       const xi = x[i],
