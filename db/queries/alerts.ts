@@ -1,5 +1,5 @@
 import "server-only";
-import { and, count, desc, eq, isNull } from "drizzle-orm";
+import { and, count, desc, eq, inArray, isNull } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { DB } from "@/db/client";
 import { alertBreach, alertRule, audit, datasetMachine, field, machine, user } from "@/db/schema";
@@ -36,17 +36,32 @@ export async function saveAlertRules(
   return getAlertRules(db, { orgId });
 }
 
-/** Store the breaches found for one audit (replacing any found before, e.g. by an earlier computation). */
+/**
+ * Store the breaches found for one audit, replacing those of an earlier computation of it: a breach found again
+ * word for word (same kind and sentence) keeps its row, so its time and acknowledgement stay; one no longer found
+ * goes. Returns the breaches that are new, the only ones worth telling anyone about.
+ */
 export async function storeAlertBreaches(
   db: DB,
   { orgId, auditId, findings }: { orgId: string; auditId: string; findings: AlertFinding[] },
-): Promise<void> {
-  await db.transaction(async (tx) => {
-    await tx.delete(alertBreach).where(and(eq(alertBreach.auditId, auditId), eq(alertBreach.orgId, orgId)));
-    if (findings.length)
+): Promise<AlertFinding[]> {
+  return db.transaction(async (tx) => {
+    const where = and(eq(alertBreach.auditId, auditId), eq(alertBreach.orgId, orgId));
+    const stored = await tx
+      .select({ id: alertBreach.id, kind: alertBreach.kind, message: alertBreach.message })
+      .from(alertBreach)
+      .where(where);
+    const key = (kind: string, message: string) => `${kind}\u0000${message}`;
+    const found = new Set(findings.map((f) => key(f.kind, f.message)));
+    const gone = stored.filter((r) => !found.has(key(r.kind, r.message))).map((r) => r.id);
+    if (gone.length) await tx.delete(alertBreach).where(and(where, inArray(alertBreach.id, gone)));
+    const kept = new Set(stored.map((r) => key(r.kind, r.message)));
+    const fresh = findings.filter((f) => !kept.has(key(f.kind, f.message)));
+    if (fresh.length)
       await tx
         .insert(alertBreach)
-        .values(findings.map((f) => ({ orgId, auditId, kind: f.kind, message: f.message, detail: f.detail })));
+        .values(fresh.map((f) => ({ orgId, auditId, kind: f.kind, message: f.message, detail: f.detail })));
+    return fresh;
   });
 }
 

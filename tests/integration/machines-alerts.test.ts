@@ -265,6 +265,38 @@ describe("alerts", () => {
     expect(open).toHaveLength(alerts.length - 1);
   });
 
+  it("recomputed audit -- a breach found again keeps its row and acknowledgement and is not e-mailed again", async () => {
+    const { PATCH } = await import("@/app/api/alerts/[id]/route");
+    const list = async () =>
+      (await (await (await alertsRoute()).GET(req("/api/alerts", { cookie: cookies.owner }), ctx({}))).json())
+        .alerts as AlertDto[];
+    const before = await list();
+    const target = before.find((a) => a.acknowledgedAt === null)!;
+    const ofAudit = before.filter((a) => a.audit.id === target.audit.id);
+    for (const a of ofAudit)
+      expect(
+        (await PATCH(json(`/api/alerts/${a.id}`, "PATCH", cookies.qa_lead, { acknowledged: true }), ctx({ id: a.id })))
+          .status,
+      ).toBe(200);
+    const { removeAuditRows } = await import("@/db/queries/audits");
+    const { computeStoredAudit } = await import("@/lib/server/audits/run-audit");
+    const { settleAlertChecks } = await import("@/lib/server/alerts/check");
+    const [{ org_id: orgId, title }] = (
+      await db.execute(sql`select org_id, title from audit where id = ${target.audit.id}`)
+    ).rows as { org_id: string; title: string }[];
+    await removeAuditRows(db, { id: target.audit.id });
+    await db.execute(
+      sql`update audit set state = 'computing', summary = null, verdict = null where id = ${target.audit.id}`,
+    );
+    mail.clear();
+    await computeStoredAudit(db, { id: target.audit.id, orgId });
+    await settleAlertChecks();
+    const after = (await list()).filter((a) => a.audit.id === target.audit.id);
+    expect(after.map((a) => a.id).sort()).toEqual(ofAudit.map((a) => a.id).sort());
+    expect(after.every((a) => a.acknowledgedAt !== null)).toBe(true);
+    expect(mail.messages.filter((m) => m.subject.includes(title))).toHaveLength(0);
+  }, 120_000);
+
   it("computed audit -- a technician's audit that breaches is stored and e-mailed to owners and QA leads only", async () => {
     const { PUT } = await rulesRoute();
     expect(

@@ -13,8 +13,9 @@ import { auditAlertMail } from "@/lib/server/mail/templates";
 
 /**
  * Check a freshly computed audit against its organisation's alert thresholds: store the breaches (replacing any
- * found by an earlier computation of the same audit) and e-mail them to the owners and QA leads. Returns the
- * breaches. Throws on a database error; the caller (scheduleAlertCheck) logs it.
+ * found by an earlier computation of the same audit; one found again keeps its acknowledgement) and e-mail the new
+ * ones to the owners and QA leads. Returns the new breaches. Throws on a database error; the caller
+ * (scheduleAlertCheck) logs it.
  */
 export async function checkAuditAlerts(db: DB, { id, orgId }: { id: string; orgId: string }): Promise<AlertFinding[]> {
   const rules = await getAlertRules(db, { orgId });
@@ -66,15 +67,15 @@ export async function checkAuditAlerts(db: DB, { id, orgId }: { id: string; orgI
     },
     previous,
   );
-  await storeAlertBreaches(db, { orgId, auditId: id, findings });
-  if (!findings.length) return findings;
+  const fresh = await storeAlertBreaches(db, { orgId, auditId: id, findings });
+  if (!fresh.length) return fresh;
   await logActivity(db, {
     orgId,
     actorId: null,
     action: "alert.raised",
     subjectType: "audit",
     subjectId: id,
-    detail: { kinds: findings.map((f) => f.kind) },
+    detail: { kinds: fresh.map((f) => f.kind) },
   });
   const [to, orgName] = await Promise.all([
     listMembersWithRoles(db, { orgId, roles: MAILED_ON_ALERT }),
@@ -90,12 +91,12 @@ export async function checkAuditAlerts(db: DB, { id, orgId }: { id: string; orgI
       link: `${base}/audits/${id}/diagnostics`,
       alertsLink: `${base}/alerts`,
       machineName: audit.machine?.name ?? null,
-      breaches: findings.map((f) => f.message),
+      breaches: fresh.map((f) => f.message),
     }),
     to.map((m) => m.email),
     { orgId, subject: { type: "audit", id } },
   );
-  return findings;
+  return fresh;
 }
 
 const pending = new Set<Promise<void>>();
