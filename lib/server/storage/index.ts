@@ -26,7 +26,7 @@ export interface StoredFile {
   objectKey: string | null;
 }
 
-const g = globalThis as unknown as { __plotproofObjects?: { store: ObjectStore | null; ready?: Promise<void> } };
+const g = globalThis as unknown as { __plotproofObjects?: { store: ObjectStore | null } };
 
 /** The object store of this process, or null when files live in the database. */
 export function objectStore(): ObjectStore | null {
@@ -35,24 +35,43 @@ export function objectStore(): ObjectStore | null {
     if (choice.kind === "database") g.__plotproofObjects = { store: null };
     else {
       const s3 = s3ObjectStore(choice.config);
-      const ready = s3.ensureBucket();
-      ready.catch(() => {}); // reported by the first put or get that awaits it
+      // The bucket is checked (and created if missing) once; a failure is tried again on the next use.
+      let ready: Promise<void> | null = null;
+      const bucket = () => {
+        ready ??= s3.ensureBucket().catch((err) => {
+          ready = null;
+          throw err;
+        });
+        return ready;
+      };
       const store: ObjectStore = {
         where: s3.where,
+        ensureBucket: bucket,
         put: async (k, b, t) => {
-          await ready;
+          await bucket();
           return s3.put(k, b, t);
         },
         get: async (k) => {
-          await ready;
+          await bucket();
           return s3.get(k);
         },
         delete: (k) => s3.delete(k),
       };
-      g.__plotproofObjects = { store, ready };
+      g.__plotproofObjects = { store };
     }
   }
   return g.__plotproofObjects.store;
+}
+
+/**
+ * At start-up (app instances, workers): where files are kept, as a line for the log. Throws when the object store is
+ * half configured or its bucket can neither be found nor created, so a wrong setting stops the process at once.
+ */
+export async function checkFileStorage(): Promise<string> {
+  const store = objectStore();
+  if (!store) return "[plotproof] files (uploads, reports) are kept in the database.";
+  await store.ensureBucket?.();
+  return `[plotproof] files (uploads, reports) are kept in the object store: ${store.where}.`;
 }
 
 /** Tests choose the store (null: the database); undefined goes back to the environment's choice. */

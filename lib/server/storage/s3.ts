@@ -17,6 +17,8 @@ export interface ObjectStore {
   /** The object's bytes, or null when there is no such object. */
   get(key: string): Promise<Uint8Array | null>;
   delete(key: string): Promise<void>;
+  /** Find the bucket, or create it when missing. */
+  ensureBucket?(): Promise<void>;
 }
 
 /** An S3-compatible object store through the AWS SDK (path-style addressing, so any S3-compatible server works). */
