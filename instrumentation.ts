@@ -3,6 +3,8 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { getDb } = await import("./db/client");
   const db = await getDb();
+  const { checkFileStorage } = await import("./lib/server/storage");
+  console.log(await checkFileStorage());
   // Audits left "computing" by a server that stopped (kill, crash, power): compute them again, or mark them
   // failed after repeated interruptions. Before the demo seed and any request, so none of this process's own
   // computations is mistaken for an interrupted one; the computing itself goes on in the background.

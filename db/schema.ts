@@ -200,14 +200,24 @@ export const dataset = pgTable(
   (t) => [index("dataset_org_field_idx").on(t.orgId, t.fieldId)],
 );
 
-/** The uploaded file exactly as received, kept apart so listings never load it. */
-export const datasetFile = pgTable("dataset_file", {
-  datasetId: uuid("dataset_id")
-    .primaryKey()
-    .references(() => dataset.id, { onDelete: "restrict" }),
-  contentType: text("content_type").notNull(),
-  bytes: bytea("bytes").notNull(),
-});
+/**
+ * The uploaded file exactly as received, kept apart so listings never load it. Embedded mode keeps the bytes here;
+ * server mode with an object store keeps them there under a write-once key (lib/server/storage), size and SHA-256
+ * staying on the dataset row. Exactly one of the two is set.
+ */
+export const datasetFile = pgTable(
+  "dataset_file",
+  {
+    datasetId: uuid("dataset_id")
+      .primaryKey()
+      .references(() => dataset.id, { onDelete: "restrict" }),
+    contentType: text("content_type").notNull(),
+    bytes: bytea("bytes"),
+    /** Key of the object holding the bytes (object storage), never reused or overwritten. */
+    objectKey: text("object_key"),
+  },
+  (t) => [check("dataset_file_bytes_or_object", sql`(${t.bytes} is null) <> (${t.objectKey} is null)`)],
+);
 
 /**
  * Named limits tied to the operation that will use the records. Lengths in metres; a null limit is not checked.
@@ -423,9 +433,20 @@ export const auditReport = pgTable(
     kind: text("kind").notNull(),
     /** A large report is stored in parts of at most REPORT_PART_BYTES, in order; read them back joined. */
     part: integer("part").notNull().default(0),
-    bytes: bytea("bytes").notNull(),
+    /** In the database (embedded mode, or server mode without an object store)… */
+    bytes: bytea("bytes"),
+    /** …or one object of the object store (write-once key), with its size and SHA-256 to check it on reading. */
+    objectKey: text("object_key"),
+    sizeBytes: bigint("size_bytes", { mode: "number" }),
+    sha256: text("sha256"),
   },
-  (t) => [primaryKey({ columns: [t.auditId, t.kind, t.part] })],
+  (t) => [
+    primaryKey({ columns: [t.auditId, t.kind, t.part] }),
+    check(
+      "audit_report_bytes_or_object",
+      sql`(${t.bytes} is null) <> (${t.objectKey} is null) and (${t.objectKey} is null or (${t.sizeBytes} is not null and ${t.sha256} is not null))`,
+    ),
+  ],
 );
 
 // ---------------------------------------------------------------------------

@@ -190,7 +190,12 @@ export async function storeAuditResult(
     /** The per-plant rows, in batches (arrays or as they arrive from a worker thread); `total` rows in all. */
     rows: Iterable<RowBatch> | AsyncIterable<RowBatch>;
     total: number;
-    reports: { kind: "residuals" | "unpaired" | "summary"; bytes: Uint8Array }[];
+    /** With `object`, the report was written to the object store first: its row names the object instead. */
+    reports: {
+      kind: "residuals" | "unpaired" | "summary";
+      bytes: Uint8Array;
+      object?: { key: string; sha256: string } | null;
+    }[];
     onBatch?: (fraction: number) => Promise<void> | void;
   },
 ): Promise<void> {
@@ -211,6 +216,14 @@ export async function storeAuditResult(
       }
     }
     for (const report of r.reports) {
+      if (report.object) {
+        const { key, sha256 } = report.object;
+        const size = report.bytes.length;
+        await db
+          .insert(auditReport)
+          .values({ auditId: r.id, kind: report.kind, part: 0, objectKey: key, sizeBytes: size, sha256 });
+        continue;
+      }
       // In parts, a turn of the event loop after each: one 150 MB value would hold PGlite for seconds.
       for (let part = 0, at = 0; part === 0 || at < report.bytes.length; part++, at += REPORT_PART_BYTES) {
         await db
@@ -249,17 +262,24 @@ export async function storeAuditResult(
   }
 }
 
-/** Remove the result rows of an audit that did not finish computing. */
-export async function removeAuditRows(db: DB, { id }: { id: string }): Promise<void> {
-  await db.transaction((tx) => deleteResultRows(tx, id));
+/**
+ * Remove the result rows of an audit that did not finish computing. Returns the object store keys its report rows
+ * named, for the caller to delete once this has committed.
+ */
+export async function removeAuditRows(db: DB, { id }: { id: string }): Promise<string[]> {
+  return db.transaction((tx) => deleteResultRows(tx, id));
 }
 
 type Tx = Parameters<Parameters<DB["transaction"]>[0]>[0];
 
-async function deleteResultRows(tx: Tx, id: string): Promise<void> {
+async function deleteResultRows(tx: Tx, id: string): Promise<string[]> {
   await tx.delete(auditResidual).where(eq(auditResidual.auditId, id));
   await tx.delete(auditUnpaired).where(eq(auditUnpaired.auditId, id));
-  await tx.delete(auditReport).where(eq(auditReport.auditId, id));
+  const reports = await tx
+    .delete(auditReport)
+    .where(eq(auditReport.auditId, id))
+    .returning({ objectKey: auditReport.objectKey });
+  return reports.flatMap((r) => (r.objectKey ? [r.objectKey] : []));
 }
 
 /** An audit left "computing" by a server that stopped, as found at start-up. */
@@ -564,16 +584,29 @@ export async function chartData(db: DB, { auditId }: { auditId: string }): Promi
   };
 }
 
-export async function getAuditReport(
+/** A stored part of a report: its bytes, or the object store key with the size and SHA-256 to check it against. */
+export interface ReportPart {
+  bytes: Uint8Array | null;
+  objectKey: string | null;
+  sizeBytes: number | null;
+  sha256: string | null;
+}
+
+/** The stored parts of a report in order (none: no report); lib/server/audits/report-files.ts reads them. */
+export async function getAuditReportParts(
   db: DB,
   { auditId, kind }: { auditId: string; kind: "residuals" | "unpaired" | "summary" },
-): Promise<Uint8Array | null> {
-  const parts = await db
-    .select({ bytes: auditReport.bytes })
+): Promise<ReportPart[]> {
+  return db
+    .select({
+      bytes: auditReport.bytes,
+      objectKey: auditReport.objectKey,
+      sizeBytes: auditReport.sizeBytes,
+      sha256: auditReport.sha256,
+    })
     .from(auditReport)
     .where(and(eq(auditReport.auditId, auditId), eq(auditReport.kind, kind)))
     .orderBy(asc(auditReport.part));
-  return parts.length ? joinParts(parts.map((p) => p.bytes)) : null;
 }
 
 /** The parts of a stored report joined in order. */

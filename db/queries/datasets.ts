@@ -106,7 +106,9 @@ export async function getDatasetFile(db: DB, { id, orgId }: { id: string; orgId:
       fileName: dataset.fileName,
       contentType: datasetFile.contentType,
       bytes: datasetFile.bytes,
+      objectKey: datasetFile.objectKey,
       sha256: dataset.sha256,
+      sizeBytes: dataset.sizeBytes,
     })
     .from(dataset)
     .innerJoin(datasetFile, eq(datasetFile.datasetId, dataset.id))
@@ -123,6 +125,8 @@ export interface NewDataset {
   format: "csv" | "geojson";
   contentType: string;
   bytes: Uint8Array;
+  /** Set when the bytes were written to the object store under this key: the row keeps the key, not the bytes. */
+  objectKey?: string | null;
   sha256: string;
   crs: string;
   mapping: ColumnMapping;
@@ -157,7 +161,11 @@ export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> 
         uploadedBy: d.userId,
       })
       .returning(cols);
-    await tx.insert(datasetFile).values({ datasetId: row.id, contentType: d.contentType, bytes: d.bytes });
+    await tx.insert(datasetFile).values({
+      datasetId: row.id,
+      contentType: d.contentType,
+      ...(d.objectKey ? { bytes: null, objectKey: d.objectKey } : { bytes: d.bytes, objectKey: null }),
+    });
     if (d.machineId) await linkDatasetMachine(tx, { datasetId: row.id, machineId: d.machineId, orgId: d.orgId });
     if (d.presetName) {
       await savePreset(tx, {
@@ -183,13 +191,14 @@ export async function createDataset(db: DB, d: NewDataset): Promise<DatasetDto> 
 }
 
 /**
- * Delete a dataset that no audit uses. Returns "deleted", "missing", or the reason it is kept.
+ * Delete a dataset that no audit uses. Returns "deleted" (with the object key of its file, if it was kept in the
+ * object store, for the caller to delete once this has committed), "missing", or the reason it is kept.
  * Audits keep their inputs: a dataset used by any audit (above all a signed-off one) stays.
  */
 export async function deleteDataset(
   db: DB,
   { id, orgId, userId }: { id: string; orgId: string; userId: string },
-): Promise<"deleted" | "missing" | { keptBecause: string }> {
+): Promise<{ deleted: { objectKey: string | null } } | "missing" | { keptBecause: string }> {
   return db.transaction(async (tx) => {
     const [row] = await tx
       .select({ id: dataset.id, fileName: dataset.fileName })
@@ -216,7 +225,10 @@ export async function deleteDataset(
       return {
         keptBecause: `"${row.fileName}" is the source of ${plans.length} survey plan(s) (e.g. "${plans[0].name}"); plans keep the records they chose from.`,
       };
-    await tx.delete(datasetFile).where(eq(datasetFile.datasetId, id));
+    const [file] = await tx
+      .delete(datasetFile)
+      .where(eq(datasetFile.datasetId, id))
+      .returning({ objectKey: datasetFile.objectKey });
     await tx.delete(dataset).where(eq(dataset.id, id));
     await logActivity(tx, {
       orgId,
@@ -226,7 +238,7 @@ export async function deleteDataset(
       subjectId: id,
       detail: { fileName: row.fileName },
     });
-    return "deleted" as const;
+    return { deleted: { objectKey: file?.objectKey ?? null } };
   });
 }
 

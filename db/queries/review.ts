@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, inArray, or, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
-import { joinParts, residualCols } from "./audits";
+import { type ReportPart, residualCols } from "./audits";
 import {
   audit,
   auditReport,
@@ -452,7 +452,8 @@ export async function loadRecordMaterial(
   datasets: Map<string, RecordDataset>;
   residuals: ResidualRecordRow[];
   unpaired: UnpairedRecordRow[];
-  reports: Partial<Record<"residuals" | "unpaired" | "summary", Uint8Array>>;
+  /** Each report's stored parts, in order, for the server layer to read (lib/server/audits/report-files.ts). */
+  reports: Partial<Record<"residuals" | "unpaired" | "summary", ReportPart[]>>;
 }> {
   const ds = await db
     .select({
@@ -489,29 +490,37 @@ export async function loadRecordMaterial(
     .where(eq(auditUnpaired.auditId, auditId))
     .orderBy(asc(auditUnpaired.seq));
   const reportRows = await db
-    .select({ kind: auditReport.kind, bytes: auditReport.bytes })
+    .select({
+      kind: auditReport.kind,
+      bytes: auditReport.bytes,
+      objectKey: auditReport.objectKey,
+      sizeBytes: auditReport.sizeBytes,
+      sha256: auditReport.sha256,
+    })
     .from(auditReport)
     .where(eq(auditReport.auditId, auditId))
     .orderBy(asc(auditReport.kind), asc(auditReport.part));
-  const reports: Partial<Record<"residuals" | "unpaired" | "summary", Uint8Array>> = {};
+  const reports: Partial<Record<"residuals" | "unpaired" | "summary", ReportPart[]>> = {};
   for (const kind of ["residuals", "unpaired", "summary"] as const) {
-    const parts = reportRows.filter((r) => r.kind === kind).map((r) => r.bytes);
-    if (parts.length) reports[kind] = joinParts(parts);
+    const parts = reportRows
+      .filter((r) => r.kind === kind)
+      .map((r) => ({ bytes: r.bytes, objectKey: r.objectKey, sizeBytes: r.sizeBytes, sha256: r.sha256 }));
+    if (parts.length) reports[kind] = parts;
   }
   return { datasets: new Map(ds.map((d) => [d.datasetId, d])), residuals, unpaired, reports };
 }
 
-/** The raw bytes of a dataset file (for verification). */
+/** Where a dataset's raw file is kept (its bytes, or its object store key), for verification; null: no file row. */
 export async function getRawFile(
   db: DB,
   { datasetId, orgId }: { datasetId: string; orgId: string },
-): Promise<Uint8Array | null> {
+): Promise<{ bytes: Uint8Array | null; objectKey: string | null } | null> {
   const [row] = await db
-    .select({ bytes: datasetFile.bytes })
+    .select({ bytes: datasetFile.bytes, objectKey: datasetFile.objectKey })
     .from(datasetFile)
     .innerJoin(dataset, eq(dataset.id, datasetFile.datasetId))
     .where(and(eq(datasetFile.datasetId, datasetId), eq(dataset.orgId, orgId)));
-  return row?.bytes ?? null;
+  return row ?? null;
 }
 
 export interface ReviewListItem {

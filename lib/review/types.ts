@@ -66,6 +66,7 @@ export interface VerificationCheckDto {
     | "record"
     | "raw-files"
     | "stored-points"
+    | "stored-files"
     | "stored-results"
     | "recomputed-results"
     | "stored-hash"

@@ -1,18 +1,22 @@
 /**
- * A server-mode deployment on this machine for the browser tests: a throwaway PostgreSQL, two job workers
- * (`npm run worker`'s command) and two app instances (A seeds the demo farm; B starts after it), all from the same
- * production build. Playwright's global setup; the state (URLs, worker pids and logs) goes to .test-report/.
+ * A server-mode deployment on this machine for the browser tests: a throwaway PostgreSQL, an S3-compatible object
+ * store (s3rver) for the uploaded files and report files, two job workers (`npm run worker`'s command) and two app
+ * instances (A seeds the demo farm; B starts after it), all from the same production build. Playwright's global
+ * setup; the state (URLs, object store variables, worker pids and logs) goes to .test-report/.
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import { freePort, startPostgres } from "../pg/throwaway-postgres.mjs";
+import { startFakeS3 } from "../object-store/fake-s3.mjs";
 
 export const STATE_FILE = ".test-report/deployment.json";
 
 export interface DeploymentState {
   a: string;
   b: string;
+  /** The OBJECT_STORE_* variables every instance and worker was started with. */
+  objectStore: Record<string, string>;
   workers: { pid: number; log: string }[];
 }
 
@@ -45,6 +49,7 @@ export default async function globalSetup() {
   fs.rmSync(dir, { recursive: true, force: true });
   fs.mkdirSync(dir, { recursive: true });
   const pg = startPostgres(await freePort());
+  const s3 = await startFakeS3({ bucket: "plotproof-deployment" });
   const [portA, portB] = [await freePort(), await freePort()];
   const a = `http://127.0.0.1:${portA}`;
   const b = `http://127.0.0.1:${portB}`;
@@ -54,6 +59,7 @@ export default async function globalSetup() {
     AUTH_SIGNIN_PER_MINUTE: "1000",
     OPEN_SIGNUP: "1",
     QUEUE_MAINTENANCE_SECONDS: "1",
+    ...s3.env,
   };
   const workerArgs = ["--conditions=react-server", "--import", "tsx", "lib/server/jobs/worker-main.ts"];
   const workers = [1, 2].map((i) => {
@@ -79,11 +85,12 @@ export default async function globalSetup() {
     path.join(dir, "app-b.log"),
   );
   await healthy(b);
-  fs.writeFileSync(STATE_FILE, JSON.stringify({ a, b, workers } satisfies DeploymentState));
+  fs.writeFileSync(STATE_FILE, JSON.stringify({ a, b, objectStore: s3.env, workers } satisfies DeploymentState));
   return async () => {
     for (const c of children) if (c.exitCode === null) c.kill("SIGTERM");
     await new Promise((r) => setTimeout(r, 1500));
     for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
     pg.stop();
+    await s3.stop();
   };
 }

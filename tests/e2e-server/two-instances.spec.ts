@@ -1,5 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
+import crypto from "node:crypto";
+import { GetObjectCommand, ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
 import { expect, test, type Browser, type BrowserContext, type Page } from "@playwright/test";
 import { benchFiles } from "@/lib/cli/bench-field";
 import type { AuditDto } from "@/lib/api-types";
@@ -41,6 +43,37 @@ async function waitComputed(page: Page, id: string, timeoutMs: number): Promise<
   return audit!;
 }
 
+/** What the deployment's object store holds, read directly through the AWS SDK. */
+function objectStore() {
+  const env = state().objectStore;
+  const client = new S3Client({
+    endpoint: env.OBJECT_STORE_URL,
+    region: env.OBJECT_STORE_REGION,
+    forcePathStyle: true,
+    credentials: { accessKeyId: env.OBJECT_STORE_ACCESS_KEY, secretAccessKey: env.OBJECT_STORE_SECRET_KEY },
+    requestChecksumCalculation: "WHEN_REQUIRED",
+    responseChecksumValidation: "WHEN_REQUIRED",
+  });
+  const Bucket = env.OBJECT_STORE_BUCKET;
+  return {
+    async keys(): Promise<string[]> {
+      const out: string[] = [];
+      let token: string | undefined;
+      do {
+        const res = await client.send(new ListObjectsV2Command({ Bucket, ContinuationToken: token }));
+        out.push(...(res.Contents ?? []).map((c) => c.Key!));
+        token = res.NextContinuationToken;
+      } while (token);
+      return out;
+    },
+    async bytes(key: string): Promise<Buffer> {
+      const res = await client.send(new GetObjectCommand({ Bucket, Key: key }));
+      return Buffer.from(await res.Body!.transformToByteArray());
+    },
+  };
+}
+const sha256 = (b: Uint8Array) => crypto.createHash("sha256").update(b).digest("hex");
+
 const workerLogs = () => state().workers.map((w) => ({ ...w, text: fs.readFileSync(w.log, "utf8") }));
 
 test("server mode -- an audit started on instance A is computed by a worker and signed off on instance B", async ({
@@ -50,6 +83,8 @@ test("server mode -- an audit started on instance A is computed by a worker and 
   const tech = await signedIn(browser, a, "technician");
   const api = new AuditApi(tech.page);
   const fieldId = await api.fieldId("Long Acre");
+  const store = objectStore();
+  const uploadsBefore = new Set((await store.keys()).filter((k) => k.includes("/uploads/")));
   const planted = await api.upload(fieldId, "planted");
   const survey = await api.upload(fieldId, "survey");
   const hoeing = (await api.profiles()).find((p) => p.name === "Inter-row hoeing")!;
@@ -66,11 +101,29 @@ test("server mode -- an audit started on instance A is computed by a worker and 
   const started = (await res.json()).audit as AuditDto;
   expect(started.state).toBe("computing");
 
+  // The uploads went to the object store (two new objects with the uploads' SHA-256), not into PostgreSQL.
+  const newUploads = (await store.keys()).filter((k) => k.includes("/uploads/") && !uploadsBefore.has(k));
+  expect(newUploads).toHaveLength(2);
+  const uploadHashes = await Promise.all(newUploads.map(async (k) => sha256(await store.bytes(k))));
+  expect(uploadHashes.sort()).toEqual([planted.sha256, survey.sha256].sort());
+
   // The technician's session works on B too; B shows the audit once a worker has computed it.
   const techOnB = await onOtherInstance(browser, tech.context, b);
   const computed = await waitComputed(techOnB, started.id, 120_000);
   expect(computed.state).toBe("computed");
   expect(workerLogs().some((w) => w.text.includes(`computing audit ${started.id}`))).toBe(true);
+  // Files cross instances through the object store: B gives out the upload A took and the reports a worker wrote,
+  // byte for byte what the object store holds.
+  const file = await techOnB.request.get(`/api/datasets/${planted.id}/file`);
+  expect(file.status()).toBe(200);
+  expect(sha256(await file.body())).toBe(planted.sha256);
+  expect(file.headers()["x-content-sha256"]).toBe(planted.sha256);
+  const reportKeys = (await store.keys()).filter((k) => k.includes(`/reports/${started.id}/`));
+  expect(reportKeys.map((k) => k.split("/")[4]).sort()).toEqual(["residuals", "summary", "unpaired"]);
+  const summaryKey = reportKeys.find((k) => k.includes("/summary/"))!;
+  const summaryCsv = await techOnB.request.get(`/api/audits/${started.id}/summary.csv`);
+  expect(summaryCsv.status()).toBe(200);
+  expect(Buffer.compare(await summaryCsv.body(), await store.bytes(summaryKey))).toBe(0);
   await techOnB.goto(`/audits/${started.id}`);
   await expect(techOnB.getByTestId("audit-result")).toContainText("Two-instance check");
   await techOnB.goto(`/audits/${started.id}/map`);

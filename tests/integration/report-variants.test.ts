@@ -51,7 +51,7 @@ async function storedBytes(id: string, kind: string): Promise<Buffer> {
     parts
       .filter((p) => p.kind === kind)
       .sort((a, b) => a.part - b.part)
-      .map((p) => Buffer.from(p.bytes)),
+      .map((p) => Buffer.from(p.bytes!)),
   );
 }
 

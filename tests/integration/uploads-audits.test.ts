@@ -244,9 +244,8 @@ describe("uploads and audits through the API", () => {
   });
   it("audit storage -- other work gets a turn of the event loop between batches of rows; a large report is stored in parts", async () => {
     const { getDb } = await import("@/db/client");
-    const { createAudit, storeAuditResult, getAuditById, getAuditReport, REPORT_PART_BYTES } = await import(
-      "@/db/queries/audits"
-    );
+    const { createAudit, storeAuditResult, getAuditById, REPORT_PART_BYTES } = await import("@/db/queries/audits");
+    const { readAuditReport } = await import("@/lib/server/audits/report-files");
     const { audit: auditTable } = await import("@/db/schema");
     const { eq } = await import("drizzle-orm");
     const db = await getDb();
@@ -312,7 +311,7 @@ describe("uploads and audits through the API", () => {
       },
     });
     // A report larger than one stored part comes back byte for byte.
-    const back = await getAuditReport(db, { auditId: id, kind: "residuals" });
+    const back = await readAuditReport(db, { auditId: id, kind: "residuals" });
     expect(back!.length).toBe(report.length);
     expect(Buffer.compare(Buffer.from(back!), Buffer.from(report))).toBe(0);
     expect(storedWhenOthersRan).toBeGreaterThanOrEqual(0);

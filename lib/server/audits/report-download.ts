@@ -1,7 +1,7 @@
 import "server-only";
 import { setImmediate as turn } from "node:timers/promises";
 import { getDb } from "@/db/client";
-import { getAuditReport, residualRowsAfter } from "@/db/queries/audits";
+import { residualRowsAfter } from "@/db/queries/audits";
 import { logActivity } from "@/db/queries/activity";
 import { loadDatasetPoints } from "@/db/queries/datasets";
 import { getAuditForReview, getSignoff } from "@/db/queries/review";
@@ -19,6 +19,7 @@ import { STATE_NAME } from "@/lib/review/lifecycle";
 import type { Viewer } from "@/lib/server/access";
 import type { ReportFormatQuery } from "@/lib/validation/audit";
 import { auditForViewer } from "./audit-access";
+import { readAuditReport } from "./report-files";
 
 type ReportKind = "residuals" | "unpaired" | "summary";
 
@@ -79,7 +80,7 @@ export async function downloadReport(
     return csvResponse(body, auditFileName(audit, `${kind}-${sheetSuffix(format)}`));
   }
   const db = await getDb();
-  const bytes = await getAuditReport(db, { auditId: audit.id, kind });
+  const bytes = await readAuditReport(db, { auditId: audit.id, kind });
   if (!bytes) throw noResults(audit);
   await logDownload(viewer, audit.id, { kind });
   return csvResponse(bytes as BodyInit, auditFileName(audit, kind));

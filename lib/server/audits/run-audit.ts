@@ -22,6 +22,7 @@ import type { AuditCreateInput } from "@/lib/validation/audit";
 import type { Viewer } from "@/lib/server/access";
 import { dispatchComputation } from "@/lib/server/jobs/queue";
 import { scheduleAlertCheck } from "@/lib/server/alerts/check";
+import { keepReportsThenStore } from "@/lib/server/audits/report-files";
 
 /**
  * Check the request, create the audit ("computing") and start the computation in the background.
@@ -177,18 +178,21 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
         else throw new Error(`the audit worker sent "${b.type}" among the rows`);
       }
     }
-    await storeAuditResult(db, {
-      id,
-      orgId,
-      summary: computed.summary,
-      verdict: computed.verdict,
-      settings: computed.settings,
-      // Rows come from the same builders verification uses, so stored and re-computed rows cannot drift apart.
-      rows: rows(),
-      total: computed.residualCount + computed.unpairedCount,
-      reports: computed.reports,
-      onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
-    });
+    // Server mode with an object store: the report files go there first (and are removed again if storing fails).
+    await keepReportsThenStore({ orgId, auditId: id }, computed.reports, (reports) =>
+      storeAuditResult(db, {
+        id,
+        orgId,
+        summary: computed.summary,
+        verdict: computed.verdict,
+        settings: computed.settings,
+        // Rows come from the same builders verification uses, so stored and re-computed rows cannot drift apart.
+        rows: rows(),
+        total: computed.residualCount + computed.unpairedCount,
+        reports,
+        onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
+      }),
+    );
     // Alerts (issue 13): checked in the background once the results are stored; a failure there is logged only.
     scheduleAlertCheck(db, { id, orgId });
   } catch (err) {

@@ -16,6 +16,7 @@ import {
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { createDataset } from "@/db/queries/datasets";
+import { keepFilesThenSave } from "@/lib/server/storage";
 import { getMachineById } from "@/db/queries/machines";
 import { AppError, notFound } from "@/lib/errors";
 import type { UploadOkDto } from "@/lib/api-types";
@@ -160,24 +161,32 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     ...read.columns.columns,
     ...(read.columns.coordinates ? { coordinates: read.columns.coordinates } : {}),
   };
-  const saved = await createDataset(db, {
-    orgId: r.viewer.orgId,
-    fieldId: field.id,
-    userId: r.viewer.userId,
-    kind: r.kind,
-    fileName: r.fileName,
-    format,
-    contentType: r.contentType || (format === "geojson" ? "application/geo+json" : "text/csv"),
-    bytes: r.bytes,
-    sha256,
-    crs: crs.code === "custom" ? crsSpec : crs.code,
-    mapping,
-    acceptedWarnings: warnings,
-    table: read.table,
-    presetName: r.presetName,
-    alsoSave: record ? (tx, datasetId) => createSurveyRecord(tx, { ...record, datasetId }) : undefined,
-    machineId: r.machineId ?? null,
-  });
+  const table = read.table;
+  const contentType = r.contentType || (format === "geojson" ? "application/geo+json" : "text/csv");
+  // In server mode with an object store the file goes there first; the rows name it (and it is removed if they fail).
+  const saved = await keepFilesThenSave(
+    [{ orgId: r.viewer.orgId, name: "uploads", bytes: r.bytes, contentType }],
+    ([placed]) =>
+      createDataset(db, {
+        orgId: r.viewer.orgId,
+        fieldId: field.id,
+        userId: r.viewer.userId,
+        kind: r.kind,
+        fileName: r.fileName,
+        format,
+        contentType,
+        bytes: r.bytes,
+        objectKey: placed.objectKey,
+        sha256,
+        crs: crs.code === "custom" ? crsSpec : crs.code,
+        mapping,
+        acceptedWarnings: warnings,
+        table,
+        presetName: r.presetName,
+        alsoSave: record ? (tx, datasetId) => createSurveyRecord(tx, { ...record, datasetId }) : undefined,
+        machineId: r.machineId ?? null,
+      }),
+  );
   progress("saving", 1);
   const [lon, lat] = centreLonLat(read.table, crs);
   return {

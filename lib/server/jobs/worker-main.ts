@@ -10,6 +10,7 @@
 import { getDb, isServerMode } from "@/db/client";
 import { startJobWorkers } from "@/lib/server/jobs/worker";
 import { stopQueue } from "@/lib/server/jobs/queue";
+import { checkFileStorage } from "@/lib/server/storage";
 
 async function main() {
   if (!isServerMode()) {
@@ -17,6 +18,7 @@ async function main() {
     process.exit(2);
   }
   await getDb(); // applies pending migrations, like an app instance
+  console.log(await checkFileStorage());
   const concurrency = Math.max(1, Number(process.env.JOB_WORKERS ?? 1));
   await startJobWorkers({ concurrency });
   console.log(`[plotproof] worker ${process.pid} takes jobs (${concurrency} at a time).`);

@@ -7,6 +7,7 @@ import type { Viewer } from "@/lib/server/access";
 import { reviewAuditFor } from "@/lib/server/review/review-service";
 import { requireResults } from "@/lib/server/review/record-sources";
 import { verifyAudit } from "@/lib/server/review/verify";
+import { discardObjects } from "@/lib/server/storage";
 import { type ComputeJob, getQueue, QUEUES } from "./queue";
 
 /** Data of a verification job: who asked (the viewer, as checked by the route) and which audit. */
@@ -31,7 +32,7 @@ export async function runComputeJob(job: ComputeJob, attempt: number): Promise<v
   const audit = await getAuditById(db, { id: job.auditId, orgId: job.orgId });
   if (!audit || audit.state !== "computing") return;
   if (attempt > 0) {
-    await removeAuditRows(db, { id: job.auditId });
+    await discardObjects(await removeAuditRows(db, { id: job.auditId }));
     await logActivity(db, {
       orgId: job.orgId,
       actorId: null,

@@ -1,7 +1,6 @@
 import "server-only";
 import { getDb } from "@/db/client";
 import { logActivity } from "@/db/queries/activity";
-import { getAuditReport } from "@/db/queries/audits";
 import { planOfSurvey, plannedPlantIds } from "@/db/queries/survey-plans";
 import { AppError } from "@/lib/errors";
 import { contentDisposition, fileSlug } from "@/lib/http";
@@ -9,6 +8,7 @@ import { filterUnpairedCsv } from "@/lib/plan/unpaired-csv";
 import type { Viewer } from "@/lib/server/access";
 import { auditForViewer } from "@/lib/server/audits/audit-access";
 import { downloadReport } from "@/lib/server/audits/report-download";
+import { readAuditReport } from "@/lib/server/audits/report-files";
 
 /**
  * The unpaired CSV. For an audit whose survey was made from a plan, only "sampled but not found" and "surveyed but no
@@ -21,7 +21,7 @@ export async function downloadUnpaired(viewer: Viewer, params: { id: string }, a
   const plan =
     !all && audit.survey ? await planOfSurvey(db, { surveyDatasetId: audit.survey.id, orgId: viewer.orgId }) : null;
   if (!plan) return downloadReport(viewer, params, "unpaired");
-  const bytes = await getAuditReport(db, { auditId: audit.id, kind: "unpaired" });
+  const bytes = await readAuditReport(db, { auditId: audit.id, kind: "unpaired" });
   if (!bytes) throw new AppError("conflict", "This audit has no results yet.");
   const filtered = filterUnpairedCsv(new TextDecoder().decode(bytes), await plannedPlantIds(db, { planId: plan.id }));
   await logActivity(db, {

@@ -5,6 +5,9 @@ import { loadDatasetPoints } from "@/db/queries/datasets";
 import { getRawFile, loadRecordMaterial, type AuditReviewRow } from "@/db/queries/review";
 import { startAuditWorker } from "@/lib/server/audits/run-in-worker";
 import { AppError } from "@/lib/errors";
+import type { ReportPart } from "@/db/queries/audits";
+import { readReportParts, type ReportKind } from "@/lib/server/audits/report-files";
+import { readStored, StoredFileProblem } from "@/lib/server/storage";
 import type { AuditSettingsDto } from "@/lib/api-types";
 import { sha256Hex } from "@/lib/review/hash";
 import {
@@ -44,8 +47,12 @@ function auditPart(a: AuditReviewRow): RecordBody["audit"] {
   return { id: a.id, revision: a.revision, revisionOf: a.revisionOf, title: a.title, fieldId: a.fieldId };
 }
 
-/** The record as the database holds it now (the audit row, its datasets, its result rows and reports). */
-export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<RecordBody> {
+/**
+ * The record as the database holds it now (the audit row, its datasets, its result rows and reports). A report whose
+ * stored object is missing or changed is refused (409 with the reason) — or, given `problems`, left out of the
+ * record and its reason added there (verification reports it instead of stopping).
+ */
+export async function storedRecordBody(db: DB, a: AuditReviewRow, problems?: string[]): Promise<RecordBody> {
   requireResults(a);
   const m = await loadRecordMaterial(db, {
     auditId: a.id,
@@ -56,6 +63,15 @@ export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<Recor
   const planted = m.datasets.get(a.plantedDatasetId);
   const survey = m.datasets.get(a.surveyDatasetId);
   if (!planted || !survey) throw new AppError("conflict", "An input file of this audit is missing.");
+  const reports: Partial<Record<ReportKind, Uint8Array>> = {};
+  for (const [kind, parts] of Object.entries(m.reports) as [ReportKind, ReportPart[]][]) {
+    try {
+      reports[kind] = await readReportParts(kind, parts);
+    } catch (err) {
+      if (!(err instanceof StoredFileProblem) || !problems) throw err;
+      problems.push(err.message);
+    }
+  }
   return {
     audit: auditPart(a),
     inputs: { planted, survey, settings: a.settings, profile: a.profile },
@@ -64,7 +80,7 @@ export async function storedRecordBody(db: DB, a: AuditReviewRow): Promise<Recor
       verdict: a.verdict,
       residuals: residualDigest(m.residuals),
       unpaired: unpairedDigest(m.unpaired),
-      reports: reportHashes(m.reports),
+      reports: reportHashes(reports),
     },
   };
 }
@@ -95,7 +111,16 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
     ["planted", stored.inputs.planted],
     ["survey", stored.inputs.survey],
   ] as const) {
-    const bytes = await getRawFile(db, { datasetId: meta.datasetId, orgId: a.orgId });
+    const ref = await getRawFile(db, { datasetId: meta.datasetId, orgId: a.orgId });
+    let bytes: Uint8Array | null = null;
+    let missing = "the raw file is missing";
+    try {
+      // Read as stored, unchecked: the SHA-256 comparison below says what changed.
+      if (ref) bytes = await readStored(ref, meta.fileName, { check: false });
+    } catch (err) {
+      if (!(err instanceof StoredFileProblem)) throw err;
+      missing = err.message.replace(/\.$/, "");
+    }
     if (!bytes) {
       files.push({
         kind,
@@ -103,7 +128,7 @@ export async function recomputeRecordBody(db: DB, a: AuditReviewRow, stored: Rec
         rawSha256: null,
         storedSha256: meta.sha256,
         pointsMatch: null,
-        problem: "the raw file is missing",
+        problem: missing,
       });
       continue;
     }

@@ -39,7 +39,15 @@ export async function verifyAudit(viewer: Viewer, db: DB, audit: AuditReviewRow)
     signer = signedRecord?.signoff ?? null;
   }
 
-  const stored = await storedRecordBody(db, audit);
+  const storeProblems: string[] = [];
+  const stored = await storedRecordBody(db, audit, storeProblems);
+  if (storeProblems.length)
+    checks.push({
+      id: "stored-files",
+      ok: false,
+      label: "Stored report files intact",
+      text: storeProblems.join(" "),
+    });
   const reference: RecordBody = signedRecord
     ? { audit: signedRecord.audit, inputs: signedRecord.inputs, results: signedRecord.results }
     : stored;

@@ -1,6 +1,7 @@
 import { guardedRoute } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { deleteDataset, getDatasetById } from "@/db/queries/datasets";
+import { discardObjects } from "@/lib/server/storage";
 import { AppError, notFound } from "@/lib/errors";
 import { ANY_ROLE, CAN_PREPARE } from "@/lib/roles";
 import { routeId } from "@/lib/validation/request";
@@ -17,6 +18,7 @@ export const DELETE = guardedRoute<{ id: string }>(CAN_PREPARE, async ({ viewer,
   const id = routeId(params, "id", "Dataset");
   const result = await deleteDataset(await getDb(), { id, orgId: viewer.orgId, userId: viewer.userId });
   if (result === "missing") throw notFound("Dataset");
-  if (result !== "deleted") throw new AppError("conflict", result.keptBecause);
+  if ("keptBecause" in result) throw new AppError("conflict", result.keptBecause);
+  await discardObjects([result.deleted.objectKey]);
   return new Response(null, { status: 204 });
 });
