@@ -187,6 +187,7 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
       rows: rows(),
       total: computed.residualCount + computed.unpairedCount,
       reports: computed.reports,
+      plantedNotFound: computed.plantedNotFound,
       onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
     });
     // Alerts (issue 13): checked in the background once the results are stored; a failure there is logged only.
