@@ -769,3 +769,22 @@ export const alertBreach = pgTable(
     index("alert_breach_audit_idx").on(t.auditId),
   ],
 );
+
+// --- Planted records nobody surveyed, stored compactly (issue 16) -----------------------------------------------
+/**
+ * The "planted-not-found" unpaired points of an audit in one value instead of a row each: which records of the
+ * planted dataset were left unpaired (a bitset over its records, db/planted-not-found-blob.ts) and, when the work
+ * CRS is not the file's own, their projected positions. Point ids, lines and strata come from the dataset's
+ * points blob. They are the unpaired points with seq 0…count−1; audit_unpaired then holds only the survey-side
+ * ones. An audit without a row here stores all its unpaired points as rows (audits computed before).
+ */
+export const auditPlantedNotFound = pgTable("audit_planted_not_found", {
+  auditId: uuid("audit_id")
+    .primaryKey()
+    .references(() => audit.id, { onDelete: "restrict" }),
+  /** Records of the planted dataset (bits in the set). */
+  plants: integer("plants").notNull(),
+  /** Planted records nobody surveyed (bits set). */
+  count: integer("count").notNull(),
+  bytes: bytea("bytes").notNull(),
+});

@@ -2,7 +2,17 @@ import "server-only";
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { copyRows } from "@/db/copy";
-import { activity, audit, auditReport, auditResidual, auditUnpaired, dataset, field, user } from "@/db/schema";
+import {
+  activity,
+  audit,
+  auditPlantedNotFound,
+  auditReport,
+  auditResidual,
+  auditUnpaired,
+  dataset,
+  field,
+  user,
+} from "@/db/schema";
 import type {
   AuditDto,
   AuditListItemDto,
@@ -19,6 +29,7 @@ import type {
 import type { ResidualQueryInput, ResidualSort } from "@/lib/validation/audit";
 import { logActivity } from "./activity";
 import { getDatasetMachine } from "./machines";
+import { countPlantedNotFound, loadPlantedNotFound } from "./unpaired";
 
 export type AuditListItem = AuditListItemDto;
 
@@ -196,11 +207,17 @@ export async function storeAuditResult(
       bytes: Uint8Array;
       object?: { key: string; sha256: string } | null;
     }[];
+    /**
+     * The planted records nobody surveyed as one value (lib/review/planted-not-found.ts), unpaired seq
+     * 0…count−1; `rows` then hold only the survey-side unpaired points. Absent: every unpaired point is a row.
+     */
+    plantedNotFound?: { plants: number; count: number; bytes: Uint8Array };
     onBatch?: (fraction: number) => Promise<void> | void;
   },
 ): Promise<void> {
   let done = 0;
   try {
+    if (r.plantedNotFound) await db.insert(auditPlantedNotFound).values({ auditId: r.id, ...r.plantedNotFound });
     // Batches outside one transaction: PGlite has a single connection, and a transaction would hold
     // every other user's query until the last row of a large audit is in.
     for await (const batch of r.rows) {
@@ -275,6 +292,7 @@ type Tx = Parameters<Parameters<DB["transaction"]>[0]>[0];
 async function deleteResultRows(tx: Tx, id: string): Promise<string[]> {
   await tx.delete(auditResidual).where(eq(auditResidual.auditId, id));
   await tx.delete(auditUnpaired).where(eq(auditUnpaired.auditId, id));
+  await tx.delete(auditPlantedNotFound).where(eq(auditPlantedNotFound.auditId, id));
   const reports = await tx
     .delete(auditReport)
     .where(eq(auditReport.auditId, id))
@@ -510,6 +528,23 @@ export async function pageResiduals(
   };
 }
 
+const unpairedCols = {
+  seq: auditUnpaired.seq,
+  kind: auditUnpaired.kind,
+  pointId: auditUnpaired.pointId,
+  line: auditUnpaired.line,
+  e: auditUnpaired.e,
+  n: auditUnpaired.n,
+  crop: auditUnpaired.crop,
+  bed: auditUnpaired.bed,
+  row: auditUnpaired.row,
+};
+
+/**
+ * One page of unpaired points in seq order, optionally of one kind; the audit must already be known to belong to the
+ * caller's organisation. Audits that store the planted records nobody surveyed compactly (db/queries/unpaired.ts)
+ * give them as seq 0…count−1, ahead of their survey-side rows, exactly as rows would.
+ */
 export async function pageUnpaired(
   db: DB,
   { auditId, kind, page, pageSize }: { auditId: string; kind?: UnpairedRowDto["kind"]; page: number; pageSize: number },
@@ -517,25 +552,26 @@ export async function pageUnpaired(
   const where = kind
     ? and(eq(auditUnpaired.auditId, auditId), eq(auditUnpaired.kind, kind))
     : eq(auditUnpaired.auditId, auditId);
-  const [{ total }] = await db.select({ total: count() }).from(auditUnpaired).where(where);
-  const rows = await db
-    .select({
-      seq: auditUnpaired.seq,
-      kind: auditUnpaired.kind,
-      pointId: auditUnpaired.pointId,
-      line: auditUnpaired.line,
-      e: auditUnpaired.e,
-      n: auditUnpaired.n,
-      crop: auditUnpaired.crop,
-      bed: auditUnpaired.bed,
-      row: auditUnpaired.row,
-    })
-    .from(auditUnpaired)
-    .where(where)
-    .orderBy(asc(auditUnpaired.seq))
-    .limit(pageSize)
-    .offset((page - 1) * pageSize);
-  return { rows: rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })), total, page, pageSize };
+  const [{ total: stored }] = await db.select({ total: count() }).from(auditUnpaired).where(where);
+  const offset = (page - 1) * pageSize;
+  const compact = !kind || kind === "planted-not-found" ? await countPlantedNotFound(db, { auditId }) : null;
+  const lead = compact ?? 0;
+  const out: UnpairedRowDto[] = [];
+  if (lead > offset) {
+    const set = await loadPlantedNotFound(db, { auditId });
+    out.push(...set!.rows(offset, Math.min(lead, offset + pageSize)));
+  }
+  if (out.length < pageSize && stored > 0) {
+    const rows = await db
+      .select(unpairedCols)
+      .from(auditUnpaired)
+      .where(where)
+      .orderBy(asc(auditUnpaired.seq))
+      .limit(pageSize - out.length)
+      .offset(Math.max(0, offset - lead));
+    out.push(...rows.map((r) => ({ ...r, kind: r.kind as UnpairedRowDto["kind"] })));
+  }
+  return { rows: out, total: stored + lead, page, pageSize };
 }
 
 /** Up to `limit` residual rows after `afterSeq` in pairing order (keyset paging for downloads made from the rows). */

@@ -6,6 +6,7 @@ import { audit, auditResidual, auditUnpaired, field } from "@/db/schema";
 import type { ResidualRowDto, UnpairedRowDto } from "@/lib/api-types";
 import type { DictName } from "@/lib/map/types";
 import type { PairColumns, UnpairedColumns } from "@/lib/map/build";
+import { loadPlantedNotFound, type PlantedNotFoundSet } from "./unpaired";
 
 /*
  * Queries of the map. Every function takes the audit (or field) id together with the caller's organisation and
@@ -53,8 +54,26 @@ export async function getMapExtent(db: DB, { auditId, orgId }: { auditId: string
     [auditId, orgId],
   );
   const r = res.rows[0];
-  return r && r.min_e !== null ? { minE: r.min_e, maxE: r.max_e!, minN: r.min_n!, maxN: r.max_n! } : null;
+  const box = r && r.min_e !== null ? { minE: r.min_e, maxE: r.max_e!, minN: r.min_n!, maxN: r.max_n! } : null;
+  const compact = await loadPlantedNotFound(db, { auditId, orgId });
+  if (!compact || compact.count === 0) return box;
+  // PostgreSQL orders NaN above every number: max is NaN if any is, min only if all are. The same here.
+  const first = { minE: compact.e[0], maxE: compact.e[0], minN: compact.n[0], maxN: compact.n[0] };
+  let { minE, maxE, minN, maxN } = box ?? first;
+  for (let k = 0; k < compact.count; k++) {
+    const e = compact.e[k],
+      n = compact.n[k];
+    minE = pgMin(minE, e);
+    maxE = pgMax(maxE, e);
+    minN = pgMin(minN, n);
+    maxN = pgMax(maxN, n);
+  }
+  return { minE, maxE, minN, maxN };
 }
+
+/** min and max as PostgreSQL orders float8: NaN above every number. */
+const pgMin = (a: number, b: number) => (a !== a ? b : b !== b ? a : Math.min(a, b));
+const pgMax = (a: number, b: number) => (a !== a || b !== b ? NaN : Math.max(a, b));
 
 function floatsBE(bytes: Uint8Array | null, count: number): Float32Array {
   const out = new Float32Array(count);
@@ -126,10 +145,25 @@ export async function loadMapColumns(
     ur = u.rows[0];
   const n = Number(pr.n),
     m = Number(ur.n);
+  // Planted records nobody surveyed stored compactly are seq 0…lead−1, ahead of the rows.
+  const compact = await loadPlantedNotFound(db, { auditId, orgId });
+  const lead = compact?.count ?? 0;
   // Index i of the payload is seq i: the engine numbers rows 0…count−1.
   if (n && (pr.min_seq !== 0 || pr.max_seq !== n - 1)) throw new Error("map query: pair seq numbers are not 0…n−1");
-  if (m && (ur.min_seq !== 0 || ur.max_seq !== m - 1)) throw new Error("map query: unpaired seq numbers are not 0…m−1");
+  if (m && (ur.min_seq !== lead || ur.max_seq !== lead + m - 1))
+    throw new Error("map query: unpaired seq numbers are not 0…m−1");
   const bytes = (v: unknown) => (v as Uint8Array | null) ?? null;
+  const stored: UnpairedColumns = {
+    count: m,
+    x: floatsBE(bytes(ur.x), m),
+    y: floatsBE(bytes(ur.y), m),
+    kind: texts(ur.kind as string | null, m),
+    text: {
+      crop: texts(ur.t_crop as string | null, m),
+      bed: texts(ur.t_bed as string | null, m),
+      row: texts(ur.t_row as string | null, m),
+    },
+  };
   return {
     pairs: {
       count: n,
@@ -146,16 +180,57 @@ export async function loadMapColumns(
         string[]
       >,
     },
-    unpaired: {
-      count: m,
-      x: floatsBE(bytes(ur.x), m),
-      y: floatsBE(bytes(ur.y), m),
-      kind: texts(ur.kind as string | null, m),
-      text: {
-        crop: texts(ur.t_crop as string | null, m),
-        bed: texts(ur.t_bed as string | null, m),
-        row: texts(ur.t_row as string | null, m),
-      },
+    unpaired: compact ? joinUnpaired(compactColumns(compact, origin), stored) : stored,
+  };
+}
+
+/** Map text of a value as the SQL of `textAgg` gives it: "" for none, the separator replaced by a space. */
+const mapText = (v: string | null) => (v ?? "").replaceAll(SEP, " ");
+
+/** The compactly stored planted records nobody surveyed as map columns, as the SQL above would give their rows. */
+function compactColumns(set: PlantedNotFoundSet, origin: [number, number]): UnpairedColumns {
+  const { count, planted, part } = set;
+  const x = new Float32Array(count),
+    y = new Float32Array(count);
+  // float4 of the difference in double precision, as (e - origin)::real
+  for (let k = 0; k < count; k++) {
+    x[k] = set.e[k] - origin[0];
+    y[k] = set.n[k] - origin[1];
+  }
+  const text = (name: "crop" | "bed" | "row") => {
+    const col = planted.attrs[name];
+    const out = new Array<string>(count);
+    for (let k = 0; k < count; k++) {
+      const c = col ? col.codes[part.indices[k]] : -1;
+      out[k] = mapText(c >= 0 ? col!.values[c] : null);
+    }
+    return out;
+  };
+  return {
+    count,
+    x,
+    y,
+    kind: new Array<string>(count).fill("planted-not-found"),
+    text: { crop: text("crop"), bed: text("bed"), row: text("row") },
+  };
+}
+
+function joinUnpaired(a: UnpairedColumns, b: UnpairedColumns): UnpairedColumns {
+  const cat = (p: Float32Array, q: Float32Array) => {
+    const out = new Float32Array(p.length + q.length);
+    out.set(p);
+    out.set(q, p.length);
+    return out;
+  };
+  return {
+    count: a.count + b.count,
+    x: cat(a.x, b.x),
+    y: cat(a.y, b.y),
+    kind: [...a.kind, ...b.kind],
+    text: {
+      crop: [...a.text.crop, ...b.text.crop],
+      bed: [...a.text.bed, ...b.text.bed],
+      row: [...a.text.row, ...b.text.row],
     },
   };
 }
@@ -180,6 +255,8 @@ export async function getMapUnpaired(
   db: DB,
   { auditId, orgId, seq }: { auditId: string; orgId: string; seq: number },
 ): Promise<UnpairedRowDto | null> {
+  const compact = await loadPlantedNotFound(db, { auditId, orgId });
+  if (compact && seq < compact.count) return seq >= 0 ? compact.rows(seq, seq + 1)[0] : null;
   const [row] = await db
     .select({
       seq: auditUnpaired.seq,

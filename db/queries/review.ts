@@ -21,6 +21,7 @@ import type { ReturnReason } from "@/lib/review/return-reasons";
 import type { RecordDataset, ResidualRecordRow, UnpairedRecordRow } from "@/lib/review/record";
 import type { ReviewEventDto, RevisionLinkDto, SignoffDto } from "@/lib/review/types";
 import { logActivity } from "./activity";
+import { loadPlantedNotFound } from "./unpaired";
 
 type Tx = Parameters<Parameters<DB["transaction"]>[0]>[0];
 
@@ -474,7 +475,7 @@ export async function loadRecordMaterial(
     .from(auditResidual)
     .where(eq(auditResidual.auditId, auditId))
     .orderBy(asc(auditResidual.seq));
-  const unpaired = await db
+  const stored = await db
     .select({
       seq: auditUnpaired.seq,
       kind: auditUnpaired.kind,
@@ -489,6 +490,9 @@ export async function loadRecordMaterial(
     .from(auditUnpaired)
     .where(eq(auditUnpaired.auditId, auditId))
     .orderBy(asc(auditUnpaired.seq));
+  // Planted records nobody surveyed stored compactly come first (seq 0…count−1), rebuilt exactly as their rows.
+  const compact = await loadPlantedNotFound(db, { auditId, orgId });
+  const unpaired: UnpairedRecordRow[] = compact ? (compact.rows() as UnpairedRecordRow[]).concat(stored) : stored;
   const reportRows = await db
     .select({
       kind: auditReport.kind,

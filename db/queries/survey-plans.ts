@@ -3,6 +3,7 @@ import { and, asc, count, desc, eq, inArray, sql } from "drizzle-orm";
 import type { DB } from "@/db/client";
 import { auditUnpaired, controlMark, dataset, field, surveyPlan, surveyPlanPoint, surveyRecord } from "@/db/schema";
 import { logActivity } from "@/db/queries/activity";
+import { loadPlantedNotFound } from "./unpaired";
 import type {
   ControlMarkDto,
   PlanParameters,
@@ -421,7 +422,19 @@ export async function unpairedSplitCounts(
     .where(eq(auditUnpaired.auditId, auditId))
     .groupBy(auditUnpaired.kind);
   let sampled = 0;
-  if (plan) {
+  // Planted records nobody surveyed stored compactly (db/queries/unpaired.ts): counted here, not among the rows.
+  const compact = await loadPlantedNotFound(db, { auditId });
+  if (compact) {
+    rows.push({ kind: "planted-not-found", n: compact.count });
+    if (plan && compact.count > 0) {
+      const planned = await plannedPlantIds(db, { planId: plan.id });
+      const ids = compact.planted.id;
+      for (const i of compact.part.indices) {
+        const id = ids?.get(i) || null;
+        if (id !== null && planned.has(id)) sampled++;
+      }
+    }
+  } else if (plan) {
     const [row] = await db
       .select({ n: count() })
       .from(auditUnpaired)

@@ -6,7 +6,8 @@
 import { parentPort } from "node:worker_threads";
 import { IdColumn } from "@/geo/ids";
 import { residualDigest, unpairedDigest } from "@/lib/review/record";
-import { residualRecordRows, unpairedRecordRows } from "@/lib/review/result-rows";
+import { residualRecordRows, unpairedRecordRows, unpairedSurveyRows } from "@/lib/review/result-rows";
+import { encodePlantedNotFound, plantedNotFoundPart } from "@/lib/review/planted-not-found";
 import { auditReports, runAudit } from "@/lib/audit/run";
 import { ROWS_PER_MESSAGE, type AuditJobInput, type AuditJobMessage } from "./messages";
 
@@ -38,9 +39,19 @@ port.once("message", (job: AuditJobInput) => {
     if (!outcome.verdict) throw new Error("the audit has no verdict: no tolerance profile was given");
     const reports = auditReports(outcome);
     const residuals = residualRecordRows(outcome.result, outcome.planted, outcome.survey, outcome.settings.timeZone);
-    const unpaired = unpairedRecordRows(outcome.pairing, outcome.planted, outcome.survey);
+    // Stored: the planted records nobody surveyed as one compact value, only the survey-side unpaired points as rows.
+    // Verification digests every row, as the readers rebuild them.
+    const unpaired = job.digestsOnly
+      ? unpairedRecordRows(outcome.pairing, outcome.planted, outcome.survey)
+      : unpairedSurveyRows(outcome.pairing, outcome.survey);
     const digests = job.digestsOnly
       ? { residuals: residualDigest(residuals), unpaired: unpairedDigest(unpaired) }
+      : undefined;
+    const part = job.digestsOnly
+      ? null
+      : plantedNotFoundPart(outcome.pairing.unmatchedPlanted, job.planted, outcome.planted);
+    const plantedNotFound = part
+      ? { plants: part.plants, count: part.indices.length, bytes: encodePlantedNotFound(part) }
       : undefined;
     post(
       {
@@ -52,8 +63,12 @@ port.once("message", (job: AuditJobInput) => {
         residualCount: residuals.length,
         unpairedCount: unpaired.length,
         digests,
+        plantedNotFound,
       },
-      reports.map((r) => r.bytes.buffer as ArrayBuffer),
+      [
+        ...reports.map((r) => r.bytes.buffer as ArrayBuffer),
+        ...(plantedNotFound ? [plantedNotFound.bytes.buffer as ArrayBuffer] : []),
+      ],
     );
     // One batch per request: the server asks for the next when it has stored the last, so a million
     // rows never wait as messages on its thread (nor are turned back into objects there all at once).

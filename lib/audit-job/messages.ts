@@ -41,7 +41,13 @@ export type AuditJobMessage =
       settings: AuditSettings;
       reports: { kind: AuditReportKind; bytes: Uint8Array }[];
       residualCount: number;
+      /** Unpaired rows that follow as `unpaired` batches (without `digestsOnly`: the survey-side ones only). */
       unpairedCount: number;
+      /**
+       * Without `digestsOnly`: the planted records nobody surveyed, encoded by lib/review/planted-not-found.ts
+       * (unpaired seq 0…count−1), stored as one value instead of a row each.
+       */
+      plantedNotFound?: { plants: number; count: number; bytes: Uint8Array };
       /** With `digestsOnly`. */
       digests?: { residuals: RowsDigest; unpaired: RowsDigest };
     }

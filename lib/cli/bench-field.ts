@@ -3,7 +3,9 @@
  * apart, plants 0.25 m apart in the row, rows at a bearing of 28°) written as CSV in .bench/:
  *  - planted-N.csv: N as-planted records, plant_id, crop, bed, row, arm, fix, lat, lon (WGS 84, 9 decimals);
  *  - survey-N.csv: ~N survey points, easting/northing in WGS 84 / UTM 32N (4 decimals), no ids, in
- *    walking order; 2 % of plants not surveyed, 1 % extra points (weeds) added.
+ *    walking order; 2 % of plants not surveyed, 1 % extra points (weeds) added;
+ *  - survey-N-every-K.csv (with `surveyEvery` K > 1): the same, but only every K-th plant is surveyed (a sampled
+ *    check, as a technician walking the field with a rover would make one).
  * Error model (demo values; common practice, no source): record = truth + bias (2 mm E, −1 mm N) + 3 mm σ
  * per axis; survey = truth + 8 mm σ per axis; 2 % of records on RTK float with 40 mm σ.
  */
@@ -40,8 +42,12 @@ async function writeLines(path: string, gen: () => Generator<string>): Promise<v
   await once(out, "finish");
 }
 
-/** Writes planted-N.csv and survey-N.csv for a field of N plants. */
-export async function generate(n: number): Promise<void> {
+/** The survey file of a field of `n` plants when every `surveyEvery`-th plant is surveyed. */
+const surveyPath = (n: number, surveyEvery: number) =>
+  surveyEvery > 1 ? `${DIR}/survey-${n}-every-${surveyEvery}.csv` : `${DIR}/survey-${n}.csv`;
+
+/** Writes planted-N.csv and the survey file (every plant, or every `surveyEvery`-th) for a field of N plants. */
+export async function generate(n: number, surveyEvery = 1): Promise<void> {
   const rowsPerBed = 5,
     rowGap = 0.5,
     bedWidth = 3,
@@ -80,9 +86,10 @@ export async function generate(n: number): Promise<void> {
       yield `AB-${String(i + 1).padStart(7, "0")},${crops[Math.floor(bed / 10) % 3]},B${bed + 1},${row},${row <= 3 ? "L" : "R"},${float ? 5 : 4},${lat.toFixed(9)},${lon.toFixed(9)}`;
     }
   });
-  await writeLines(`${DIR}/survey-${n}.csv`, function* () {
+  await writeLines(surveyPath(n, surveyEvery), function* () {
     yield "easting,northing,method";
     for (let i = 0; i < n; i++) {
+      if (i % surveyEvery !== 0) continue; // not in the sample
       if (r.u() < 0.02) continue; // not surveyed / missing plant
       yield `${(te[i] + 0.008 * r.n()).toFixed(4)},${(tn[i] + 0.008 * r.n()).toFixed(4)},rtk`;
       if (r.u() < 0.01) {
@@ -93,14 +100,21 @@ export async function generate(n: number): Promise<void> {
   });
 }
 
-/** Paths of the field of `n` plants, generated when missing (or when `regen`). */
-export async function benchFiles(n: number, regen = false): Promise<{ planted: string; survey: string }> {
+/**
+ * Paths of the field of `n` plants, generated when missing (or when `regen`); with `surveyEvery` K > 1 only every
+ * K-th plant is surveyed (the as-planted file is the same).
+ */
+export async function benchFiles(
+  n: number,
+  regen = false,
+  surveyEvery = 1,
+): Promise<{ planted: string; survey: string }> {
   const planted = `${DIR}/planted-${n}.csv`,
-    survey = `${DIR}/survey-${n}.csv`;
+    survey = surveyPath(n, surveyEvery);
   if (regen || !existsSync(planted) || !existsSync(survey)) {
     mkdirSync(DIR, { recursive: true });
     const t = performance.now();
-    await generate(n);
+    await generate(n, surveyEvery);
     process.stderr.write(`generated ${n} in ${Math.round(performance.now() - t)} ms\n`);
   }
   return { planted, survey };

@@ -2,18 +2,10 @@
  * Per-plant rows of a fresh computation, in the stored columns, so a verification can digest them the
  * same way as the rows in the database; lib/server/audits/run-audit.ts stores exactly these rows. Pure.
  */
-import { PAIRED_BY_ID, type PointTable, type ProjectedTable } from "@/geo";
+import { PAIRED_BY_ID, type ProjectedTable } from "@/geo";
 import { localDay, type AuditResult } from "@/lib/audit";
+import { attr, type AttrName, unpairedRow } from "./planted-not-found";
 import type { ResidualRecordRow, UnpairedRecordRow } from "./record";
-
-type AttrName = "crop" | "bed" | "row" | "arm" | "fix";
-
-function attr(t: PointTable, name: AttrName, i: number): string | null {
-  const col = t.attrs[name];
-  if (!col) return null;
-  const c = col.codes[i];
-  return c >= 0 ? col.values[c] : null;
-}
 
 export function residualRecordRows(
   result: AuditResult,
@@ -56,29 +48,31 @@ export function residualRecordRows(
   return rows;
 }
 
+type UnpairedPairing = { unmatchedPlanted: Int32Array; unmatchedSurvey: Int32Array; ambiguousSurvey: Int32Array };
+
+/** Every unpaired point of a computation, in seq order: planted not found, surveyed not planted, ambiguous. */
 export function unpairedRecordRows(
-  pairing: { unmatchedPlanted: Int32Array; unmatchedSurvey: Int32Array; ambiguousSurvey: Int32Array },
+  pairing: UnpairedPairing,
   planted: ProjectedTable,
   survey: ProjectedTable,
 ): UnpairedRecordRow[] {
   const rows: UnpairedRecordRow[] = [];
-  const add = (kind: string, t: ProjectedTable, idx: Int32Array) => {
-    for (const i of idx) {
-      rows.push({
-        seq: rows.length,
-        kind,
-        pointId: t.id?.get(i) || null,
-        line: t.line[i],
-        e: t.x[i],
-        n: t.y[i],
-        crop: attr(t, "crop", i),
-        bed: attr(t, "bed", i),
-        row: attr(t, "row", i),
-      });
-    }
-  };
-  add("planted-not-found", planted, pairing.unmatchedPlanted);
-  add("surveyed-not-planted", survey, pairing.unmatchedSurvey);
-  add("ambiguous", survey, pairing.ambiguousSurvey);
+  for (const i of pairing.unmatchedPlanted)
+    rows.push(unpairedRow("planted-not-found", planted, i, rows.length, planted.x[i], planted.y[i]));
+  rows.push(...unpairedSurveyRows(pairing, survey));
+  return rows;
+}
+
+/**
+ * The survey-side unpaired points only ("surveyed-not-planted", then "ambiguous"), numbered as in
+ * {@link unpairedRecordRows}: after the planted records nobody surveyed.
+ */
+export function unpairedSurveyRows(pairing: UnpairedPairing, survey: ProjectedTable): UnpairedRecordRow[] {
+  const rows: UnpairedRecordRow[] = [];
+  const first = pairing.unmatchedPlanted.length;
+  for (const i of pairing.unmatchedSurvey)
+    rows.push(unpairedRow("surveyed-not-planted", survey, i, first + rows.length, survey.x[i], survey.y[i]));
+  for (const i of pairing.ambiguousSurvey)
+    rows.push(unpairedRow("ambiguous", survey, i, first + rows.length, survey.x[i], survey.y[i]));
   return rows;
 }

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { and, count, eq } from "drizzle-orm";
 import { ctx, req } from "./helpers";
 import { ACTORS, cloneAudit, setUpReviewWorld, stateOf, type Actor, type ReviewWorld } from "./review-helpers";
-import { activity, audit, auditReport, auditResidual, auditUnpaired } from "@/db/schema";
+import { activity, audit, auditPlantedNotFound, auditReport, auditResidual, auditUnpaired } from "@/db/schema";
 import { logActivity } from "@/db/queries/activity";
 import type { AuditDto } from "@/lib/api-types";
 
@@ -18,12 +18,14 @@ beforeAll(async () => {
 
 /** Rows stored for an audit, per table. */
 async function rowCounts(id: string) {
-  const [[r], [u], [p]] = await Promise.all([
+  const [[r], [u], [c], [p]] = await Promise.all([
     w.db.select({ n: count() }).from(auditResidual).where(eq(auditResidual.auditId, id)),
     w.db.select({ n: count() }).from(auditUnpaired).where(eq(auditUnpaired.auditId, id)),
+    // the planted records nobody surveyed, one compact value (issue 16)
+    w.db.select({ n: count() }).from(auditPlantedNotFound).where(eq(auditPlantedNotFound.auditId, id)),
     w.db.select({ n: count() }).from(auditReport).where(eq(auditReport.auditId, id)),
   ]);
-  return { residuals: r.n, unpaired: u.n, reports: p.n };
+  return { residuals: r.n, unpaired: u.n, plantedNotFound: c.n, reports: p.n };
 }
 
 /**
@@ -87,6 +89,7 @@ describe("audit recovery at start-up", () => {
   it("recoverInterruptedAudits -- resumes, fails after the limit, and starts counting again after a recompute", async () => {
     const baseRows = await rowCounts(w.base.id);
     expect(baseRows.residuals).toBeGreaterThan(0);
+    expect(baseRows.plantedNotFound).toBe(1);
     const fresh = await interruptedAudit("saving");
     const twice = await interruptedAudit("pairing", ["audit.resumed", "audit.resumed"]);
     const reset = await interruptedAudit("statistics", [
@@ -121,7 +124,7 @@ describe("audit recovery at start-up", () => {
       "The server stopped while this audit was computing (stage: pairing), 3 times; it was not started again. " +
         "Very large files can need more memory than the server has: check the two files, then compute it again.",
     );
-    expect(await rowCounts(twice)).toEqual({ residuals: 0, unpaired: 0, reports: 0 });
+    expect(await rowCounts(twice)).toEqual({ residuals: 0, unpaired: 0, plantedNotFound: 0, reports: 0 });
     expect((await actionsOf(twice)).at(-1)).toMatchObject({ action: "audit.failed", detail: { error: failed.error } });
 
     await report.done;

@@ -4,7 +4,7 @@ import path from "node:path";
 import { eq, getTableColumns, sql } from "drizzle-orm";
 import { cookieFor, ctx, req, useMemoryDb } from "./helpers";
 import type { DB } from "@/db/client";
-import { audit, auditReport, auditResidual, auditUnpaired } from "@/db/schema";
+import { audit, auditPlantedNotFound, auditReport, auditResidual, auditUnpaired } from "@/db/schema";
 import { DEMO_PASSWORD, DEMO_PEOPLE, OTHER_OWNER } from "@/lib/demo/farm";
 import type { AuditDto, DatasetDto, ToleranceProfileDto } from "@/lib/api-types";
 
@@ -114,7 +114,7 @@ export async function cloneAudit(db: DB, baseId: string, state: string): Promise
     .insert(audit)
     .values({ ...rest, state: "computed", title: `${src.title} (${state})` })
     .returning({ id: audit.id });
-  for (const table of [auditResidual, auditUnpaired, auditReport]) {
+  for (const table of [auditResidual, auditUnpaired, auditPlantedNotFound, auditReport]) {
     const names = Object.values(getTableColumns(table))
       .map((c) => c.name)
       .filter((n) => n !== "audit_id");

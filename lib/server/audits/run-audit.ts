@@ -190,6 +190,7 @@ export async function computeStoredAudit(db: DB, { id, orgId }: { id: string; or
         rows: rows(),
         total: computed.residualCount + computed.unpairedCount,
         reports,
+        plantedNotFound: computed.plantedNotFound,
         onBatch: (f) => setAuditProgress(db, { id, progress: 0.5 + 0.45 * f, stage: "saving" }),
       }),
     );
