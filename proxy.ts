@@ -28,4 +28,6 @@ export function proxy(req: NextRequest) {
   return res;
 }
 
-export const config = { matcher: ["/((?!_next/static|_next/image|mark.svg|demo/).*)"] };
+// Not the upload route: Next would buffer a copy of its body here, cut at 10 MB (experimental.proxyClientMaxBodySize),
+// and the route would read the cut copy. The route refuses cross-site requests itself (lib/server/cross-site.ts).
+export const config = { matcher: ["/((?!_next/static|_next/image|mark.svg|demo/|api/fields/[^/]+/datasets$).*)"] };
