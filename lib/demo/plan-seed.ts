@@ -25,7 +25,8 @@ async function viewerFor(orgId: string, role: "qa_lead" | "technician"): Promise
 
 /**
  * Demo of survey planning on first start: Willow Strip gets its as-planted records, a control mark, a plan made by
- * the QA lead and a survey the technician made from it (with the control-mark check and two dead plants).
+ * the QA lead and a survey the technician made from it (with the control-mark check; the planned plants found dead or
+ * not found are rows of the file's status column, without a position).
  */
 export async function seedPlanDemo(orgId: string): Promise<void> {
   const db = await getDb();
@@ -89,7 +90,7 @@ export async function seedPlanDemo(orgId: string): Promise<void> {
       precisionMm: 2,
       surveyor: technician.name,
       method: "Total station from two setups on the headland",
-      missing: survey.dead,
+      missing: [],
     },
   });
 }

@@ -69,11 +69,16 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   await up.getByLabel("Calibration date").fill("2026-03-02");
   await up.getByLabel("Stated horizontal precision (mm)").fill("2");
   await up.getByLabel("Surveyor").fill("Tamsin Rook");
-  await up.getByLabel(/Planned points not surveyed/).fill(survey.dead.map((d) => `${d.name} dead`).join("\n"));
+  // The dead and not-found plants are rows of the file's status column (no position), not typed into the form.
+  expect(survey.missing.length).toBeGreaterThan(0);
   await up.getByRole("button", { name: "Upload survey" }).click();
   const surveyed = tech.getByTestId("plan-surveys").locator("li", { hasText: FILE });
   await expect(surveyed.getByTestId("coverage-surveyed")).toContainText(
-    `${points.filter((p) => !p.spare).length - survey.dead.length} of ${points.filter((p) => !p.spare).length} planned checkpoints surveyed`,
+    `${points.filter((p) => !p.spare).length - survey.missing.length} of ${points.filter((p) => !p.spare).length} planned checkpoints surveyed`,
+  );
+  const first = survey.missing[0];
+  await expect(surveyed.getByTestId("coverage")).toContainText(
+    `${first.name} ${first.status} (line ${survey.csv.split("\n").findIndex((l) => l.startsWith(`${first.name},`)) + 1})`,
   );
   await expect(surveyed.getByTestId("mark-check")).toHaveAttribute("data-word", "meets");
 
@@ -106,7 +111,7 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
     ((await panel.getByTestId("split-sampled-not-found").textContent()) ?? "").replace(/\D/g, ""),
   );
   expect(notSampled + sampledNotFound).toBe(audit.summary.unmatchedPlanted);
-  expect(sampledNotFound).toBe(survey.dead.length);
+  expect(sampledNotFound).toBe(survey.missing.length);
   await expect(panel.getByTestId("split-surveyed-no-record")).toHaveText("0");
 
   // The QA lead's sign-off checklist shows the recorded control-mark check instead of a tick-box.

@@ -104,6 +104,9 @@ describe("survey plans through the API", () => {
     expect(record.instrumentCheck!.word).toBe("meets");
     expect(record.coverage!.planned).toBe(demoPlan.checkpoints);
     expect(record.coverage!.checkpointsSurveyed + record.coverage!.missing.length).toBe(demoPlan.checkpoints);
+    // The demo survey records its dead and not-found plants in the file's status column (lib/demo/plan-demo.ts).
+    expect(record.coverage!.missing.length).toBeGreaterThan(0);
+    for (const m of record.coverage!.missing) expect(m.line).toBeGreaterThan(1);
   });
 
   it("plan -- a technician and a grower may not make a plan (403); a grower may read it", async () => {
@@ -340,6 +343,93 @@ describe("survey plans through the API", () => {
       /^Nomatch\.csv was not saved: none of the 2 named survey points matches a point of the plan \(\d+ points, e\.g\. C0001-B1/,
     );
     expect((await datasets()).length).toBe(count);
+  });
+
+  it("survey upload -- the file's status rows and the form's list count as recorded missing; bad status rows are refused", async () => {
+    const csvText = await (
+      await routes.csv.GET(
+        req(`/api/plans/${demoPlan.id}/stakeout.csv`, { cookie: cookies.technician }),
+        ctx({ planId: demoPlan.id }),
+      )
+    ).text();
+    const points = readStakeoutCsv(csvText);
+    const [byFile, byForm] = points.filter((p) => !p.spare).slice(0, 2);
+    const survey = generatePlanSurvey(WILLOW, points, 99);
+    const lines = survey.csv.trimEnd().split("\n");
+    // The first checkpoint is recorded dead in the file (point name, no position); the second is left out of the file
+    // and reported "not found" on the form.
+    const at = lines.findIndex((l) => l.startsWith(`${byFile.plantId},`));
+    lines[at] = `${byFile.name},Dead,,,,,`;
+    const text = `${lines.filter((l) => !l.startsWith(`${byForm.plantId},`)).join("\n")}\n`;
+    const fieldwork = { planId: demoPlan.id, missing: [{ name: byForm.name, status: "not found" }] };
+    const count = (await datasets()).length;
+
+    // A status row naming a point the plan does not have: refused with file, line and column.
+    const stranger = await upload(cookies.technician, `${text}WS-NOPE,dead,,,,,\n`, "stranger.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(stranger.status).toBe(422);
+    const strangerBody = (await stranger.json()).error;
+    const strangerLine = text.trimEnd().split("\n").length + 1;
+    expect(strangerBody.message).toBe(
+      `stranger.csv was not saved: 1 row(s) record a point as dead or not found that is not in the plan "${PLAN_DEMO_NAME}"; first: line ${strangerLine}, column id, "WS-NOPE".`,
+    );
+    expect(strangerBody.issues[0]).toMatchObject({
+      file: "stranger.csv",
+      line: strangerLine,
+      column: "id",
+      value: "WS-NOPE",
+    });
+
+    // An unknown status value: refused by the reader, naming line, column and value.
+    const unknown = await upload(cookies.technician, `${text}${byForm.name},broken,,,,,\n`, "unknown.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(unknown.status).toBe(422);
+    expect((await unknown.json()).error.issues[0]).toMatchObject({
+      code: "status-unknown",
+      file: "unknown.csv",
+      column: "status",
+      value: "broken",
+    });
+
+    // Without a plan the status rows cannot be counted: a warning the uploader must accept.
+    const noPlan = await upload(cookies.technician, text, "no-plan.csv", { kind: "survey", crs: "EPSG:25831" });
+    expect(noPlan.status).toBe(422);
+    const noPlanBody = (await noPlan.json()).error;
+    expect(noPlanBody.code).toBe("warnings_unaccepted");
+    expect(noPlanBody.issues).toContainEqual(
+      expect.objectContaining({ code: "status-without-plan", file: "no-plan.csv", line: at + 1 }),
+    );
+    expect((await datasets()).length).toBe(count);
+
+    const ok = await upload(cookies.technician, text, "status-column.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(ok.status, await ok.clone().text()).toBe(201);
+    const saved = (await ok.json()).dataset as DatasetDto;
+    const { record } = (await (
+      await routes.record.GET(
+        req(`/api/datasets/${saved.id}/survey-record`, { cookie: cookies.grower }),
+        ctx({ id: saved.id }),
+      )
+    ).json()) as { record: SurveyRecordDto };
+    const missing = record.coverage!.missing;
+    expect(missing.find((m) => m.name === byFile.name)).toMatchObject({ status: "dead", line: at + 1 });
+    expect(missing.find((m) => m.name === byForm.name)).toMatchObject({ status: "not found" });
+    expect(missing.find((m) => m.name === byForm.name)!.line).toBeUndefined();
+    for (const m of survey.missing) expect(missing.find((x) => x.name === m.name)).toMatchObject({ status: m.status });
+    expect(record.coverage!.checkpointsSurveyed).toBe(demoPlan.checkpoints - missing.length);
+    expect(record.missingReported).toContainEqual({ name: byFile.name, status: "dead", line: at + 1 });
   });
 
   it("audit -- unpaired counts split by the plan; the unpaired CSV holds only sampled and surveyed points unless all=1", async () => {
