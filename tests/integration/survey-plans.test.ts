@@ -17,6 +17,7 @@ const routes = {} as {
   plan: typeof import("@/app/api/plans/[planId]/route");
   csv: typeof import("@/app/api/plans/[planId]/stakeout.csv/route");
   geojson: typeof import("@/app/api/plans/[planId]/stakeout.geojson/route");
+  records: typeof import("@/app/api/plans/[planId]/records/route");
   marks: typeof import("@/app/api/fields/[fieldId]/control-marks/route");
   mark: typeof import("@/app/api/control-marks/[markId]/route");
   datasets: typeof import("@/app/api/fields/[fieldId]/datasets/route");
@@ -62,6 +63,7 @@ beforeAll(async () => {
   routes.plan = await import("@/app/api/plans/[planId]/route");
   routes.csv = await import("@/app/api/plans/[planId]/stakeout.csv/route");
   routes.geojson = await import("@/app/api/plans/[planId]/stakeout.geojson/route");
+  routes.records = await import("@/app/api/plans/[planId]/records/route");
   routes.marks = await import("@/app/api/fields/[fieldId]/control-marks/route");
   routes.mark = await import("@/app/api/control-marks/[markId]/route");
   routes.datasets = await import("@/app/api/fields/[fieldId]/datasets/route");
@@ -122,12 +124,45 @@ describe("survey plans through the API", () => {
     expect(read.status).toBe(200);
   });
 
+  it("plan map -- a grower reads every as-planted record of the plan's dataset in the field's CRS", async () => {
+    const res = await routes.records.GET(
+      req(`/api/plans/${demoPlan.id}/records`, { cookie: cookies.grower }),
+      ctx({ planId: demoPlan.id }),
+    );
+    expect(res.status).toBe(200);
+    const { records } = await res.json();
+    const ds = await routes.datasets.GET(
+      req(`/api/fields/${fieldId}/datasets`, { cookie: cookies.grower }),
+      ctx({ fieldId }),
+    );
+    const plantedDs = ((await ds.json()).datasets as DatasetDto[]).find((d) => d.id === demoPlan.plantedDatasetId)!;
+    expect(records.crs).toBe(demoPlan.fieldCrs);
+    expect(records.count + records.unplaced).toBe(plantedDs.rowCount);
+    expect(records.xy).toHaveLength(2 * records.count);
+    // A planned plant lies on one of the records (the plan chose it from them), to the centimetre.
+    const plan = (
+      await (
+        await routes.plan.GET(
+          req(`/api/plans/${demoPlan.id}`, { cookie: cookies.grower }),
+          ctx({ planId: demoPlan.id }),
+        )
+      ).json()
+    ).plan as SurveyPlanWithPoints;
+    const p = plan.points[0];
+    const ce = Math.round((p.e - records.origin[0]) * 100);
+    const cn = Math.round((p.n - records.origin[1]) * 100);
+    let hit = false;
+    for (let i = 0; i < records.xy.length; i += 2) if (records.xy[i] === ce && records.xy[i + 1] === cn) hit = true;
+    expect(hit).toBe(true);
+  });
+
   it("plan -- another organisation gets 404 for the plan, its stakeout files, the field's plans and marks", async () => {
     const c = { cookie: cookies.other };
     const p = { planId: demoPlan.id };
     expect((await routes.plan.GET(req(`/api/plans/${demoPlan.id}`, c), ctx(p))).status).toBe(404);
     expect((await routes.csv.GET(req(`/api/plans/${demoPlan.id}/stakeout.csv`, c), ctx(p))).status).toBe(404);
     expect((await routes.geojson.GET(req(`/api/plans/${demoPlan.id}/stakeout.geojson`, c), ctx(p))).status).toBe(404);
+    expect((await routes.records.GET(req(`/api/plans/${demoPlan.id}/records`, c), ctx(p))).status).toBe(404);
     expect((await routes.plans.GET(req(`/api/fields/${fieldId}/plans`, c), ctx({ fieldId }))).status).toBe(404);
     expect((await routes.marks.GET(req(`/api/fields/${fieldId}/control-marks`, c), ctx({ fieldId }))).status).toBe(404);
     const created = await routes.plans.POST(

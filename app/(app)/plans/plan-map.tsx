@@ -1,0 +1,347 @@
+"use client";
+import { useCallback, useLayoutEffect, useMemo, useRef, useState } from "react";
+import useSWR from "swr";
+import DeckGL, { type DeckGLRef } from "@deck.gl/react";
+import { type Layer, OrthographicView, type PickingInfo } from "@deck.gl/core";
+import { IconLayer, ScatterplotLayer, TextLayer } from "@deck.gl/layers";
+import { fetcher } from "@/lib/fetcher";
+import type { PlanRecordsPayload } from "@/lib/plan/plan-map";
+import type { ControlMarkDto, PlanPointDto } from "@/lib/plan/dto";
+import { keys } from "@/lib/swr-keys";
+import { fitBounds } from "@/lib/map/view";
+import { COLOURS } from "@/app/_components/map/palette";
+import { NorthArrow, ScaleBar } from "@/app/_components/map/map-overlays";
+
+type Rgba = [number, number, number, number];
+
+/**
+ * The plan's own symbols on white (contrast by WCAG 2.2, lib/a11y/contrast.ts): checkpoints filled leaf discs
+ * (6.3:1) with an ink edge, spares hollow loam diamonds (7.3:1), control marks ink triangles (14.9:1) with their
+ * name; every as-planted record a faint ink-faint dot behind them (context only, not meant to be read one by one).
+ */
+const PLAN_COLOURS = {
+  checkpoint: [47, 107, 69, 255] as Rgba, // leaf #2f6b45
+  spare: COLOURS.surveyOnly, // loam #7a4b2a
+  mark: COLOURS.ink,
+  record: [92, 105, 98, 90] as Rgba, // ink-faint at 35 %
+};
+const HEX = { checkpoint: "#2f6b45", spare: "#7a4b2a", mark: "#1d2a24", record: "#5c6962" };
+const SIZE = { checkpoint: 5, spare: 16, mark: 20, record: 1.5 };
+
+const VIEW = new OrthographicView({ id: "plan", flipY: false });
+
+interface ViewState {
+  target: [number, number];
+  zoom: number;
+}
+
+interface PlacedPoint {
+  p: PlanPointDto;
+  at: [number, number];
+}
+interface PlacedMark {
+  m: ControlMarkDto;
+  at: [number, number];
+}
+
+/** A hollow diamond (spares) and a triangle (control marks), drawn on a canvas as masks tinted by the layer. */
+function planAtlas() {
+  const s = 64;
+  const canvas = document.createElement("canvas");
+  canvas.width = 2 * s;
+  canvas.height = s;
+  const g = canvas.getContext("2d")!;
+  g.strokeStyle = "#000";
+  g.lineWidth = 12;
+  g.lineJoin = "miter";
+  g.beginPath();
+  g.moveTo(s / 2, 7);
+  g.lineTo(s - 7, s / 2);
+  g.lineTo(s / 2, s - 7);
+  g.lineTo(7, s / 2);
+  g.closePath();
+  g.stroke();
+  g.fillStyle = "#000";
+  g.beginPath();
+  g.moveTo(s + s / 2, 4);
+  g.lineTo(2 * s - 4, s - 6);
+  g.lineTo(s + 4, s - 6);
+  g.closePath();
+  g.fill();
+  return {
+    url: canvas.toDataURL("image/png"),
+    mapping: {
+      "ring-diamond": { x: 0, y: 0, width: s, height: s, mask: true },
+      triangle: { x: s, y: 0, width: s, height: s, mask: true },
+    },
+  };
+}
+
+function KeySymbol({ kind }: { kind: "checkpoint" | "spare" | "mark" | "record" }) {
+  return (
+    <svg width="18" height="18" viewBox="0 0 18 18" aria-hidden="true" className="shrink-0">
+      {kind === "checkpoint" ? <circle cx="9" cy="9" r="5" fill={HEX.checkpoint} stroke={HEX.mark} /> : null}
+      {kind === "spare" ? (
+        <path d="M9 2.5 L15.5 9 L9 15.5 L2.5 9 Z" fill="none" stroke={HEX.spare} strokeWidth="2.5" />
+      ) : null}
+      {kind === "mark" ? <path d="M9 2 L16 15 L2 15 Z" fill={HEX.mark} /> : null}
+      {kind === "record" ? <circle cx="9" cy="9" r="1.8" fill={HEX.record} opacity="0.6" /> : null}
+    </svg>
+  );
+}
+
+/**
+ * The plan on a map of the field (deck.gl, north up, metres): every as-planted record faint, the planned checkpoints,
+ * the spares and the control marks. The canvas takes keyboard focus (arrow keys pan, + and − zoom); the counts are
+ * written beside it and the points are listed in the table below the map.
+ */
+export function PlanMap({
+  planId,
+  fieldName,
+  crs,
+  points,
+  marks,
+}: {
+  planId: string;
+  fieldName: string;
+  crs: string;
+  points: PlanPointDto[];
+  marks: ControlMarkDto[];
+}) {
+  const { data, error } = useSWR<{ records: PlanRecordsPayload }>(keys.planRecords(planId), fetcher, {
+    revalidateOnFocus: false,
+  });
+  const records = data?.records ?? null;
+  const frameRef = useRef<HTMLDivElement>(null);
+  const rootRef = useRef<HTMLDivElement>(null);
+  const deckRef = useRef<DeckGLRef>(null);
+  const draws = useRef(0);
+  const [size, setSize] = useState<{ width: number; height: number } | null>(null);
+  const [view, setView] = useState<ViewState | null>(null);
+  const atlas = useMemo(() => planAtlas(), []);
+
+  const placed = useMemo(() => {
+    if (!records) return null;
+    const [oe, on] = records.origin;
+    const at = (e: number, n: number): [number, number] => [e - oe, n - on];
+    const checkpoints: PlacedPoint[] = [];
+    const spares: PlacedPoint[] = [];
+    for (const p of points) (p.spare ? spares : checkpoints).push({ p, at: at(p.e, p.n) });
+    const placedMarks: PlacedMark[] = marks.map((m) => ({ m, at: at(m.e, m.n) }));
+    const positions = new Float32Array(records.xy.length);
+    let minX = Number.POSITIVE_INFINITY;
+    let minY = Number.POSITIVE_INFINITY;
+    let maxX = Number.NEGATIVE_INFINITY;
+    let maxY = Number.NEGATIVE_INFINITY;
+    const grow = (x: number, y: number) => {
+      minX = Math.min(minX, x);
+      maxX = Math.max(maxX, x);
+      minY = Math.min(minY, y);
+      maxY = Math.max(maxY, y);
+    };
+    for (let i = 0; i < records.xy.length; i += 2) {
+      positions[i] = records.xy[i] / 100;
+      positions[i + 1] = records.xy[i + 1] / 100;
+      grow(positions[i], positions[i + 1]);
+    }
+    for (const q of [...checkpoints, ...spares, ...placedMarks]) grow(q.at[0], q.at[1]);
+    const bounds = Number.isFinite(minX) ? { minX, minY, maxX, maxY } : { minX: -1, minY: -1, maxX: 1, maxY: 1 };
+    return { checkpoints, spares, marks: placedMarks, positions, bounds };
+  }, [records, points, marks]);
+
+  useLayoutEffect(() => {
+    const el = frameRef.current;
+    if (!el) return;
+    const measure = () => setSize({ width: el.clientWidth, height: el.clientHeight });
+    measure();
+    const ro = new ResizeObserver(measure);
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
+
+  const fitToPlan = useCallback(() => {
+    if (placed && size) setView(fitBounds(placed.bounds, size.width, size.height, 28));
+  }, [placed, size]);
+  useLayoutEffect(() => {
+    if (!view) fitToPlan();
+  }, [fitToPlan, view]);
+
+  const layers = useMemo(() => {
+    if (!placed) return [];
+    const list: Layer[] = [
+      new ScatterplotLayer({
+        id: "plan-records",
+        data: {
+          length: placed.positions.length / 2,
+          attributes: { getPosition: { value: placed.positions, size: 2 } },
+        },
+        radiusUnits: "pixels",
+        getRadius: SIZE.record,
+        getFillColor: PLAN_COLOURS.record,
+      }),
+      new ScatterplotLayer<PlacedPoint>({
+        id: "plan-checkpoints",
+        data: placed.checkpoints,
+        getPosition: (d) => d.at,
+        pickable: true,
+        radiusUnits: "pixels",
+        getRadius: SIZE.checkpoint,
+        getFillColor: PLAN_COLOURS.checkpoint,
+        stroked: true,
+        lineWidthUnits: "pixels",
+        getLineWidth: 1,
+        getLineColor: PLAN_COLOURS.mark,
+      }),
+      new IconLayer<PlacedPoint>({
+        id: "plan-spares",
+        data: placed.spares,
+        getPosition: (d) => d.at,
+        pickable: true,
+        iconAtlas: atlas.url,
+        iconMapping: atlas.mapping,
+        getIcon: () => "ring-diamond",
+        sizeUnits: "pixels",
+        getSize: SIZE.spare,
+        getColor: PLAN_COLOURS.spare,
+      }),
+      new IconLayer<PlacedMark>({
+        id: "plan-marks",
+        data: placed.marks,
+        getPosition: (d) => d.at,
+        pickable: true,
+        iconAtlas: atlas.url,
+        iconMapping: atlas.mapping,
+        getIcon: () => "triangle",
+        sizeUnits: "pixels",
+        getSize: SIZE.mark,
+        getColor: PLAN_COLOURS.mark,
+      }),
+      new TextLayer<PlacedMark>({
+        id: "plan-mark-names",
+        data: placed.marks,
+        getPosition: (d) => d.at,
+        getText: (d) => d.m.name,
+        getSize: 13,
+        getColor: PLAN_COLOURS.mark,
+        getPixelOffset: [12, 0],
+        getTextAnchor: "start",
+        getAlignmentBaseline: "center",
+        background: true,
+        getBackgroundColor: [255, 255, 255, 230],
+        fontFamily: "system-ui, sans-serif",
+        characterSet: "auto",
+      }),
+    ];
+    return list;
+  }, [placed, atlas]);
+
+  const nCheck = points.filter((p) => !p.spare).length;
+  const nSpare = points.length - nCheck;
+  const markNames = marks.map((m) => m.name).join(", ");
+  const summary = `${records ? `${records.count} as-planted records (faint dots), ` : ""}${nCheck} planned checkpoints (filled green discs), ${nSpare} spares (hollow brown diamonds) and ${marks.length} control mark${marks.length === 1 ? "" : "s"} (black triangles${markNames ? `: ${markNames}` : ""})`;
+  const label = `Map of the plan on ${fieldName}: ${summary}. North up. Arrow keys pan, plus and minus zoom.`;
+  const tooltip = (info: PickingInfo) => {
+    const o = info.object as PlacedPoint | PlacedMark | undefined;
+    if (!o) return null;
+    if ("m" in o) return { text: `Control mark ${o.m.name}: E ${o.m.e.toFixed(3)}, N ${o.m.n.toFixed(3)}` };
+    const p = o.p;
+    return {
+      text: `${p.spare ? "Spare" : "Checkpoint"} ${p.name}: plant ${p.plantId}${p.bed ? `, bed ${p.bed}` : ""}${p.row ? `, row ${p.row}` : ""}`,
+    };
+  };
+  const zoomBy = (dz: number) => setView((v) => (v ? { ...v, zoom: v.zoom + dz } : v));
+  const button = "min-h-11 rounded-plot border border-ink-faint bg-white px-3 py-1 text-sm hover:bg-chalk";
+
+  return (
+    <figure
+      ref={rootRef}
+      className="grid gap-2"
+      data-testid="plan-map"
+      data-records={records?.count ?? ""}
+      data-checkpoints={nCheck}
+      data-spares={nSpare}
+      data-marks={marks.length}
+      data-draws="0"
+    >
+      <div
+        ref={frameRef}
+        className="relative h-[50vh] min-h-[320px] overflow-hidden rounded-plot border border-chalk-line bg-white"
+        data-testid="plan-map-frame"
+      >
+        {error ? (
+          <p role="alert" className="p-4 text-sm text-alarm">
+            The as-planted records could not be loaded for the map: {(error as Error).message}
+          </p>
+        ) : !records ? (
+          <p className="p-4 text-sm text-ink-faint" aria-busy="true">
+            Loading the map…
+          </p>
+        ) : null}
+        {view && placed ? (
+          <DeckGL
+            ref={deckRef}
+            views={VIEW}
+            viewState={view}
+            onViewStateChange={({ viewState: v }) => {
+              const s = v as ViewState;
+              setView({ target: [s.target[0], s.target[1]], zoom: s.zoom });
+            }}
+            controller={{ doubleClickZoom: true, keyboard: true, scrollZoom: true, dragPan: true, dragRotate: false }}
+            layers={layers}
+            pickingRadius={4}
+            getTooltip={tooltip}
+            onAfterRender={() => {
+              draws.current++;
+              if (rootRef.current) rootRef.current.dataset.draws = String(draws.current);
+            }}
+            onLoad={() => {
+              const canvas = deckRef.current?.deck?.getCanvas();
+              if (canvas) {
+                canvas.tabIndex = 0;
+                canvas.setAttribute("role", "img");
+                canvas.setAttribute("aria-label", label);
+                canvas.dataset.testid = "plan-map-canvas";
+              }
+            }}
+          />
+        ) : null}
+        <div className="pointer-events-none absolute left-2 top-2">
+          <NorthArrow crs={crs} convergenceDeg={null} />
+        </div>
+        <div className="absolute right-2 top-2 flex gap-1" role="group" aria-label="View">
+          <button type="button" onClick={fitToPlan} className={button} data-testid="plan-map-fit">
+            Fit to plan
+          </button>
+          <button type="button" onClick={() => zoomBy(1)} aria-label="Zoom in" className={`${button} min-w-11`}>
+            +
+          </button>
+          <button type="button" onClick={() => zoomBy(-1)} aria-label="Zoom out" className={`${button} min-w-11`}>
+            −
+          </button>
+        </div>
+        {view ? (
+          <div className="pointer-events-none absolute bottom-2 right-2">
+            <ScaleBar zoom={view.zoom} />
+          </div>
+        ) : null}
+      </div>
+      <figcaption className="grid gap-1 text-sm">
+        <p data-testid="plan-map-summary">The map shows {summary}. The same points are listed in the table below.</p>
+        <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft" data-testid="plan-map-key">
+          <li className="flex items-center gap-1.5">
+            <KeySymbol kind="checkpoint" /> planned checkpoint
+          </li>
+          <li className="flex items-center gap-1.5">
+            <KeySymbol kind="spare" /> spare (survey it only in place of a dead or missing checkpoint of its stratum)
+          </li>
+          <li className="flex items-center gap-1.5">
+            <KeySymbol kind="mark" /> control mark
+          </li>
+          <li className="flex items-center gap-1.5">
+            <KeySymbol kind="record" /> as-planted record
+          </li>
+        </ul>
+      </figcaption>
+    </figure>
+  );
+}
