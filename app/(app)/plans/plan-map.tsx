@@ -9,23 +9,9 @@ import type { PlanRecordsPayload } from "@/lib/plan/plan-map";
 import type { ControlMarkDto, PlanPointDto } from "@/lib/plan/dto";
 import { keys } from "@/lib/swr-keys";
 import { fitBounds } from "@/lib/map/view";
-import { COLOURS } from "@/app/_components/map/palette";
+import { PLAN_COLOURS, PLAN_HEX as HEX } from "./plan-map-colours";
 import { NorthArrow, ScaleBar } from "@/app/_components/map/map-overlays";
 
-type Rgba = [number, number, number, number];
-
-/**
- * The plan's own symbols on white (contrast by WCAG 2.2, lib/a11y/contrast.ts): checkpoints filled leaf discs
- * (6.3:1) with an ink edge, spares hollow loam diamonds (7.3:1), control marks ink triangles (14.9:1) with their
- * name; every as-planted record a faint ink-faint dot behind them (context only, not meant to be read one by one).
- */
-const PLAN_COLOURS = {
-  checkpoint: [47, 107, 69, 255] as Rgba, // leaf #2f6b45
-  spare: COLOURS.surveyOnly, // loam #7a4b2a
-  mark: COLOURS.ink,
-  record: [92, 105, 98, 90] as Rgba, // ink-faint at 35 %
-};
-const HEX = { checkpoint: "#2f6b45", spare: "#7a4b2a", mark: "#1d2a24", record: "#5c6962" };
 const SIZE = { checkpoint: 5, spare: 16, mark: 20, record: 1.5 };
 
 const VIEW = new OrthographicView({ id: "plan", flipY: false });
