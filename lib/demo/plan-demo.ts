@@ -11,6 +11,10 @@
 import { gaussian, mulberry32 } from "@/lib/random";
 import type { DemoFieldSpec } from "./farm";
 
+/** The demo field that gets a survey plan and a survey made from it (lib/demo/plan-seed.ts), and the plan's name. */
+export const PLAN_DEMO_FIELD = "Willow Strip";
+export const PLAN_DEMO_NAME = "Willow Strip check survey, May 2026";
+
 /** The control mark the demo gives a field: 2 m before the first row's start, on the row line. */
 export function demoControlMark(spec: DemoFieldSpec) {
   const th = (spec.bearingDeg * Math.PI) / 180;

@@ -11,11 +11,9 @@ import type { Viewer } from "@/lib/server/access";
 import { PlanInput } from "@/lib/validation/plan";
 import { DEMO_FIELDS, DEMO_ORG, DEMO_PEOPLE } from "./farm";
 import { generateDemoFiles } from "./generate";
-import { demoControlMark, generatePlanSurvey } from "./plan-demo";
+import { demoControlMark, generatePlanSurvey, PLAN_DEMO_FIELD, PLAN_DEMO_NAME } from "./plan-demo";
 
-/** The demo field that gets a survey plan and a survey made from it. */
-export const PLAN_DEMO_FIELD = "Willow Strip";
-export const PLAN_DEMO_NAME = "Willow Strip check survey, May 2026";
+export { PLAN_DEMO_FIELD, PLAN_DEMO_NAME };
 
 async function viewerFor(orgId: string, role: "qa_lead" | "technician"): Promise<Viewer> {
   const person = DEMO_PEOPLE.find((p) => p.role === role)!;

@@ -2,8 +2,7 @@ import fs from "node:fs/promises";
 import { expect, type Page, test } from "@playwright/test";
 import sharp from "sharp";
 import { DEMO_FIELDS } from "@/lib/demo/farm";
-import { generatePlanSurvey, readStakeoutCsv } from "@/lib/demo/plan-demo";
-import { PLAN_DEMO_NAME } from "@/lib/demo/plan-seed";
+import { generatePlanSurvey, PLAN_DEMO_NAME, readStakeoutCsv } from "@/lib/demo/plan-demo";
 import type { SurveyPlanDto, SurveyRecordDto } from "@/lib/plan/dto";
 import { SignInPage } from "./pages/session";
 import { AuditApi } from "./pages/audit";
@@ -21,7 +20,10 @@ const NO_BEFORE = "fieldwork.before: give the control mark as measured before th
 
 /** Pixels of the plan map's canvas within `tolerance` of `rgb` (read from a screenshot of its area). */
 async function countCanvasColour(page: Page, rgb: [number, number, number], tolerance = 14): Promise<number> {
-  const box = await page.getByTestId("plan-map-frame").locator("canvas").boundingBox();
+  const frame = page.getByTestId("plan-map-frame");
+  await frame.scrollIntoViewIfNeeded();
+  await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+  const box = await frame.locator("canvas").boundingBox();
   expect(box).not.toBeNull();
   const png = await page.screenshot({ clip: box! });
   const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });

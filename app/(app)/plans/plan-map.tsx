@@ -3,7 +3,7 @@ import { useCallback, useLayoutEffect, useMemo, useRef, useState } from "react";
 import useSWR from "swr";
 import DeckGL, { type DeckGLRef } from "@deck.gl/react";
 import { type Layer, OrthographicView, type PickingInfo } from "@deck.gl/core";
-import { IconLayer, ScatterplotLayer, TextLayer } from "@deck.gl/layers";
+import { PathLayer, ScatterplotLayer, SolidPolygonLayer, TextLayer } from "@deck.gl/layers";
 import { fetcher } from "@/lib/fetcher";
 import type { PlanRecordsPayload } from "@/lib/plan/plan-map";
 import type { ControlMarkDto, PlanPointDto } from "@/lib/plan/dto";
@@ -12,7 +12,8 @@ import { fitBounds } from "@/lib/map/view";
 import { PLAN_COLOURS, PLAN_HEX as HEX } from "./plan-map-colours";
 import { NorthArrow, ScaleBar } from "@/app/_components/map/map-overlays";
 
-const SIZE = { checkpoint: 5, spare: 16, mark: 20, record: 1.5 };
+/** Pixel sizes: disc radius, diamond and triangle centre-to-corner, record dot radius. */
+const SIZE = { checkpoint: 5, spare: 7, mark: 10, record: 1.5 };
 
 const VIEW = new OrthographicView({ id: "plan", flipY: false });
 
@@ -30,38 +31,19 @@ interface PlacedMark {
   at: [number, number];
 }
 
-/** A hollow diamond (spares) and a triangle (control marks), drawn on a canvas as masks tinted by the layer. */
-function planAtlas() {
-  const s = 64;
-  const canvas = document.createElement("canvas");
-  canvas.width = 2 * s;
-  canvas.height = s;
-  const g = canvas.getContext("2d")!;
-  g.strokeStyle = "#000";
-  g.lineWidth = 12;
-  g.lineJoin = "miter";
-  g.beginPath();
-  g.moveTo(s / 2, 7);
-  g.lineTo(s - 7, s / 2);
-  g.lineTo(s / 2, s - 7);
-  g.lineTo(7, s / 2);
-  g.closePath();
-  g.stroke();
-  g.fillStyle = "#000";
-  g.beginPath();
-  g.moveTo(s + s / 2, 4);
-  g.lineTo(2 * s - 4, s - 6);
-  g.lineTo(s + 4, s - 6);
-  g.closePath();
-  g.fill();
-  return {
-    url: canvas.toDataURL("image/png"),
-    mapping: {
-      "ring-diamond": { x: 0, y: 0, width: s, height: s, mask: true },
-      triangle: { x: s, y: 0, width: s, height: s, mask: true },
-    },
-  };
-}
+/** A diamond outline (closed path) and a triangle round `at`, `r` metres from the centre to a corner. */
+const diamond = ([x, y]: [number, number], r: number): [number, number][] => [
+  [x, y + r],
+  [x + r, y],
+  [x, y - r],
+  [x - r, y],
+  [x, y + r],
+];
+const triangle = ([x, y]: [number, number], r: number): [number, number][] => [
+  [x, y + r],
+  [x + r * 0.87, y - r * 0.5],
+  [x - r * 0.87, y - r * 0.5],
+];
 
 function KeySymbol({ kind }: { kind: "checkpoint" | "spare" | "mark" | "record" }) {
   return (
@@ -104,7 +86,6 @@ export function PlanMap({
   const draws = useRef(0);
   const [size, setSize] = useState<{ width: number; height: number } | null>(null);
   const [view, setView] = useState<ViewState | null>(null);
-  const atlas = useMemo(() => planAtlas(), []);
 
   const placed = useMemo(() => {
     if (!records) return null;
@@ -152,6 +133,8 @@ export function PlanMap({
     if (!view) fitToPlan();
   }, [fitToPlan, view]);
 
+  // Metres per screen pixel at the current zoom (deck.gl's OrthographicView: one unit = 2^zoom pixels).
+  const px = view ? 2 ** -view.zoom : 0;
   const layers = useMemo(() => {
     if (!placed) return [];
     const list: Layer[] = [
@@ -178,29 +161,25 @@ export function PlanMap({
         getLineWidth: 1,
         getLineColor: PLAN_COLOURS.mark,
       }),
-      new IconLayer<PlacedPoint>({
+      // Spares and marks are drawn in metres sized from the zoom, so they keep their size in pixels on screen.
+      new PathLayer<PlacedPoint>({
         id: "plan-spares",
         data: placed.spares,
-        getPosition: (d) => d.at,
+        getPath: (d) => diamond(d.at, SIZE.spare * px),
         pickable: true,
-        iconAtlas: atlas.url,
-        iconMapping: atlas.mapping,
-        getIcon: () => "ring-diamond",
-        sizeUnits: "pixels",
-        getSize: SIZE.spare,
+        widthUnits: "pixels",
+        getWidth: 2.5,
         getColor: PLAN_COLOURS.spare,
+        jointRounded: false,
+        updateTriggers: { getPath: px },
       }),
-      new IconLayer<PlacedMark>({
+      new SolidPolygonLayer<PlacedMark>({
         id: "plan-marks",
         data: placed.marks,
-        getPosition: (d) => d.at,
+        getPolygon: (d) => triangle(d.at, SIZE.mark * px),
         pickable: true,
-        iconAtlas: atlas.url,
-        iconMapping: atlas.mapping,
-        getIcon: () => "triangle",
-        sizeUnits: "pixels",
-        getSize: SIZE.mark,
-        getColor: PLAN_COLOURS.mark,
+        getFillColor: PLAN_COLOURS.mark,
+        updateTriggers: { getPolygon: px },
       }),
       new TextLayer<PlacedMark>({
         id: "plan-mark-names",
@@ -219,7 +198,7 @@ export function PlanMap({
       }),
     ];
     return list;
-  }, [placed, atlas]);
+  }, [placed, px]);
 
   const nCheck = points.filter((p) => !p.spare).length;
   const nSpare = points.length - nCheck;
