@@ -86,7 +86,8 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   expect(await countCanvasColour(page, [47, 107, 69])).toBeGreaterThan(nCheck * 10);
   expect(await countCanvasColour(page, [122, 75, 42])).toBeGreaterThan(nSpare * 5);
   expect(await countCanvasColour(page, [29, 42, 36], 10)).toBeGreaterThan(40);
-  // Keyboard: Tab reaches the canvas after the stakeout links; minus zooms out (the scale bar grows).
+  // Keyboard: Tab reaches the map after the stakeout links (one tab stop, named); minus zooms out (the scale bar
+  // grows); the next Tab reaches the view buttons.
   const canvas = page.getByRole("img", { name: /^Map of the plan on Willow Strip: / });
   await page.getByRole("link", { name: "Field sheet (A4)" }).focus();
   await page.keyboard.press("Tab");

@@ -260,13 +260,17 @@ export function PlanMap({
               if (rootRef.current) rootRef.current.dataset.draws = String(draws.current);
             }}
             onLoad={() => {
+              // deck.gl's own event root is the map's one tab stop (its keyboard controller listens there): it gets
+              // the name; the canvas inside it stays out of the tab order.
               const canvas = deckRef.current?.deck?.getCanvas();
-              if (canvas) {
-                canvas.tabIndex = 0;
-                canvas.setAttribute("role", "img");
-                canvas.setAttribute("aria-label", label);
-                canvas.dataset.testid = "plan-map-canvas";
+              const root = frameRef.current?.querySelector<HTMLElement>(".deck-events-root") ?? canvas;
+              if (root) {
+                root.tabIndex = 0;
+                root.setAttribute("role", "img");
+                root.setAttribute("aria-label", label);
+                root.dataset.testid = "plan-map-canvas";
               }
+              if (canvas && canvas !== root) canvas.setAttribute("aria-hidden", "true");
             }}
           />
         ) : null}
