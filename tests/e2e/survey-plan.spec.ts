@@ -115,6 +115,8 @@ test("survey plan -- QA lead plans, technician surveys from it with the control-
   const tech = await pageFor(browser, "technician");
   const survey = generatePlanSurvey(WILLOW, points, 4242);
   await tech.goto(planUrl);
+  // The map is a client island: once it shows, the page is hydrated and the upload form answers in place.
+  await expect(tech.getByTestId("plan-map")).toBeVisible({ timeout: 30_000 });
   const up = tech.getByTestId("plan-survey-form");
   await up.getByLabel(/Survey file/).setInputFiles({
     name: FILE,
