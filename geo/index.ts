@@ -18,6 +18,13 @@ export {
   type ColumnRole,
   type CoordinateKind,
 } from "./read/columns";
+export {
+  statusOf,
+  RECORDED_MISSING_STATUSES,
+  STATUS_VALUES_TEXT,
+  type RecordedMissing,
+  type RecordedMissingStatus,
+} from "./read/status";
 export { normaliseFix, parseNumber, TimeReader, type FixQuality } from "./read/values";
 export type { TextInput } from "./read/text";
 export {

@@ -34,6 +34,8 @@ export const keys = {
   alertRules: () => "/api/alerts/rules",
   alerts: (open?: boolean) => `/api/alerts${qs({ open: open ? "true" : undefined })}`,
   alert: (id: string) => `/api/alerts/${id}`,
+  // Survey plans (issue 12)
+  planRecords: (planId: string) => `/api/plans/${planId}/records`,
 };
 
 /** Server-side paging, sorting and filtering of per-plant residuals. */

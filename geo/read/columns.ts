@@ -1,3 +1,5 @@
+import type { FileRole } from "../types";
+
 /**
  * Header-name guessing for as-planted records and survey files.
  * Names are compared after normalisation: lower case, units in brackets dropped, and spaces,
@@ -21,6 +23,7 @@ export const COLUMN_ROLES = [
   "precision",
   "rawX",
   "rawY",
+  "status",
 ] as const;
 export type ColumnRole = (typeof COLUMN_ROLES)[number];
 
@@ -101,6 +104,7 @@ const NAMES = {
   rawLon: ["rawlon", "rawlng", "rawlong", "rawlongitude", "gnsslon", "gnsslng", "gnsslongitude"],
   rawEasting: ["raweasting", "rawx", "rawe", "gnsseasting", "gnssx"],
   rawNorthing: ["rawnorthing", "rawy", "rawn", "gnssnorthing", "gnssy"],
+  status: ["status", "pointstatus", "surveystatus", "plantstatus"],
 } as const;
 
 /** Result of matching a header against the accepted names and an optional mapping. */
@@ -122,9 +126,16 @@ export interface ColumnPlan {
  * says otherwise.
  *
  * @example planColumns(["Plant ID", "Lat", "Lon"]).guess.columns // { id: "Plant ID", y: "Lat", x: "Lon" }
+ * The status column (geo/read/status.ts) belongs to survey files: with `options.role` "planted" it is never read.
+ *
+ * @example planColumns(["Plant ID", "Lat", "Lon"]).guess.columns // { id: "Plant ID", y: "Lat", x: "Lon" }
  * @example planColumns(["id", "fix", "lat", "lon"], { fix: null }).guess.unused // ["fix"]
  */
-export function planColumns(header: readonly string[], mapping: ColumnMapping = {}): ColumnPlan {
+export function planColumns(
+  header: readonly string[],
+  mapping: ColumnMapping = {},
+  options: { role?: FileRole } = {},
+): ColumnPlan {
   const clean = header.map((h) => h.replace(/^\uFEFF/, "").trim());
   const norm = clean.map(normaliseHeader);
   const problems: ColumnPlan["problems"] = [];
@@ -186,6 +197,7 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
   index.hdop = find(NAMES.hdop);
   index.time = find(NAMES.time);
   index.precision = find(NAMES.precision);
+  index.status = find(NAMES.status);
 
   const rawLat = find(NAMES.rawLat),
     rawLon = find(NAMES.rawLon);
@@ -264,6 +276,7 @@ export function planColumns(header: readonly string[], mapping: ColumnMapping = 
     index.rawY = -1;
     rawKind = null;
   }
+  if (options.role === "planted") index.status = -1;
 
   const columns: Partial<Record<ColumnRole, string>> = {};
   const used = new Set<number>();

@@ -3,6 +3,7 @@ import type { FileRole, InputIssue, PointTable } from "../types";
 import { IssueCollector } from "../validate/issues";
 import { planColumns, type ColumnGuess, type ColumnMapping } from "./columns";
 import { RowSink, tallyIssues, type Tally } from "./sink";
+import type { RecordedMissing } from "./status";
 import { encodingIssue, NotTextError, textChunks, type TextInput, type TextReport } from "./text";
 import { parseNumber } from "./values";
 
@@ -32,6 +33,8 @@ export interface ReadResult {
   crsHint?: string;
   /** Counts behind the summary warnings (see `appendReadResults`). */
   tally?: Tally;
+  /** Survey rows recording a planned point as dead or not found (geo/read/status.ts); not in `table`. */
+  recordedMissing?: RecordedMissing[];
   /** CSV: physical lines read, and whether any double quote was seen (a quoted field may span lines). */
   linesRead?: number;
   sawQuote?: boolean;
@@ -206,7 +209,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
         stopped = true;
         return;
       }
-      const plan = planColumns(header, options.mapping);
+      const plan = planColumns(header, options.mapping, { role: options.role });
       columns = { ...plan.guess, delimiter, decimalComma: delimiter !== "," };
       for (const p of plan.problems) issues.add({ ...p, file, line: 1 });
       if (plan.problems.some((p) => p.severity === "error")) {
@@ -420,6 +423,7 @@ export async function readCsv(input: TextInput, options: ReadOptions): Promise<R
     issues: list,
     columns,
     tally,
+    recordedMissing: done.recorded(),
     linesRead: line,
     sawQuote,
   };

@@ -114,14 +114,14 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
   // "@id" in a mapping (as stored after a first read) names the features' own ids.
   const featureIdAsked = mapping.id === FEATURE_ID;
   if (featureIdAsked) delete mapping.id;
-  const plan0 = planColumns(header, { ...mapping, coordinates: kind });
+  const plan0 = planColumns(header, { ...mapping, coordinates: kind }, { role: options.role });
   if (featureIdAsked || (plan0.index.id < 0 && anyFeatureId && mapping.id === undefined)) {
     header.push(FEATURE_ID);
     mapping.id = FEATURE_ID;
   }
   // x/y come from the geometry: give them a pseudo column so planning does not report them missing.
   header.push("@x", "@y");
-  const plan = planColumns(header, { ...mapping, x: "@x", y: "@y", coordinates: kind });
+  const plan = planColumns(header, { ...mapping, x: "@x", y: "@y", coordinates: kind }, { role: options.role });
   for (const p of plan.problems) issues.add({ ...p, file });
   const columns: ColumnGuess = {
     ...plan.guess,
@@ -153,6 +153,10 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
       continue;
     }
     if (g === null || g === undefined) {
+      const p = f.properties ?? {};
+      for (let k = 0; k < keys.length; k++) row[k] = cellText(p[keys[k]]);
+      if (header[keys.length] === FEATURE_ID) row[keys.length] = cellText(f.id);
+      if (sink.addWithoutPosition(row, line)) continue;
       issues.add({
         severity: "warning",
         code: "coordinate-missing",
@@ -217,7 +221,13 @@ export async function readGeoJson(input: TextInput, options: ReadOptions): Promi
     });
   }
   const list = issues.finish();
-  return { table: list.some((x) => x.severity === "error") ? null : table, issues: list, columns, crsHint };
+  return {
+    table: list.some((x) => x.severity === "error") ? null : table,
+    issues: list,
+    columns,
+    crsHint,
+    recordedMissing: sink.recorded(),
+  };
 }
 
 function cellText(v: unknown): string {

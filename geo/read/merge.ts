@@ -43,6 +43,10 @@ export function appendReadResults(
     issues: list,
     columns: first.columns,
     tally,
+    recordedMissing: [
+      ...(first.recordedMissing ?? []),
+      ...(second.recordedMissing ?? []).map((r) => ({ ...r, line: r.line + lineOffset })),
+    ],
     linesRead: (first.linesRead ?? 0) + Math.max(0, (second.linesRead ?? 0) - 1),
     sawQuote: !!(first.sawQuote || second.sawQuote),
   };

@@ -2,6 +2,7 @@ import type { AttributeName, FileRole, InputIssue, PointTable } from "../types";
 import type { IssueCollector } from "../validate/issues";
 import { ColumnStore } from "./builder";
 import type { ColumnPlan, ColumnRole } from "./columns";
+import { type RecordedMissing, STATUS_VALUES_TEXT, statusOf } from "./status";
 import { normaliseFix, parseNumber, TimeReader } from "./values";
 
 const ATTR_ROLES: readonly AttributeName[] = ["crop", "bed", "row", "cell", "arm", "fix", "method"];
@@ -101,6 +102,7 @@ export class RowSink {
   private noZoneCount = 0;
   private missingIds: number[] = [];
   private missingIdCount = 0;
+  private readonly recordedRows: RecordedMissing[] = [];
 
   constructor(
     plan: ColumnPlan,
@@ -154,6 +156,81 @@ export class RowSink {
     return this.addSpans(text, n, line, gx === undefined ? row.length : this.width, gx, gy);
   }
 
+  /**
+   * A row with no position at all (a GeoJSON feature without geometry): true when its status records the point as
+   * missing (or the status is wrong, reported), so the caller does not report the missing position.
+   */
+  addWithoutPosition(row: readonly string[], line: number): boolean {
+    if (this.ix.status < 0) return false;
+    const n = Math.min(row.length, this.lastNeeded + 1);
+    let pos = 0;
+    for (let i = 0; i < n; i++) {
+      this.starts[i] = pos;
+      pos += row[i].length;
+      this.ends[i] = pos;
+    }
+    return this.recordedStatus(row.slice(0, n).join(""), n, line, false);
+  }
+
+  /** Rows that recorded a planned point as dead or not found (not in the table). */
+  recorded(): RecordedMissing[] {
+    return this.recordedRows.slice();
+  }
+
+  /**
+   * The status column of a survey row: false for a measured row (read on as usual); true when the row is a report of
+   * a missing point (kept in `recorded`) or its status is wrong (an error is added). `hasGeometry` is the GeoJSON
+   * geometry's presence; for CSV the coordinate cells are looked at.
+   */
+  private recordedStatus(text: string, nFields: number, line: number, hasGeometry?: boolean): boolean {
+    const col = this.ix.status;
+    const raw = this.cell(text, nFields, col);
+    const status = statusOf(raw);
+    if (status === "measured") return false;
+    if (status === null) {
+      this.issues.add({
+        severity: "error",
+        code: "status-unknown",
+        file: this.options.source,
+        line,
+        column: this.names[col],
+        value: raw,
+        message: `"${raw.trim()}" is not a status Plotproof knows; expected ${STATUS_VALUES_TEXT}`,
+      });
+      return true;
+    }
+    const idCol = this.ix.id;
+    const id = idCol >= 0 ? this.cell(text, nFields, idCol).trim() : "";
+    if (id === "") {
+      this.issues.add({
+        severity: "error",
+        code: "status-without-id",
+        file: this.options.source,
+        line,
+        column: idCol >= 0 ? this.names[idCol] : this.names[col],
+        value: raw,
+        message: `the row records a point as "${status}" but names no point${idCol >= 0 ? "" : " (the file has no point name or plant id column)"}; write the plan's point name or the plant id so the plan can count it`,
+      });
+      return true;
+    }
+    const hasPosition =
+      hasGeometry ??
+      (this.cell(text, nFields, this.ix.x).trim() !== "" || this.cell(text, nFields, this.ix.y).trim() !== "");
+    if (hasPosition) {
+      this.issues.add({
+        severity: "warning",
+        code: "status-position-unused",
+        file: this.options.source,
+        line,
+        column: this.names[col],
+        value: raw,
+        message: `the point is recorded "${status}", so its position is not used as a checkpoint`,
+      });
+    }
+    this.recordedRows.push({ line, id, status });
+    return true;
+  }
+
   /** The cell `col` of the current row as a string ("" when absent). */
   private cell(text: string, nFields: number, col: number): string {
     return col >= 0 && col < nFields ? text.substring(this.starts[col], this.ends[col]) : "";
@@ -178,6 +255,7 @@ export class RowSink {
         message: `row has ${fieldCount} fields, the header has ${this.width}; cells are matched by position`,
       });
     }
+    if (ix.status >= 0 && this.recordedStatus(text, nFields, line, gx === undefined ? undefined : true)) return false;
     let x: number, y: number;
     if (gx !== undefined && gy !== undefined) {
       x = gx;

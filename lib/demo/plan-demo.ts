@@ -4,11 +4,16 @@
  * before and after. Invented data, for the demo only; deterministic (seeded).
  *
  * Error model: survey point = true plant position (recomputed from the plant id and the field's layout, as in
- * generate.ts) + N(0, 1.5 mm) per axis, stated precision 2 mm; 5 % of planned checkpoints are dead; the mark is
- * measured within about 1 mm of its known position.
+ * generate.ts) + N(0, 1.5 mm) per axis, stated precision 2 mm; 5 % of planned checkpoints are missing (every third of
+ * them not found, the others dead), written as rows of the file's status column with the point name and no position;
+ * the mark is measured within about 1 mm of its known position.
  */
 import { gaussian, mulberry32 } from "@/lib/random";
 import type { DemoFieldSpec } from "./farm";
+
+/** The demo field that gets a survey plan and a survey made from it (lib/demo/plan-seed.ts), and the plan's name. */
+export const PLAN_DEMO_FIELD = "Willow Strip";
+export const PLAN_DEMO_NAME = "Willow Strip check survey, May 2026";
 
 /** The control mark the demo gives a field: 2 m before the first row's start, on the row line. */
 export function demoControlMark(spec: DemoFieldSpec) {
@@ -45,8 +50,8 @@ export interface StakeoutPoint {
 
 export interface PlanSurvey {
   csv: string;
-  /** Planned checkpoints found dead (reported with the upload). */
-  dead: { name: string; status: "dead" }[];
+  /** Planned checkpoints found dead or not found, recorded in the file's status column (no position). */
+  missing: { name: string; status: "dead" | "not found" }[];
   surveyed: number;
   /** The control mark as measured before and after the survey. */
   before: { e: number; n: number; h: number };
@@ -54,24 +59,28 @@ export interface PlanSurvey {
 }
 
 /**
- * Survey rows for a plan's points: each checkpoint measured unless found dead, then the next unused spare of its bed.
+ * Survey rows for a plan's points: each checkpoint measured (id = plant id) unless missing, then a status row (id =
+ * point name, status dead or not found, no position) and the next unused spare of its bed measured instead.
  *
- * @example generatePlanSurvey(DEMO_FIELDS[1], stakeoutPoints, 7).csv.split("\n")[0] // "plant_id,method,precision_m,easting,northing,observed_at"
+ * @example generatePlanSurvey(DEMO_FIELDS[1], stakeoutPoints, 7).csv.split("\n")[0] // "id,status,method,precision_m,easting,northing,observed_at"
  */
 export function generatePlanSurvey(spec: DemoFieldSpec, points: readonly StakeoutPoint[], seed: number): PlanSurvey {
   const rand = mulberry32(seed);
   const g = gaussian(rand);
   const start = Date.parse(spec.startUtc) + 7 * 86_400_000;
-  const rows = ["plant_id,method,precision_m,easting,northing,observed_at"];
-  const dead: PlanSurvey["dead"] = [];
+  const rows = ["id,status,method,precision_m,easting,northing,observed_at"];
+  const missing: PlanSurvey["missing"] = [];
+  let measured = 0;
   const usedSpares = new Set<string>();
   const measure = (p: StakeoutPoint) => {
     const t = demoTruePosition(spec, p.plantId);
     if (!t) throw new Error(`demo: ${p.plantId} is not a plant of ${spec.name}`);
     const obs = new Date(start + (rows.length - 1) * 45_000).toISOString();
+    measured++;
     rows.push(
       [
         p.plantId,
+        "",
         "total-station",
         "0.002",
         (t[0] + g() * 0.0015).toFixed(4),
@@ -83,7 +92,9 @@ export function generatePlanSurvey(spec: DemoFieldSpec, points: readonly Stakeou
   for (const p of points) {
     if (p.spare) continue;
     if (rand() < 0.05) {
-      dead.push({ name: p.name, status: "dead" });
+      const status = missing.length % 3 === 2 ? "not found" : "dead";
+      missing.push({ name: p.name, status });
+      rows.push([p.name, status, "", "", "", "", ""].join(","));
       const spare = points.find((s) => s.spare && s.bed === p.bed && !usedSpares.has(s.name));
       if (spare) {
         usedSpares.add(spare.name);
@@ -99,7 +110,7 @@ export function generatePlanSurvey(spec: DemoFieldSpec, points: readonly Stakeou
     n: Number((mark.n + g() * s).toFixed(4)),
     h: Number((mark.h + g() * s).toFixed(4)),
   });
-  return { csv: `${rows.join("\n")}\n`, dead, surveyed: rows.length - 1, before: near(0.0007), after: near(0.0007) };
+  return { csv: `${rows.join("\n")}\n`, missing, surveyed: measured, before: near(0.0007), after: near(0.0007) };
 }
 
 /** Read a stakeout CSV (lib/plan/stakeout.ts columns) back into points; plain cells only, as the demo writes them. */

@@ -11,11 +11,9 @@ import type { Viewer } from "@/lib/server/access";
 import { PlanInput } from "@/lib/validation/plan";
 import { DEMO_FIELDS, DEMO_ORG, DEMO_PEOPLE } from "./farm";
 import { generateDemoFiles } from "./generate";
-import { demoControlMark, generatePlanSurvey } from "./plan-demo";
+import { demoControlMark, generatePlanSurvey, PLAN_DEMO_FIELD, PLAN_DEMO_NAME } from "./plan-demo";
 
-/** The demo field that gets a survey plan and a survey made from it. */
-export const PLAN_DEMO_FIELD = "Willow Strip";
-export const PLAN_DEMO_NAME = "Willow Strip check survey, May 2026";
+export { PLAN_DEMO_FIELD, PLAN_DEMO_NAME };
 
 async function viewerFor(orgId: string, role: "qa_lead" | "technician"): Promise<Viewer> {
   const person = DEMO_PEOPLE.find((p) => p.role === role)!;
@@ -25,7 +23,8 @@ async function viewerFor(orgId: string, role: "qa_lead" | "technician"): Promise
 
 /**
  * Demo of survey planning on first start: Willow Strip gets its as-planted records, a control mark, a plan made by
- * the QA lead and a survey the technician made from it (with the control-mark check and two dead plants).
+ * the QA lead and a survey the technician made from it (with the control-mark check; the planned plants found dead or
+ * not found are rows of the file's status column, without a position).
  */
 export async function seedPlanDemo(orgId: string): Promise<void> {
   const db = await getDb();
@@ -89,7 +88,7 @@ export async function seedPlanDemo(orgId: string): Promise<void> {
       precisionMm: 2,
       surveyor: technician.name,
       method: "Total station from two setups on the headland",
-      missing: survey.dead,
+      missing: [],
     },
   });
 }

@@ -16,6 +16,26 @@ const STRATA = [
 ];
 
 describe("surveyCoverage", () => {
+  it("surveyCoverage -- rows of the file's status column count as recorded missing, with their line", () => {
+    const c = surveyCoverage(
+      POINTS,
+      STRATA,
+      ["C0001-B1", "LA-1-2-0040", "S0001-B1", "LA-2-1-0010"],
+      [
+        { name: "C0003-B1", status: "dead", line: 6 },
+        { name: "LA-2-5-0150", status: "not found", line: 7 },
+        { name: "C0005-B2", status: "dead" },
+      ],
+    );
+    expect(c.checkpointsSurveyed).toBe(3);
+    expect(c.missing).toEqual([
+      { name: "C0003-B1", plantId: "LA-1-4-0100", stratum: "bed 1", status: "dead", line: 6 },
+      // a report by point name (here the form's) comes before one by plant id (the file's line 7)
+      { name: "C0005-B2", plantId: "LA-2-5-0150", stratum: "bed 2", status: "dead" },
+    ]);
+    expect(c.extra.count).toBe(0);
+  });
+
   it("surveyCoverage -- names or plant ids count; a spare stands in; reported and absent points; extras", () => {
     const c = surveyCoverage(
       POINTS,

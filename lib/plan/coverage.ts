@@ -20,6 +20,8 @@ export interface MissingPoint {
   stratum: string;
   /** Reported by the surveyor, or "absent" when the survey neither holds nor reports it. */
   status: MissingStatus | "absent";
+  /** The survey file's line that recorded it (its status column), when the file did rather than the upload form. */
+  line?: number;
 }
 
 export interface StratumCoverage {
@@ -47,7 +49,8 @@ export interface Coverage {
 
 /**
  * Coverage of a survey against its plan. A survey point counts for a plan point when its id is the plan point's name
- * or its plant id. Throws (with the numbers) when named survey points exist but none matches the plan.
+ * or its plant id. `reported` are the points recorded dead or not found, by the file's status column (with its `line`)
+ * or the upload form; a later report of the same point wins. Throws (with the numbers) when named survey points exist but none matches the plan.
  *
  * @example surveyCoverage(points, [{ key: "bed 1", minimum: 3 }], ["C0001-B1", "LA-1-2-0017", ""], [])
  */
@@ -55,7 +58,7 @@ export function surveyCoverage(
   points: readonly PlanPointRef[],
   strata: readonly { key: string; minimum: number }[],
   surveyIds: readonly (string | null)[],
-  reported: readonly { name: string; status: MissingStatus }[],
+  reported: readonly { name: string; status: MissingStatus; line?: number }[],
 ): Coverage {
   const byKey = new Map<string, PlanPointRef>();
   for (const p of points) {
@@ -91,15 +94,15 @@ export function surveyCoverage(
       `coverage: none of the ${named} named survey points matches a point of the plan (${points.length} points, e.g. ${examples}); the survey's id column should hold the plan's point names or plant ids. Was the right plan chosen?`,
     );
   }
-  const status = new Map(reported.map((r) => [r.name, r.status]));
+  const report = new Map(reported.map((r) => [r.name, r]));
   const missing: MissingPoint[] = points
     .filter((p) => !p.spare && !surveyed.has(p.name))
-    .map((p) => ({
-      name: p.name,
-      plantId: p.plantId,
-      stratum: p.stratum,
-      status: status.get(p.name) ?? status.get(p.plantId) ?? "absent",
-    }));
+    .map((p) => {
+      const r = report.get(p.name) ?? report.get(p.plantId);
+      const out: MissingPoint = { name: p.name, plantId: p.plantId, stratum: p.stratum, status: r?.status ?? "absent" };
+      if (r?.line !== undefined) out.line = r.line;
+      return out;
+    });
   const strataOut: StratumCoverage[] = strata.map((s) => {
     const count = points.filter((p) => p.stratum === s.key && surveyed.has(p.name)).length;
     return { key: s.key, minimum: s.minimum, surveyed: count, meets: count >= s.minimum };

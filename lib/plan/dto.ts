@@ -104,7 +104,8 @@ export interface SurveyRecordDto {
   precisionMm: number | null;
   surveyor: string | null;
   method: string | null;
-  missingReported: { name: string; status: MissingStatus }[];
+  /** Points reported dead or not found: by the file's status column (with its line) and the upload form. */
+  missingReported: { name: string; status: MissingStatus; line?: number }[];
   coverage: Coverage | null;
   createdAt: string;
 }

@@ -17,6 +17,7 @@ const routes = {} as {
   plan: typeof import("@/app/api/plans/[planId]/route");
   csv: typeof import("@/app/api/plans/[planId]/stakeout.csv/route");
   geojson: typeof import("@/app/api/plans/[planId]/stakeout.geojson/route");
+  records: typeof import("@/app/api/plans/[planId]/records/route");
   marks: typeof import("@/app/api/fields/[fieldId]/control-marks/route");
   mark: typeof import("@/app/api/control-marks/[markId]/route");
   datasets: typeof import("@/app/api/fields/[fieldId]/datasets/route");
@@ -62,6 +63,7 @@ beforeAll(async () => {
   routes.plan = await import("@/app/api/plans/[planId]/route");
   routes.csv = await import("@/app/api/plans/[planId]/stakeout.csv/route");
   routes.geojson = await import("@/app/api/plans/[planId]/stakeout.geojson/route");
+  routes.records = await import("@/app/api/plans/[planId]/records/route");
   routes.marks = await import("@/app/api/fields/[fieldId]/control-marks/route");
   routes.mark = await import("@/app/api/control-marks/[markId]/route");
   routes.datasets = await import("@/app/api/fields/[fieldId]/datasets/route");
@@ -104,6 +106,9 @@ describe("survey plans through the API", () => {
     expect(record.instrumentCheck!.word).toBe("meets");
     expect(record.coverage!.planned).toBe(demoPlan.checkpoints);
     expect(record.coverage!.checkpointsSurveyed + record.coverage!.missing.length).toBe(demoPlan.checkpoints);
+    // The demo survey records its dead and not-found plants in the file's status column (lib/demo/plan-demo.ts).
+    expect(record.coverage!.missing.length).toBeGreaterThan(0);
+    for (const m of record.coverage!.missing) expect(m.line).toBeGreaterThan(1);
   });
 
   it("plan -- a technician and a grower may not make a plan (403); a grower may read it", async () => {
@@ -119,12 +124,45 @@ describe("survey plans through the API", () => {
     expect(read.status).toBe(200);
   });
 
+  it("plan map -- a grower reads every as-planted record of the plan's dataset in the field's CRS", async () => {
+    const res = await routes.records.GET(
+      req(`/api/plans/${demoPlan.id}/records`, { cookie: cookies.grower }),
+      ctx({ planId: demoPlan.id }),
+    );
+    expect(res.status).toBe(200);
+    const { records } = await res.json();
+    const ds = await routes.datasets.GET(
+      req(`/api/fields/${fieldId}/datasets`, { cookie: cookies.grower }),
+      ctx({ fieldId }),
+    );
+    const plantedDs = ((await ds.json()).datasets as DatasetDto[]).find((d) => d.id === demoPlan.plantedDatasetId)!;
+    expect(records.crs).toBe(demoPlan.fieldCrs);
+    expect(records.count + records.unplaced).toBe(plantedDs.rowCount);
+    expect(records.xy).toHaveLength(2 * records.count);
+    // A planned plant lies on one of the records (the plan chose it from them), to the centimetre.
+    const plan = (
+      await (
+        await routes.plan.GET(
+          req(`/api/plans/${demoPlan.id}`, { cookie: cookies.grower }),
+          ctx({ planId: demoPlan.id }),
+        )
+      ).json()
+    ).plan as SurveyPlanWithPoints;
+    const p = plan.points[0];
+    const ce = Math.round((p.e - records.origin[0]) * 100);
+    const cn = Math.round((p.n - records.origin[1]) * 100);
+    let hit = false;
+    for (let i = 0; i < records.xy.length; i += 2) if (records.xy[i] === ce && records.xy[i + 1] === cn) hit = true;
+    expect(hit).toBe(true);
+  });
+
   it("plan -- another organisation gets 404 for the plan, its stakeout files, the field's plans and marks", async () => {
     const c = { cookie: cookies.other };
     const p = { planId: demoPlan.id };
     expect((await routes.plan.GET(req(`/api/plans/${demoPlan.id}`, c), ctx(p))).status).toBe(404);
     expect((await routes.csv.GET(req(`/api/plans/${demoPlan.id}/stakeout.csv`, c), ctx(p))).status).toBe(404);
     expect((await routes.geojson.GET(req(`/api/plans/${demoPlan.id}/stakeout.geojson`, c), ctx(p))).status).toBe(404);
+    expect((await routes.records.GET(req(`/api/plans/${demoPlan.id}/records`, c), ctx(p))).status).toBe(404);
     expect((await routes.plans.GET(req(`/api/fields/${fieldId}/plans`, c), ctx({ fieldId }))).status).toBe(404);
     expect((await routes.marks.GET(req(`/api/fields/${fieldId}/control-marks`, c), ctx({ fieldId }))).status).toBe(404);
     const created = await routes.plans.POST(
@@ -340,6 +378,93 @@ describe("survey plans through the API", () => {
       /^Nomatch\.csv was not saved: none of the 2 named survey points matches a point of the plan \(\d+ points, e\.g\. C0001-B1/,
     );
     expect((await datasets()).length).toBe(count);
+  });
+
+  it("survey upload -- the file's status rows and the form's list count as recorded missing; bad status rows are refused", async () => {
+    const csvText = await (
+      await routes.csv.GET(
+        req(`/api/plans/${demoPlan.id}/stakeout.csv`, { cookie: cookies.technician }),
+        ctx({ planId: demoPlan.id }),
+      )
+    ).text();
+    const points = readStakeoutCsv(csvText);
+    const [byFile, byForm] = points.filter((p) => !p.spare).slice(0, 2);
+    const survey = generatePlanSurvey(WILLOW, points, 99);
+    const lines = survey.csv.trimEnd().split("\n");
+    // The first checkpoint is recorded dead in the file (point name, no position); the second is left out of the file
+    // and reported "not found" on the form.
+    const at = lines.findIndex((l) => l.startsWith(`${byFile.plantId},`));
+    lines[at] = `${byFile.name},Dead,,,,,`;
+    const text = `${lines.filter((l) => !l.startsWith(`${byForm.plantId},`)).join("\n")}\n`;
+    const fieldwork = { planId: demoPlan.id, missing: [{ name: byForm.name, status: "not found" }] };
+    const count = (await datasets()).length;
+
+    // A status row naming a point the plan does not have: refused with file, line and column.
+    const stranger = await upload(cookies.technician, `${text}WS-NOPE,dead,,,,,\n`, "stranger.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(stranger.status).toBe(422);
+    const strangerBody = (await stranger.json()).error;
+    const strangerLine = text.trimEnd().split("\n").length + 1;
+    expect(strangerBody.message).toBe(
+      `stranger.csv was not saved: 1 row(s) record a point as dead or not found that is not in the plan "${PLAN_DEMO_NAME}"; first: line ${strangerLine}, column id, "WS-NOPE".`,
+    );
+    expect(strangerBody.issues[0]).toMatchObject({
+      file: "stranger.csv",
+      line: strangerLine,
+      column: "id",
+      value: "WS-NOPE",
+    });
+
+    // An unknown status value: refused by the reader, naming line, column and value.
+    const unknown = await upload(cookies.technician, `${text}${byForm.name},broken,,,,,\n`, "unknown.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(unknown.status).toBe(422);
+    expect((await unknown.json()).error.issues[0]).toMatchObject({
+      code: "status-unknown",
+      file: "unknown.csv",
+      column: "status",
+      value: "broken",
+    });
+
+    // Without a plan the status rows cannot be counted: a warning the uploader must accept.
+    const noPlan = await upload(cookies.technician, text, "no-plan.csv", { kind: "survey", crs: "EPSG:25831" });
+    expect(noPlan.status).toBe(422);
+    const noPlanBody = (await noPlan.json()).error;
+    expect(noPlanBody.code).toBe("warnings_unaccepted");
+    expect(noPlanBody.issues).toContainEqual(
+      expect.objectContaining({ code: "status-without-plan", file: "no-plan.csv", line: at + 1 }),
+    );
+    expect((await datasets()).length).toBe(count);
+
+    const ok = await upload(cookies.technician, text, "status-column.csv", {
+      kind: "survey",
+      crs: "EPSG:25831",
+      acceptWarnings: "true",
+      fieldwork: JSON.stringify(fieldwork),
+    });
+    expect(ok.status, await ok.clone().text()).toBe(201);
+    const saved = (await ok.json()).dataset as DatasetDto;
+    const { record } = (await (
+      await routes.record.GET(
+        req(`/api/datasets/${saved.id}/survey-record`, { cookie: cookies.grower }),
+        ctx({ id: saved.id }),
+      )
+    ).json()) as { record: SurveyRecordDto };
+    const missing = record.coverage!.missing;
+    expect(missing.find((m) => m.name === byFile.name)).toMatchObject({ status: "dead", line: at + 1 });
+    expect(missing.find((m) => m.name === byForm.name)).toMatchObject({ status: "not found" });
+    expect(missing.find((m) => m.name === byForm.name)!.line).toBeUndefined();
+    for (const m of survey.missing) expect(missing.find((x) => x.name === m.name)).toMatchObject({ status: m.status });
+    expect(record.coverage!.checkpointsSurveyed).toBe(demoPlan.checkpoints - missing.length);
+    expect(record.missingReported).toContainEqual({ name: byFile.name, status: "dead", line: at + 1 });
   });
 
   it("audit -- unpaired counts split by the plan; the unpaired CSV holds only sampled and surveyed points unless all=1", async () => {

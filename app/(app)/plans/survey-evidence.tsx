@@ -45,8 +45,8 @@ export function CoverageBlock({ record }: { record: SurveyRecordDto }) {
           {c.checkpointsSurveyed} of {c.planned} planned checkpoints surveyed
         </strong>
         {c.sparesSurveyed ? `, plus ${c.sparesSurveyed} spare(s)` : ""}; {c.missing.length} missing ({reported.length}{" "}
-        reported {reported.map((m) => `${m.name} ${m.status}`).join(", ") || "–"}; {absent.length} absent);{" "}
-        {c.extra.count} extra point(s) not in the plan
+        reported {reported.map((m) => `${m.name} ${m.status}${m.line ? ` (line ${m.line})` : ""}`).join(", ") || "–"};{" "}
+        {absent.length} absent); {c.extra.count} extra point(s) not in the plan
         {c.extra.unnamed ? ` (${c.extra.unnamed} without an id)` : ""}.
       </p>
       <p className={c.allStrataMeet ? "text-leaf" : "font-semibold text-alarm"} data-testid="coverage-strata">

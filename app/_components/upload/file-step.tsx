@@ -22,6 +22,7 @@ export function FileStep({
   onBusy,
   onReset,
   machineId,
+  fieldwork,
 }: {
   file: File;
   preview: Preview;
@@ -31,6 +32,8 @@ export function FileStep({
   onReset: () => void;
   /** As-planted only: the machine the uploader chose (issue 13). */
   machineId?: string;
+  /** Survey only: the fieldwork part (JSON) to send along, or null for none. */
+  fieldwork?: string | null;
 }) {
   const mapping = useColumnMapping({ preview, field, kind });
   const upload = useUpload({
@@ -41,6 +44,7 @@ export function FileStep({
     setError: mapping.form.setError,
     onBusy,
     machineId,
+    fieldwork,
   });
   const locked = upload.uploading || upload.result.name === "saved";
 

@@ -48,6 +48,7 @@ export const ROLE_ORDER: Record<FileKind, readonly ColumnRole[]> = {
     "arm",
     "rawX",
     "rawY",
+    "status",
   ],
 };
 
@@ -84,6 +85,8 @@ export function roleLabel(role: ColumnRole, coords: CoordinateKind, kind: FileKi
       return "Raw GNSS longitude or easting";
     case "rawY":
       return "Raw GNSS latitude or northing";
+    case "status":
+      return "Status (dead / not found)";
   }
 }
 

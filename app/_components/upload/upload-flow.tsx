@@ -7,6 +7,8 @@ import { FileStep, type UploadField } from "./file-step";
 import type { FileKind } from "./mapping-schema";
 import { usePreview } from "./use-preview";
 import { MachinePicker } from "./machine-picker";
+import { FieldworkSection, type SurveyFieldworkChoices } from "./fieldwork-section";
+import { emptyFieldwork, type FieldworkValues, fieldworkJson } from "@/app/_components/fieldwork/fieldwork-fields";
 
 const INTRO: Record<FileKind, string> = {
   planted:
@@ -20,13 +22,17 @@ export function UploadFlow({
   field,
   kind,
   machines,
+  fieldwork,
 }: {
   field: UploadField;
   kind: FileKind;
   /** As-planted only: the organisation's machines to name the one that recorded the file (issue 13). */
   machines?: { id: string; name: string; toolArms: number }[];
+  /** Survey only: the field's plans and control marks, for the optional fieldwork record. */
+  fieldwork?: SurveyFieldworkChoices;
 }) {
   const [file, setFile] = useState<File | null>(null);
+  const [work, setWork] = useState<FieldworkValues>(() => emptyFieldwork());
   const [machineId, setMachineId] = useState("");
   const [generation, setGeneration] = useState(0);
   const [fileError, setFileError] = useState<string | null>(null);
@@ -56,6 +62,9 @@ export function UploadFlow({
         {kind === "planted" && machines ? (
           <MachinePicker machines={machines} value={machineId} onChange={setMachineId} disabled={busy} />
         ) : null}
+        {kind === "survey" && fieldwork ? (
+          <FieldworkSection choices={fieldwork} values={work} onChange={setWork} disabled={busy} />
+        ) : null}
       </section>
 
       {preview.status === "reading" ? (
@@ -78,6 +87,7 @@ export function UploadFlow({
           onBusy={setBusy}
           onReset={reset}
           machineId={kind === "planted" && machineId ? machineId : undefined}
+          fieldwork={kind === "survey" ? fieldworkJson(work) : null}
         />
       ) : null}
     </>

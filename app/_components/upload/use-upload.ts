@@ -39,6 +39,7 @@ export function useUpload({
   setError,
   onBusy,
   machineId,
+  fieldwork,
 }: {
   file: File;
   field: UploadField;
@@ -48,6 +49,8 @@ export function useUpload({
   onBusy: (busy: boolean) => void;
   /** As-planted only: the machine that recorded the file (issue 13). */
   machineId?: string;
+  /** Survey only: the plan, control-mark check and instrument as the `fieldwork` part (JSON), or null for none. */
+  fieldwork?: string | null;
 }) {
   const router = useRouter();
   const { mutate } = useSWRConfig();
@@ -88,6 +91,7 @@ export function useUpload({
     body.set("acceptWarnings", acceptWarnings ? "true" : "false");
     if (v.savePreset && v.presetName.trim()) body.set("presetName", v.presetName.trim());
     if (kind === "planted" && machineId) body.set("machineId", machineId);
+    if (kind === "survey" && fieldwork) body.set("fieldwork", fieldwork);
     const { done, abort } = sendUpload(keys.fieldDatasets(field.id), body, {
       onTransfer: (transfer) => setProgress((p) => (p ? { ...p, transfer } : p)),
       onStage: (stage, fraction) =>

@@ -23,7 +23,7 @@ import type { UploadOkDto } from "@/lib/api-types";
 import type { Viewer } from "@/lib/server/access";
 import { checkFileInField } from "./field-checks";
 import { createSurveyRecord } from "@/db/queries/survey-plans";
-import { prepareSurveyRecord } from "@/lib/server/plans/fieldwork";
+import { prepareSurveyRecord, recordedWithoutPlanIssues } from "@/lib/server/plans/fieldwork";
 import type { FieldworkInput } from "@/lib/validation/plan";
 
 export interface IngestRequest {
@@ -126,6 +126,7 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
     })),
   );
   if (hasErrors(issues)) throw fileError(r.fileName, issues);
+  issues.push(...recordedWithoutPlanIssues(r.fileName, read.recordedMissing, !!r.fieldwork?.planId));
   const warnings = issues.filter((i) => i.severity === "warning");
   if (warnings.length > 0 && !r.acceptWarnings) {
     throw new AppError(
@@ -146,6 +147,7 @@ export async function ingestDataset(r: IngestRequest): Promise<UploadOkDto> {
         fileName: r.fileName,
         table: read.table,
         fieldwork: r.fieldwork,
+        recorded: { rows: read.recordedMissing ?? [], idColumn: read.columns.columns.id },
       })
     : null;
   progress("checking", 1);

@@ -1,5 +1,5 @@
 import "server-only";
-import type { PointTable } from "@/geo";
+import type { InputIssue, PointTable, RecordedMissing } from "@/geo";
 import type { DB } from "@/db/client";
 import { getControlMark, getSurveyPlan, type NewSurveyRecord } from "@/db/queries/survey-plans";
 import { AppError } from "@/lib/errors";
@@ -18,9 +18,19 @@ const sentence = (m: string) => `${m[0].toUpperCase()}${m.slice(1)}.`;
  */
 export async function prepareSurveyRecord(
   db: DB,
-  r: { orgId: string; userId: string; fieldId: string; fileName: string; table: PointTable; fieldwork: FieldworkInput },
+  r: {
+    orgId: string;
+    userId: string;
+    fieldId: string;
+    fileName: string;
+    table: PointTable;
+    fieldwork: FieldworkInput;
+    /** Rows of the file's status column recording planned points dead or not found, and the id column's name. */
+    recorded?: { rows: readonly RecordedMissing[]; idColumn?: string };
+  },
 ): Promise<Omit<NewSurveyRecord, "datasetId">> {
   const w = r.fieldwork;
+  const fileRows = r.recorded?.rows ?? [];
   const plan = w.planId ? await getSurveyPlan(db, { id: w.planId, orgId: r.orgId }) : null;
   if (w.planId && (!plan || plan.fieldId !== r.fieldId))
     throw new AppError("invalid_input", "The survey plan chosen is not a plan of this field.", [
@@ -58,6 +68,8 @@ export async function prepareSurveyRecord(
   }
 
   let coverage: NewSurveyRecord["coverage"] = null;
+  // The file's status rows first, then the form's list: a point the form names again takes the form's word.
+  const reported = [...fileRows.map((m) => ({ name: m.id, status: m.status, line: m.line })), ...w.missing];
   if (plan) {
     const ids: (string | null)[] = [];
     for (let i = 0; i < r.table.length; i++) ids.push(r.table.id?.get(i) ?? null);
@@ -72,12 +84,31 @@ export async function prepareSurveyRecord(
           .join(", ")}.`,
         [{ path: ["fieldwork", "missing"], message: "not a point of the plan" }],
       );
+    const strangers = fileRows.filter((m) => !known.has(m.id));
+    if (strangers.length > 0) {
+      const column = r.recorded?.idColumn;
+      const issues: InputIssue[] = strangers.slice(0, 50).map((m) => ({
+        severity: "error",
+        code: "status-point-not-in-plan",
+        file: r.fileName,
+        line: m.line,
+        column,
+        value: m.id,
+        message: `the row records "${m.id}" as ${m.status}, but the plan "${plan.name}" has no point or plant of that name`,
+      }));
+      const first = strangers[0];
+      throw new AppError(
+        "invalid_file",
+        `${r.fileName} was not saved: ${strangers.length} row(s) record a point as dead or not found that is not in the plan "${plan.name}"; first: line ${first.line}${column ? `, column ${column}` : ""}, "${first.id}".`,
+        issues,
+      );
+    }
     try {
       coverage = surveyCoverage(
         plan.points,
         plan.strata.map((s) => ({ key: s.key, minimum: s.minimum })),
         ids,
-        w.missing,
+        reported,
       );
     } catch (e) {
       const message = (e as Error).message.replace(/^coverage: /, "");
@@ -99,7 +130,29 @@ export async function prepareSurveyRecord(
     precisionMm: w.precisionMm,
     surveyor: w.surveyor,
     method: w.method,
-    missingReported: w.missing,
+    missingReported: plan ? reported : w.missing,
     coverage,
   };
+}
+
+/**
+ * A survey file whose status column records planned points as dead or not found, uploaded without a plan: nothing
+ * can count them, so the uploader is told (a warning to accept) rather than the rows vanishing silently.
+ */
+export function recordedWithoutPlanIssues(
+  fileName: string,
+  rows: readonly RecordedMissing[] | undefined,
+  planChosen: boolean,
+): InputIssue[] {
+  if (planChosen || !rows || rows.length === 0) return [];
+  const lines = rows.slice(0, 10).map((m) => m.line);
+  return [
+    {
+      severity: "warning",
+      code: "status-without-plan",
+      file: fileName,
+      line: lines[0],
+      message: `${rows.length} row(s) record a point as dead or not found (lines ${lines.join(", ")}${rows.length > lines.length ? ", …" : ""}); they are not survey points, and with no survey plan chosen nothing counts them. Choose the plan the survey was made from to count them as recorded missing`,
+    },
+  ];
 }

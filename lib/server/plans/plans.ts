@@ -9,6 +9,7 @@ import { localDay } from "@/lib/audit/local-day";
 import { AppError, notFound } from "@/lib/errors";
 import { contentDisposition, fileSlug } from "@/lib/http";
 import type { PlanParameters, SurveyPlanWithPoints } from "@/lib/plan/dto";
+import { type PlanRecordsPayload, planRecordsPayload } from "@/lib/plan/plan-map";
 import { planSampleSize } from "@/lib/plan/sample-size";
 import { type PlanPlant, selectCheckpoints } from "@/lib/plan/select";
 import { stakeoutCsv, stakeoutGeoJson } from "@/lib/plan/stakeout";
@@ -198,4 +199,12 @@ export function stakeoutGeoJsonResponse(plan: SurveyPlanWithPoints): Response {
       "cache-control": "no-store",
     },
   });
+}
+
+/** Every as-planted record of the plan's dataset in the field's CRS, for the plan's map (drawn faint). */
+export async function planRecords(plan: SurveyPlanWithPoints, orgId: string): Promise<PlanRecordsPayload> {
+  const loaded = await loadDatasetPoints(await getDb(), { id: plan.plantedDatasetId, orgId });
+  if (!loaded) throw notFound("As-planted dataset");
+  const table = projectTable(loaded.table, resolveCrs(loaded.dto.crs), resolveCrs(plan.fieldCrs));
+  return planRecordsPayload(plan.fieldCrs, table.x, table.y, plan.points);
 }

@@ -7,7 +7,8 @@ import { can } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { FieldTime, PageTitle, Panel, TextLink } from "@/app/_components/ui";
 import { PlanSurveyUpload } from "../plan-forms";
-import { PlanPlot, PlanSafetyNote, PointsTable, SampleSizeText, StrataTable } from "../plan-parts";
+import { PlanMapLoader } from "../plan-map-loader";
+import { PlanSafetyNote, PointsTable, SampleSizeText, StrataTable } from "../plan-parts";
 import { CoverageBlock, InstrumentText, MarkCheckText } from "../survey-evidence";
 
 export const metadata: Metadata = { title: "Survey plan" };
@@ -67,7 +68,13 @@ export default async function PlanPage({ params }: { params: Promise<{ planId: s
           </span>
         }
       >
-        <PlanPlot points={plan.points} marks={marks} />
+        <PlanMapLoader
+          planId={plan.id}
+          fieldName={plan.fieldName}
+          crs={plan.fieldCrs}
+          points={plan.points}
+          marks={marks}
+        />
         <div className="mt-4">
           <StrataTable plan={plan} />
         </div>

@@ -6,6 +6,7 @@ import { requirePageViewer } from "@/lib/server/access";
 import { getDb } from "@/db/client";
 import { getFieldById } from "@/db/queries/fields";
 import { listMachines } from "@/db/queries/machines";
+import { listControlMarks, listSurveyPlans } from "@/db/queries/survey-plans";
 import { CAN_PREPARE } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
 import { FieldSafetyNote, PageTitle } from "@/app/_components/ui";
@@ -30,6 +31,16 @@ export default async function UploadPage({
   if (!field) notFound();
   const { kind } = KindParam.parse(await searchParams);
   const machines = kind === "planted" ? await listMachines(await getDb(), { orgId: viewer.orgId }) : undefined;
+  const fieldwork =
+    kind === "survey"
+      ? await Promise.all([
+          listSurveyPlans(await getDb(), { orgId: viewer.orgId, fieldId: field.id }),
+          listControlMarks(await getDb(), { orgId: viewer.orgId, fieldId: field.id }),
+        ]).then(([plans, marks]) => ({
+          plans: plans.map((p) => ({ id: p.id, name: p.name, checkpoints: p.checkpoints })),
+          marks,
+        }))
+      : undefined;
   return (
     <>
       <PageTitle
@@ -66,6 +77,7 @@ export default async function UploadPage({
         field={{ id: field.id, name: field.name, crs: field.crs }}
         kind={kind}
         machines={machines?.map((m) => ({ id: m.id, name: m.name, toolArms: m.toolArms }))}
+        fieldwork={fieldwork}
       />
     </>
   );
