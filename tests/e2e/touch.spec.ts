@@ -3,6 +3,8 @@ import { test, expect, type Page } from "@playwright/test";
 import { SignInPage, demoPerson } from "./pages/session";
 import { DEMO_FILES, AuditResultPage } from "./pages/audit";
 import { DEMO_PASSWORD } from "@/lib/demo/farm";
+import { decodeMapPayload } from "@/lib/map/binary";
+import { PAIR_FLAG } from "@/lib/map/types";
 
 // The technician at the edge of a field: a tablet held in one hand, fingers (taps) only, then the keyboard and the
 // bright-light option as someone relying on them uses them.
@@ -12,6 +14,7 @@ const TABLET = { width: 820, height: 1180 };
 let resultUrl = "";
 let mapUrl = "";
 const PHONE = { width: 390, height: 844 };
+const SMALL_PHONE = { width: 360, height: 780 };
 
 async function noSidewaysScroll(page: Page) {
   const { scrollWidth, innerWidth } = await page.evaluate(() => ({
@@ -57,7 +60,7 @@ test("touch -- on a tablet the technician signs in, uploads both files, runs an 
   await page.getByLabel("Password").tap();
   await page.getByLabel("Password").fill(DEMO_PASSWORD);
   await page.getByRole("button", { name: "Sign in" }).tap();
-  await expect(page.getByTestId("home-technician")).toBeVisible();
+  await expect(page.getByTestId("home-technician")).toBeVisible({ timeout: 20_000 });
 
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Fields" }).tap();
   await page.getByTestId("field-list").getByRole("link", { name: "Long Acre" }).tap();
@@ -129,6 +132,112 @@ test("keyboard -- Escape on the map's detail panel gives focus back to the contr
   await next.click();
   await details.getByRole("button", { name: "Close" }).click();
   await expect(next).toBeFocused();
+});
+
+/** Where a world point (local metres) is drawn: deck.gl's OrthographicView with flipY false (y up), 2^zoom px a metre. */
+function toScreen(
+  view: { target: [number, number]; zoom: number },
+  canvas: { x: number; y: number; width: number; height: number },
+  x: number,
+  y: number,
+): [number, number] {
+  const s = 2 ** view.zoom;
+  return [
+    canvas.x + canvas.width / 2 + (x - view.target[0]) * s,
+    canvas.y + canvas.height / 2 - (y - view.target[1]) * s,
+  ];
+}
+
+test("touch -- on a small phone a tap on one plant of the map opens that plant's record; Escape gives focus back to the map", async ({
+  browser,
+}) => {
+  expect(mapUrl, "the map of the audit made by tapping").not.toBe("");
+  const context = await browser.newContext({ viewport: SMALL_PHONE, hasTouch: true, isMobile: true });
+  const page = await context.newPage();
+  await new SignInPage(page).signInAs("technician");
+  await page.goto(mapUrl);
+  const root = page.getByTestId("field-map");
+  const settled = () =>
+    page.waitForFunction(
+      () => {
+        const el = document.querySelector<HTMLElement>('[data-testid="field-map"]');
+        return !!el && Number(el.dataset.draws) > 0 && el.dataset.drawnKey === el.dataset.layersKey;
+      },
+      null,
+      { timeout: 30_000 },
+    );
+  await expect(root).toBeVisible({ timeout: 30_000 });
+  await settled();
+  await noSidewaysScroll(page);
+
+  // The audit's own map data, as the map decodes it: where every plant and unpaired point is.
+  const auditId = mapUrl.match(/\/audits\/([^/]+)\/map/)![1];
+  const res = await page.request.get(`/api/audits/${auditId}/map-data`);
+  expect(res.status()).toBe(200);
+  const { arrays } = decodeMapPayload(await res.body());
+
+  // A plant within tolerance, clear of the north arrow (top) and the view buttons (bottom), with no other point of
+  // any kind, drawn or not, within 16 px (a point's radius, an out-of-tolerance outline and deck's 4 px picking
+  // radius), nearest the centre of the map; zoom in by tapping + (the centre stays) until plants stand that far apart.
+  const frame = page.getByTestId("map-frame");
+  await frame.scrollIntoViewIfNeeded();
+  const within = (i: number) =>
+    (arrays.pairFlags[i] & PAIR_FLAG.WITHIN_KNOWN) !== 0 && (arrays.pairFlags[i] & PAIR_FLAG.WITHIN) !== 0;
+  const readView = async () =>
+    JSON.parse((await frame.getAttribute("data-view"))!) as { target: [number, number]; zoom: number };
+  let candidates: number[] = [];
+  let screen: [number, number][] = [];
+  for (let taps = 0; ; taps++) {
+    const view = await readView();
+    const canvas = (await frame.locator("canvas").boundingBox())!;
+    const box = (await frame.boundingBox())!;
+    screen = [];
+    for (let i = 0; i < arrays.pairFlags.length; i++)
+      screen.push(toScreen(view, canvas, arrays.pairXY[2 * i], arrays.pairXY[2 * i + 1]));
+    const others: [number, number][] = [];
+    for (let i = 0; i < arrays.unpairedKind.length; i++)
+      others.push(toScreen(view, canvas, arrays.unpairedXY[2 * i], arrays.unpairedXY[2 * i + 1]));
+    const clear = ([x, y]: [number, number]) =>
+      x > box.x + 24 && x < box.x + box.width - 24 && y > box.y + 110 && y < box.y + box.height - 90;
+    const alone = (i: number) =>
+      screen.every((p, j) => j === i || Math.hypot(p[0] - screen[i][0], p[1] - screen[i][1]) >= 16) &&
+      others.every((p) => Math.hypot(p[0] - screen[i][0], p[1] - screen[i][1]) >= 16);
+    const centre = [box.x + box.width / 2, box.y + box.height / 2];
+    const distance = (i: number) => Math.hypot(screen[i][0] - centre[0], screen[i][1] - centre[1]);
+    candidates = screen
+      .map((_, i) => i)
+      .filter((i) => within(i) && arrays.pairIds[i] !== "" && clear(screen[i]) && alone(i))
+      .sort((a, b) => distance(a) - distance(b));
+    if (candidates.length || taps === 8) break;
+    const draws = Number(await page.getByTestId("field-map").getAttribute("data-draws"));
+    await page.getByRole("button", { name: "Zoom in" }).tap();
+    await expect.poll(async () => (await readView()).zoom).toBeCloseTo(view.zoom + 1, 6);
+    // Drawn at the new zoom before anything is tapped.
+    await expect
+      .poll(async () => Number(await page.getByTestId("field-map").getAttribute("data-draws")))
+      .toBeGreaterThan(draws);
+  }
+  expect(candidates.length, "a plant standing apart on the zoomed map").toBeGreaterThan(0);
+  const seq = candidates[0];
+  const [x, y] = screen[seq];
+
+  // A finger's tap as Chrome makes it from a touch screen (touch events, then the tap gesture and its click);
+  // with Playwright's touchscreen.tap (touch events only) deck.gl saw a hover but no click.
+  const cdp = await context.newCDPSession(page);
+  await cdp.send("Input.synthesizeTapGesture", { x, y, gestureSourceType: "touch" });
+  const details = page.getByTestId("map-details");
+  await expect(details).toBeVisible();
+  const record = details.getByTestId("details-pair");
+  await expect(record).toHaveAttribute("data-seq", String(seq));
+  await expect(record).toContainText(arrays.pairIds[seq]);
+  await expect(details.getByRole("heading", { name: "Checkpoint" })).toBeFocused();
+  // The panel sits inside the map and leaves the page as wide as the phone.
+  await noSidewaysScroll(page);
+  await page.keyboard.press("Escape");
+  await expect(details).toHaveCount(0);
+  await expect(frame.locator("canvas")).toBeFocused();
+
+  await context.close();
 });
 
 // The README's pictures of a phone (SCREENSHOTS=1 npx playwright test tests/e2e/touch.spec.ts rewrites them).

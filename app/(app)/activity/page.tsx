@@ -41,11 +41,14 @@ export default async function ActivityPage({
         ) : (
           <ol className="divide-y divide-chalk-deep text-sm" data-testid="org-activity">
             {rows.map((a) => (
-              <li key={a.id} className="flex gap-4 py-1.5" data-action={a.action}>
-                <span className="w-44 shrink-0 text-ink-faint">
+              <li key={a.id} className="flex flex-col gap-x-4 py-1.5 sm:flex-row" data-action={a.action}>
+                <span className="shrink-0 text-ink-faint sm:w-44">
                   <LocalTime iso={a.at} />
                 </span>
-                <span className={a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""}>
+                {/* Long file names and hashes break rather than widen the page on a phone. */}
+                <span
+                  className={`min-w-0 break-words ${a.text.includes("MISMATCH") ? "font-semibold text-alarm" : ""}`}
+                >
                   {a.text}
                   {a.href ? (
                     <>

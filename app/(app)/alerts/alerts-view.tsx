@@ -19,8 +19,15 @@ const KIND_LABEL: Record<AlertDto["kind"], string> = {
 const button = "rounded-plot bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:bg-leaf-deep disabled:opacity-60";
 
 /** The thresholds (a form for QA leads and owners) and the alerts raised by computed audits. */
-export function AlertsView({ canSet }: { canSet: boolean }) {
-  const rules = useSWR<{ rules: AlertRulesDto }>(keys.alertRules(), fetcher);
+export function AlertsView({
+  canSet,
+  initial,
+}: {
+  canSet: boolean;
+  /** What the page was rendered with (the bodies of GET /api/alerts/rules and GET /api/alerts). */
+  initial?: { rules: { rules: AlertRulesDto }; alerts: { alerts: AlertDto[] } };
+}) {
+  const rules = useSWR<{ rules: AlertRulesDto }>(keys.alertRules(), fetcher, { fallbackData: initial?.rules });
   return (
     <div className="grid gap-6">
       <Panel title="Thresholds">
@@ -36,7 +43,7 @@ export function AlertsView({ canSet }: { canSet: boolean }) {
           <RulesText rules={rules.data.rules} />
         )}
       </Panel>
-      <AlertList canSet={canSet} />
+      <AlertList canSet={canSet} initial={initial?.alerts} />
     </div>
   );
 }
@@ -156,9 +163,10 @@ function RulesForm({ rules }: { rules: AlertRulesDto }) {
   );
 }
 
-function AlertList({ canSet }: { canSet: boolean }) {
+function AlertList({ canSet, initial }: { canSet: boolean; initial?: { alerts: AlertDto[] } }) {
   const { data, error, isLoading } = useSWR<{ alerts: AlertDto[] }>(keys.alerts(), fetcher, {
     refreshInterval: 15_000,
+    fallbackData: initial,
   });
   const { mutate } = useSWRConfig();
   const [actionError, setActionError] = useState<string | null>(null);

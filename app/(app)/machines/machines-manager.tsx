@@ -7,15 +7,24 @@ import { keys } from "@/lib/swr-keys";
 import type { MachineDto } from "@/lib/machine-types";
 import { MachineInput } from "@/lib/validation/machines";
 import { FormError, TextField } from "@/app/_components/form";
-import { Empty, Panel } from "@/app/_components/ui";
+import { Empty, Panel, TableScroll } from "@/app/_components/ui";
 
 type Editing = { mode: "new" } | { mode: "edit"; machine: MachineDto } | null;
 
 const button = "rounded-plot bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:bg-leaf-deep disabled:opacity-60";
 
 /** The organisation's machines; create, edit and delete for QA leads and owners. */
-export function MachinesManager({ canEdit }: { canEdit: boolean }) {
-  const { data, error, isLoading } = useSWR<{ machines: MachineDto[] }>(keys.machines(), fetcher);
+export function MachinesManager({
+  canEdit,
+  initial,
+}: {
+  canEdit: boolean;
+  /** The list as the page was rendered with it (GET /api/machines's body). */
+  initial?: { machines: MachineDto[] };
+}) {
+  const { data, error, isLoading } = useSWR<{ machines: MachineDto[] }>(keys.machines(), fetcher, {
+    fallbackData: initial,
+  });
   const [editing, setEditing] = useState<Editing>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const [deleteError, setDeleteError] = useState<string | null>(null);
@@ -69,7 +78,7 @@ export function MachinesManager({ canEdit }: { canEdit: boolean }) {
         ) : machines.length === 0 && !error ? (
           <Empty>No machines yet.{canEdit ? " Add the planting machines whose records you audit." : ""}</Empty>
         ) : (
-          <div className="overflow-x-auto">
+          <TableScroll label="Machines">
             <table className="w-full text-left text-sm tabular-nums" data-testid="machines-table">
               <caption className="sr-only">Planting machines</caption>
               <thead className="text-xs text-ink-faint">
@@ -146,7 +155,7 @@ export function MachinesManager({ canEdit }: { canEdit: boolean }) {
                 ))}
               </tbody>
             </table>
-          </div>
+          </TableScroll>
         )}
         <p className="mt-3 text-xs text-ink-soft">
           A machine named by uploads stays, so its audits keep their machine; rename it instead.

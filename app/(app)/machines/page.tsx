@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { requirePageViewer } from "@/lib/server/access";
 import { can } from "@/lib/roles";
+import { getDb } from "@/db/client";
+import { listMachines } from "@/db/queries/machines";
 import { PageTitle } from "@/app/_components/ui";
 import { MachinesManager } from "./machines-manager";
 
@@ -9,6 +11,8 @@ export const metadata: Metadata = { title: "Machines" };
 export default async function MachinesPage() {
   const viewer = await requirePageViewer();
   const canEdit = can(viewer.role, "CAN_MANAGE_MACHINES");
+  // The first list comes with the page (the same query as GET /api/machines); the client keeps it fresh.
+  const machines = await listMachines(await getDb(), { orgId: viewer.orgId });
   return (
     <>
       <PageTitle
@@ -20,7 +24,7 @@ export default async function MachinesPage() {
       >
         Machines
       </PageTitle>
-      <MachinesManager canEdit={canEdit} />
+      <MachinesManager canEdit={canEdit} initial={{ machines }} />
     </>
   );
 }

@@ -1,6 +1,7 @@
 import type { ControlMarkDto, PlanPointDto, SurveyPlanDto } from "@/lib/plan/dto";
 import { STANDARD_LABEL } from "@/lib/plan/sample-size";
 import { STRATUM_LABEL } from "@/lib/plan/select";
+import { TableScroll } from "@/app/_components/ui";
 
 /** The caution for anyone walking the beds with a stakeout list. */
 export function PlanSafetyNote() {
@@ -43,35 +44,37 @@ export function SampleSizeText({ plan }: { plan: SurveyPlanDto }) {
 export function StrataTable({ plan }: { plan: SurveyPlanDto }) {
   const by = plan.parameters.strataBy.map((a) => STRATUM_LABEL[a]).join(", ") || "none (one stratum)";
   return (
-    <div className="overflow-x-auto">
+    <div>
       <p className="mb-2 text-sm text-ink-soft">
         Strata by {by}; at least {plan.parameters.minPerStratum} checkpoints and {plan.parameters.sparesPerStratum}{" "}
         spare(s) each; chosen plants at least {plan.parameters.minSpacingM} m apart
         {plan.parameters.bedEndM > 0 ? `; ${plan.parameters.bedEndM} m at each bed end left out` : ""}. Seed{" "}
         <span className="tabular-nums">{plan.seed}</span>.
       </p>
-      <table className="w-full text-sm tabular-nums" data-testid="strata-table">
-        <thead>
-          <tr className="text-left text-ink-soft">
-            <th className="py-1 pr-3 font-medium">Stratum</th>
-            <th className="py-1 pr-3 text-right font-medium">Plants</th>
-            <th className="py-1 pr-3 text-right font-medium">Checkpoints</th>
-            <th className="py-1 pr-3 text-right font-medium">Spares</th>
-            <th className="py-1 text-right font-medium">Minimum</th>
-          </tr>
-        </thead>
-        <tbody>
-          {plan.strata.map((s) => (
-            <tr key={s.key} className="border-t border-chalk-line">
-              <td className="py-1 pr-3">{s.key}</td>
-              <td className="py-1 pr-3 text-right">{s.plants}</td>
-              <td className="py-1 pr-3 text-right">{s.checkpoints}</td>
-              <td className="py-1 pr-3 text-right">{s.spares}</td>
-              <td className="py-1 text-right">{s.minimum}</td>
+      <TableScroll label="Strata">
+        <table className="w-full text-sm tabular-nums" data-testid="strata-table">
+          <thead>
+            <tr className="text-left text-ink-soft">
+              <th className="py-1 pr-3 font-medium">Stratum</th>
+              <th className="py-1 pr-3 text-right font-medium">Plants</th>
+              <th className="py-1 pr-3 text-right font-medium">Checkpoints</th>
+              <th className="py-1 pr-3 text-right font-medium">Spares</th>
+              <th className="py-1 text-right font-medium">Minimum</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {plan.strata.map((s) => (
+              <tr key={s.key} className="border-t border-chalk-line">
+                <td className="py-1 pr-3">{s.key}</td>
+                <td className="py-1 pr-3 text-right">{s.plants}</td>
+                <td className="py-1 pr-3 text-right">{s.checkpoints}</td>
+                <td className="py-1 pr-3 text-right">{s.spares}</td>
+                <td className="py-1 text-right">{s.minimum}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
     </div>
   );
 }
@@ -98,37 +101,55 @@ export function PlanPlot({
   const scale = Math.min((width - 2 * pad) / Math.max(maxE - minE, 1), (height - 2 * pad) / Math.max(maxN - minN, 1));
   const x = (e: number) => pad + (e - minE) * scale;
   const y = (n: number) => height - pad - (n - minN) * scale;
+  // Labels are HTML laid over the drawing, placed in percent of it, so they stay 12 px however far the drawing is
+  // scaled down to fit a phone (no text under 12 px on screen).
+  const at = (px: number, py: number) => ({ left: `${(px / width) * 100}%`, top: `${(py / height) * 100}%` });
   return (
-    <svg
-      viewBox={`0 0 ${width} ${height}`}
-      className="w-full max-w-xl rounded-plot border border-chalk-line bg-white"
-      role="img"
-      aria-label={`Plan view: ${points.filter((p) => !p.spare).length} checkpoints, ${points.filter((p) => p.spare).length} spares, ${marks.length} control mark(s); north up`}
-      data-testid="plan-plot"
-    >
-      {points.map((p) =>
-        p.spare ? (
-          <circle key={p.name} cx={x(p.e)} cy={y(p.n)} r={3} fill="none" stroke="#7a4b2a" strokeWidth={1.2} />
-        ) : (
-          <circle key={p.name} cx={x(p.e)} cy={y(p.n)} r={3} fill="#2f6b45" />
-        ),
-      )}
-      {marks.map((m) => (
-        <g key={m.id}>
+    <div className="relative w-full max-w-xl overflow-hidden">
+      <svg
+        viewBox={`0 0 ${width} ${height}`}
+        className="block w-full rounded-plot border border-chalk-line bg-white"
+        role="img"
+        aria-label={`Plan view: ${points.filter((p) => !p.spare).length} checkpoints, ${points.filter((p) => p.spare).length} spares, ${marks.length} control mark(s); north up`}
+        data-testid="plan-plot"
+      >
+        {points.map((p) =>
+          p.spare ? (
+            <circle key={p.name} cx={x(p.e)} cy={y(p.n)} r={3} fill="none" stroke="#7a4b2a" strokeWidth={1.2} />
+          ) : (
+            <circle key={p.name} cx={x(p.e)} cy={y(p.n)} r={3} fill="#2f6b45" />
+          ),
+        )}
+        {marks.map((m) => (
           <path
+            key={m.id}
             d={`M ${x(m.e)} ${y(m.n) - 6} L ${x(m.e) + 5} ${y(m.n) + 4} L ${x(m.e) - 5} ${y(m.n) + 4} Z`}
             fill="#d99a1e"
             stroke="#1d2a24"
           />
-          <text x={x(m.e) + 7} y={y(m.n) + 4} fontSize={10} fill="#1d2a24">
+        ))}
+      </svg>
+      {marks.map((m) => {
+        // A mark near the right edge is named on its left, so the name stays inside the drawing.
+        const right = x(m.e) > width * 0.7;
+        return (
+          <span
+            key={m.id}
+            aria-hidden="true"
+            className="absolute whitespace-nowrap text-xs leading-none text-ink"
+            style={{
+              ...at(x(m.e) + (right ? -8 : 8), y(m.n)),
+              transform: right ? "translate(-100%, -50%)" : "translateY(-50%)",
+            }}
+          >
             {m.name}
-          </text>
-        </g>
-      ))}
-      <text x={width - 22} y={16} fontSize={11} fill="#1d2a24">
+          </span>
+        );
+      })}
+      <span aria-hidden="true" className="absolute right-2 top-1 text-xs text-ink">
         N ↑
-      </text>
-    </svg>
+      </span>
+    </div>
   );
 }
 

@@ -130,9 +130,11 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
   const draws = useRef(0);
   // The control that opened the details panel (a button, the canvas) gets focus back when it closes (WCAG 2.4.3).
   const opener = useRef<HTMLElement | null>(null);
-  const setSelected = (t: MapTarget | null) => {
+  // `from`: the element the choice was made on when that is not the focused one (a tap on the canvas leaves focus where
+  // it was, e.g. on the zoom button tapped before).
+  const setSelected = (t: MapTarget | null, from?: HTMLElement | null) => {
     if (t) {
-      const active = document.activeElement as HTMLElement | null;
+      const active = from ?? (document.activeElement as HTMLElement | null);
       if (active && active !== document.body && !active.closest('[data-testid="map-details"]')) opener.current = active;
       setSelectedState(t);
       return;
@@ -378,6 +380,9 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
             ref={frameRef}
             className="relative h-[62vh] min-h-[320px] overflow-hidden sm:min-h-[420px] rounded-plot border border-chalk-line bg-chalk-deep"
             data-testid="map-frame"
+            // The view deck.gl draws (world point at the canvas centre, local metres; one metre = 2^zoom px), read-only,
+            // so a browser test can find where a plant is on screen and tap it.
+            data-view={viewState ? JSON.stringify(viewState) : undefined}
           >
             {viewState ? (
               <DeckView
@@ -387,7 +392,7 @@ function LoadedMap({ data, auditId, mode }: { data: MapData; auditId: string; mo
                 label={label}
                 onDrawn={onDrawn}
                 onHover={(target, x, y) => setHover(target ? { target, x, y } : null)}
-                onSelect={(t) => setSelected(t)}
+                onSelect={(t) => setSelected(t, frameRef.current?.querySelector("canvas"))}
               />
             ) : null}
             <div className="pointer-events-none absolute left-2 top-2">

@@ -139,12 +139,12 @@ export function NorthArrow({ crs, convergenceDeg }: { crs: string; convergenceDe
       className="flex items-center gap-1.5 rounded-plot bg-white/90 px-2 py-1 text-xs text-ink"
       data-testid="north-arrow"
     >
-      <svg width="18" height="26" viewBox="0 0 18 26" aria-hidden="true">
-        <path d="M9 1 L16 22 L9 17 L2 22 Z" fill={HEX.ink} />
-        <text x="9" y="25.5" fontSize="6" textAnchor="middle" fill={HEX.ink}>
-          N
-        </text>
-      </svg>
+      <span className="flex flex-col items-center" aria-hidden="true">
+        <svg width="18" height="22" viewBox="0 0 18 22" aria-hidden="true">
+          <path d="M9 1 L16 22 L9 17 L2 22 Z" fill={HEX.ink} />
+        </svg>
+        <span className="text-xs font-semibold leading-none">N</span>
+      </span>
       <span className="max-w-44 leading-tight">
         Up is grid north of {crs}
         {conv ? `; ${conv}` : ""}.

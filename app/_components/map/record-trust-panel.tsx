@@ -1,6 +1,6 @@
 import type { RecordTrustDto } from "@/lib/map/record-guidance";
 import { EXCLUSION_CAUTION } from "@/lib/map/exclusions";
-import { formatCount } from "@/app/_components/ui";
+import { formatCount, TableScroll } from "@/app/_components/ui";
 
 const WORD_CLASS: Record<string, string> = {
   meets: "text-leaf",
@@ -58,7 +58,7 @@ export function RecordTrustPanel({
         {trust.rule}
       </p>
       {trust.named.length || trust.untested.length ? (
-        <div className="overflow-x-auto">
+        <TableScroll label="Groups of records">
           <table className="w-full text-left text-sm" data-testid="record-causes">
             <caption className="sr-only">Groups of records judged not to rely on, or not yet checked</caption>
             <thead className="text-ink-soft">
@@ -90,7 +90,7 @@ export function RecordTrustPanel({
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
       {trust.remainder ? (
         <p className="text-sm" data-testid="record-remainder">

@@ -106,7 +106,8 @@ export default async function PlanPage({ params }: { params: Promise<{ planId: s
         ) : null}
       </Panel>
       <Panel title={`Points (${plan.points.length})`}>
-        <div className="max-h-96 overflow-auto">
+        {/* biome-ignore lint/a11y/noNoninteractiveTabindex: a scrolling region must be reachable by keyboard (WCAG 2.1.1) */}
+        <div className="max-h-96 overflow-auto" role="region" aria-label="Points" tabIndex={0}>
           <PointsTable points={plan.points} />
         </div>
       </Panel>

@@ -6,7 +6,16 @@ import { auditDiagnosticsFor } from "@/lib/server/audits/diagnostics";
 import { idFromParams } from "@/lib/validation/ids";
 import { AppError } from "@/lib/errors";
 import type { Episode, MeanIntervalLike } from "./types";
-import { Empty, FieldSafetyNote, formatMm, formatInZone, PageTitle, Panel, TextLink } from "@/app/_components/ui";
+import {
+  Empty,
+  FieldSafetyNote,
+  formatMm,
+  formatInZone,
+  PageTitle,
+  Panel,
+  TableScroll,
+  TextLink,
+} from "@/app/_components/ui";
 import { STATE_NAME } from "@/lib/review/lifecycle";
 import { PassChart } from "./pass-chart";
 import { ClearancePanel } from "./clearance-panel";
@@ -124,7 +133,7 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
           Means of RTK-fixed checkpoints with {pct} % Student t intervals (Student 1908); degraded-fix checkpoints are
           shown apart. Errors are survey minus record: cross-row positive to the right of the row direction.
         </p>
-        <div className="overflow-x-auto">
+        <TableScroll label="Tool arms">
           <table className="w-full text-sm" data-testid="arm-table">
             <thead>
               <tr>
@@ -157,7 +166,7 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       </Panel>
 
       <Panel title="Along the pass">
@@ -177,7 +186,7 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
       </Panel>
 
       <Panel title="Beds and rows">
-        <div className="overflow-x-auto">
+        <TableScroll label="Beds and rows">
           <table className="w-full text-sm" data-testid="bed-row-table">
             <thead>
               <tr>
@@ -204,33 +213,35 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       </Panel>
 
       <Panel title="Camera correction">
         {d.cameraGain.length ? (
-          <table className="w-full text-sm" data-testid="camera-gain">
-            <thead>
-              <tr>
-                <th className={th}>Arm</th>
-                <th className={th}>Checkpoints</th>
-                <th className={th}>Raw GNSS RMSE_r</th>
-                <th className={th}>Corrected RMSE_r</th>
-                <th className={th}>Error removed</th>
-              </tr>
-            </thead>
-            <tbody>
-              {d.cameraGain.map((g, i) => (
-                <tr key={i} className="border-t border-chalk-line">
-                  <td className={td}>{g.overall ? "all" : (g.arm ?? "–")}</td>
-                  <td className={td}>{g.pairs}</td>
-                  <td className={td}>{formatMm(g.rmseRaw)}</td>
-                  <td className={td}>{formatMm(g.rmseCorrected)}</td>
-                  <td className={td}>{g.gain === null ? "–" : `${Math.round(g.gain * 100)} %`}</td>
+          <TableScroll label="Camera correction">
+            <table className="w-full text-sm" data-testid="camera-gain">
+              <thead>
+                <tr>
+                  <th className={th}>Arm</th>
+                  <th className={th}>Checkpoints</th>
+                  <th className={th}>Raw GNSS RMSE_r</th>
+                  <th className={th}>Corrected RMSE_r</th>
+                  <th className={th}>Error removed</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {d.cameraGain.map((g, i) => (
+                  <tr key={i} className="border-t border-chalk-line">
+                    <td className={td}>{g.overall ? "all" : (g.arm ?? "–")}</td>
+                    <td className={td}>{g.pairs}</td>
+                    <td className={td}>{formatMm(g.rmseRaw)}</td>
+                    <td className={td}>{formatMm(g.rmseCorrected)}</td>
+                    <td className={td}>{g.gain === null ? "–" : `${Math.round(g.gain * 100)} %`}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         ) : (
           <Empty>The as-planted records carry no raw GNSS position, so the correction cannot be judged.</Empty>
         )}
@@ -273,34 +284,36 @@ export default async function DiagnosticsPage({ params }: { params: Promise<{ au
                   : "The field's previous audit (the as-planted upload names no machine)."}
             </p>
             <p className="font-medium">{previous.comparison.sentence}</p>
-            <table className="w-full">
-              <thead>
-                <tr>
-                  <th className={th}>Arm</th>
-                  <th className={th}>Component</th>
-                  <th className={th}>Before</th>
-                  <th className={th}>Now</th>
-                  <th className={th}>Mean changed (Welch p)</th>
-                  <th className={th}>Spread ratio (F-test p)</th>
-                </tr>
-              </thead>
-              <tbody>
-                {previous.comparison.arms.map((c, i) => (
-                  <tr key={i} className="border-t border-chalk-line">
-                    <td className={td}>{c.arm ?? "–"}</td>
-                    <td className={td}>{c.component}</td>
-                    <td className={td}>{formatMm(c.before)}</td>
-                    <td className={td}>{formatMm(c.after)}</td>
-                    <td className={`${td} ${c.meanSignificant ? "font-medium text-alarm" : ""}`}>
-                      {c.mean ? `${formatMm(c.mean.difference)} (p = ${c.mean.p.toPrecision(2)})` : "–"}
-                    </td>
-                    <td className={`${td} ${c.spreadSignificant ? "font-medium text-alarm" : ""}`}>
-                      {c.spread ? `${c.spread.ratio.toFixed(2)} (p = ${c.spread.p.toPrecision(2)})` : "–"}
-                    </td>
+            <TableScroll label="Comparison by arm">
+              <table className="w-full">
+                <thead>
+                  <tr>
+                    <th className={th}>Arm</th>
+                    <th className={th}>Component</th>
+                    <th className={th}>Before</th>
+                    <th className={th}>Now</th>
+                    <th className={th}>Mean changed (Welch p)</th>
+                    <th className={th}>Spread ratio (F-test p)</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {previous.comparison.arms.map((c, i) => (
+                    <tr key={i} className="border-t border-chalk-line">
+                      <td className={td}>{c.arm ?? "–"}</td>
+                      <td className={td}>{c.component}</td>
+                      <td className={td}>{formatMm(c.before)}</td>
+                      <td className={td}>{formatMm(c.after)}</td>
+                      <td className={`${td} ${c.meanSignificant ? "font-medium text-alarm" : ""}`}>
+                        {c.mean ? `${formatMm(c.mean.difference)} (p = ${c.mean.p.toPrecision(2)})` : "–"}
+                      </td>
+                      <td className={`${td} ${c.spreadSignificant ? "font-medium text-alarm" : ""}`}>
+                        {c.spread ? `${c.spread.ratio.toFixed(2)} (p = ${c.spread.p.toPrecision(2)})` : "–"}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
             <p className="text-ink-faint">{previous.comparison.methods}</p>
             <TextLink href={`/audits/${previous.id}/diagnostics`}>Diagnostics of the previous audit</TextLink>
           </div>

@@ -24,14 +24,14 @@ export function PassChart({ pass, caption }: { pass: PassPoint[]; caption: strin
           name="checkpoint"
           domain={[1, Math.max(1, pass.length)]}
           label={{ value: "checkpoint in planting order", position: "insideBottom", offset: -4, fontSize: 12 }}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
         />
         <YAxis
           type="number"
           dataKey="y"
           name="error"
           label={{ value: "error (mm)", angle: -90, position: "insideLeft", fontSize: 12 }}
-          tick={{ fontSize: 11 }}
+          tick={{ fontSize: 12 }}
         />
         <ReferenceLine y={0} stroke={CHART.axis} />
         <Tooltip cursor={false} formatter={(v) => `${Number(v).toFixed(1)}`} />

@@ -1,7 +1,13 @@
 /** A small, print-friendly scatter of the errors (dE, dN in mm) with the tolerance and 95 % circles. Server-rendered SVG. */
 
-const SIZE = 260;
-const PAD = 28;
+// The square plot and the margins its 12 px labels need (no text under 12 px on screen, WCAG 1.4.4 practice).
+const PLOT = 220;
+const LEFT = 54;
+const BOTTOM = 40;
+const EDGE = 10;
+const WIDTH = LEFT + PLOT + EDGE;
+const HEIGHT = EDGE + PLOT + BOTTOM;
+const LABEL = 12;
 const MAX_POINTS = 3000;
 
 function niceStep(span: number): number {
@@ -32,9 +38,9 @@ export function ErrorScatterSvg({
   const reach = Math.max(p99, toleranceMm ?? 0, r95Mm ?? 0, 2) * 1.15;
   const step = niceStep(reach);
   const half = Math.ceil(reach / step) * step;
-  const scale = (SIZE - 2 * PAD) / (2 * half);
-  const x = (v: number) => PAD + (v + half) * scale;
-  const y = (v: number) => SIZE - PAD - (v + half) * scale;
+  const scale = PLOT / (2 * half);
+  const x = (v: number) => LEFT + (v + half) * scale;
+  const y = (v: number) => EDGE + PLOT - (v + half) * scale;
   const stride = Math.max(1, Math.ceil(n / MAX_POINTS));
   const ticks: number[] = [];
   for (let t = -half; t <= half + 1e-9; t += step) ticks.push(Math.round(t * 1000) / 1000);
@@ -53,35 +59,35 @@ export function ErrorScatterSvg({
   return (
     <figure className="inline-block" data-testid="report-scatter">
       <svg
-        width={SIZE}
-        height={SIZE}
-        viewBox={`0 0 ${SIZE} ${SIZE}`}
+        width={WIDTH}
+        height={HEIGHT}
+        viewBox={`0 0 ${WIDTH} ${HEIGHT}`}
         role="img"
         aria-label="Scatter of east and north errors in millimetres"
       >
-        <rect x={PAD} y={PAD} width={SIZE - 2 * PAD} height={SIZE - 2 * PAD} fill="#fff" stroke="#d9d3c4" />
+        <rect x={LEFT} y={EDGE} width={PLOT} height={PLOT} fill="#fff" stroke="#d9d3c4" />
         {ticks.map((t) => (
           <g key={t}>
             <line
               x1={x(t)}
               x2={x(t)}
-              y1={PAD}
-              y2={SIZE - PAD}
+              y1={EDGE}
+              y2={EDGE + PLOT}
               stroke={t === 0 ? "#7b8781" : "#ebe7dc"}
               strokeWidth={t === 0 ? 0.8 : 0.5}
             />
             <line
               y1={y(t)}
               y2={y(t)}
-              x1={PAD}
-              x2={SIZE - PAD}
+              x1={LEFT}
+              x2={LEFT + PLOT}
               stroke={t === 0 ? "#7b8781" : "#ebe7dc"}
               strokeWidth={t === 0 ? 0.8 : 0.5}
             />
-            <text x={x(t)} y={SIZE - PAD + 11} fontSize={8} textAnchor="middle" fill="#44524b">
+            <text x={x(t)} y={EDGE + PLOT + 14} fontSize={LABEL} textAnchor="middle" fill="#44524b">
               {t}
             </text>
-            <text x={PAD - 4} y={y(t) + 3} fontSize={8} textAnchor="end" fill="#44524b">
+            <text x={LEFT - 4} y={y(t) + 4} fontSize={LABEL} textAnchor="end" fill="#44524b">
               {t}
             </text>
           </g>
@@ -101,21 +107,21 @@ export function ErrorScatterSvg({
             strokeDasharray="3 2"
           />
         ) : null}
-        <text x={SIZE / 2} y={SIZE - 4} fontSize={9} textAnchor="middle" fill="#1d2a24">
+        <text x={LEFT + PLOT / 2} y={HEIGHT - 6} fontSize={LABEL} textAnchor="middle" fill="#1d2a24">
           east error (mm)
         </text>
         <text
-          x={9}
-          y={SIZE / 2}
-          fontSize={9}
+          x={12}
+          y={EDGE + PLOT / 2}
+          fontSize={LABEL}
           textAnchor="middle"
           fill="#1d2a24"
-          transform={`rotate(-90 9 ${SIZE / 2})`}
+          transform={`rotate(-90 12 ${EDGE + PLOT / 2})`}
         >
           north error (mm)
         </text>
       </svg>
-      <figcaption className="max-w-[260px] text-xs text-ink-soft">
+      <figcaption className="max-w-[284px] text-xs text-ink-soft">
         {n} pairs{stride > 1 ? `, every ${stride}th drawn` : ""}
         {hidden ? `, ${hidden} beyond the frame` : ""}. Green within tolerance, red outside.
         {toleranceMm ? ` Yellow circle: radial limit ${toleranceMm.toFixed(1)} mm.` : ""}

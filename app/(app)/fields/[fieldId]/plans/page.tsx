@@ -9,7 +9,7 @@ import { listProfiles } from "@/db/queries/profiles";
 import { listControlMarks, listSurveyPlans } from "@/db/queries/survey-plans";
 import { can } from "@/lib/roles";
 import { idFromParams } from "@/lib/validation/ids";
-import { Empty, FieldTime, PageTitle, Panel, TextLink } from "@/app/_components/ui";
+import { Empty, FieldTime, PageTitle, Panel, TableScroll, TextLink } from "@/app/_components/ui";
 import { ControlMarkForm, NewPlanForm } from "@/app/(app)/plans/plan-forms";
 import { PlanSafetyNote } from "@/app/(app)/plans/plan-parts";
 
@@ -68,28 +68,30 @@ export default async function FieldPlansPage({ params }: { params: Promise<{ fie
         {marks.length === 0 ? (
           <Empty>No control mark for this field yet.</Empty>
         ) : (
-          <table className="mb-4 w-full text-sm tabular-nums" data-testid="mark-list">
-            <thead>
-              <tr className="text-left text-ink-soft">
-                <th className="py-1 pr-3 font-medium">Mark</th>
-                <th className="py-1 pr-3 text-right font-medium">Easting</th>
-                <th className="py-1 pr-3 text-right font-medium">Northing</th>
-                <th className="py-1 pr-3 text-right font-medium">Height</th>
-                <th className="py-1 font-medium">Description and source</th>
-              </tr>
-            </thead>
-            <tbody>
-              {marks.map((m) => (
-                <tr key={m.id} className="border-t border-chalk-line">
-                  <td className="py-1 pr-3 font-medium">{m.name}</td>
-                  <td className="py-1 pr-3 text-right">{m.e.toFixed(3)}</td>
-                  <td className="py-1 pr-3 text-right">{m.n.toFixed(3)}</td>
-                  <td className="py-1 pr-3 text-right">{m.h !== null ? m.h.toFixed(3) : "–"}</td>
-                  <td className="py-1">{[m.description, m.source].filter(Boolean).join(" · ") || "–"}</td>
+          <TableScroll label="Control marks">
+            <table className="mb-4 w-full text-sm tabular-nums" data-testid="mark-list">
+              <thead>
+                <tr className="text-left text-ink-soft">
+                  <th className="py-1 pr-3 font-medium">Mark</th>
+                  <th className="py-1 pr-3 text-right font-medium">Easting</th>
+                  <th className="py-1 pr-3 text-right font-medium">Northing</th>
+                  <th className="py-1 pr-3 text-right font-medium">Height</th>
+                  <th className="py-1 font-medium">Description and source</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {marks.map((m) => (
+                  <tr key={m.id} className="border-t border-chalk-line">
+                    <td className="py-1 pr-3 font-medium">{m.name}</td>
+                    <td className="py-1 pr-3 text-right">{m.e.toFixed(3)}</td>
+                    <td className="py-1 pr-3 text-right">{m.n.toFixed(3)}</td>
+                    <td className="py-1 pr-3 text-right">{m.h !== null ? m.h.toFixed(3) : "–"}</td>
+                    <td className="py-1">{[m.description, m.source].filter(Boolean).join(" · ") || "–"}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         )}
         {mayPlan ? <ControlMarkForm fieldId={field.id} /> : null}
       </Panel>

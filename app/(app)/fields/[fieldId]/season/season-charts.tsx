@@ -55,7 +55,7 @@ export function SeasonCharts({ points }: { points: SeasonPoint[] }) {
       domain={domain}
       scale="time"
       tickFormatter={dayLabel}
-      tick={{ fontSize: 11 }}
+      tick={{ fontSize: 12 }}
       label={{ value: "planting day", position: "insideBottom", offset: -4, fontSize: 12 }}
     />
   );
@@ -72,7 +72,7 @@ export function SeasonCharts({ points }: { points: SeasonPoint[] }) {
           <YAxis
             type="number"
             dataKey="y"
-            tick={{ fontSize: 11 }}
+            tick={{ fontSize: 12 }}
             label={{ value: "RMSE_r (mm)", angle: -90, position: "insideLeft", fontSize: 12 }}
           />
           <Tooltip formatter={(v) => `${Number(v).toFixed(1)}`} labelFormatter={() => ""} />
@@ -95,7 +95,7 @@ export function SeasonCharts({ points }: { points: SeasonPoint[] }) {
           <YAxis
             type="number"
             dataKey="y"
-            tick={{ fontSize: 11 }}
+            tick={{ fontSize: 12 }}
             label={{ value: "cross-row (mm)", angle: -90, position: "insideLeft", fontSize: 12 }}
           />
           <Tooltip formatter={(v) => `${Number(v).toFixed(1)}`} labelFormatter={() => ""} />

@@ -5,7 +5,7 @@ import { AppError } from "@/lib/errors";
 import { machineSeason } from "@/lib/server/season";
 import { idFromParams } from "@/lib/validation/ids";
 import { STATE_NAME } from "@/lib/review/lifecycle";
-import { Empty, formatMm, PageTitle, Panel, TextLink } from "@/app/_components/ui";
+import { Empty, formatMm, PageTitle, Panel, TableScroll, TextLink } from "@/app/_components/ui";
 import { SeasonCharts } from "@/app/(app)/fields/[fieldId]/season/season-charts";
 
 export const metadata: Metadata = { title: "Machine season" };
@@ -40,39 +40,41 @@ export default async function MachineSeasonPage({ params }: { params: Promise<{ 
         <>
           <SeasonCharts points={points} />
           <Panel title="Audits of the season">
-            <table className="w-full text-sm" data-testid="season-table">
-              <thead>
-                <tr>
-                  <th className={th}>Planted</th>
-                  <th className={th}>Field</th>
-                  <th className={th}>Audit</th>
-                  <th className={th}>State</th>
-                  <th className={th}>Verdict</th>
-                  <th className={th}>RMSE_r</th>
-                  <th className={th}>Arms with an offset</th>
-                </tr>
-              </thead>
-              <tbody>
-                {points.map((p) => (
-                  <tr key={p.auditId} className="border-t border-chalk-line">
-                    <td className={td}>{p.day}</td>
-                    <td className="px-2 py-1">{p.fieldName}</td>
-                    <td className="px-2 py-1">
-                      <TextLink href={`/audits/${p.auditId}/diagnostics`}>{p.title}</TextLink>
-                    </td>
-                    <td className="px-2 py-1">{STATE_NAME[p.state as keyof typeof STATE_NAME] ?? p.state}</td>
-                    <td className="px-2 py-1">{p.passed === null ? "–" : p.passed ? "passed" : "failed"}</td>
-                    <td className={td}>{formatMm(p.rmseR)}</td>
-                    <td className="px-2 py-1">
-                      {p.arms
-                        .filter((a) => a.significant)
-                        .map((a) => `arm ${a.arm ?? "–"} (${formatMm(a.cross)} cross)`)
-                        .join(", ") || "none"}
-                    </td>
+            <TableScroll label="Audits of the season">
+              <table className="w-full text-sm" data-testid="season-table">
+                <thead>
+                  <tr>
+                    <th className={th}>Planted</th>
+                    <th className={th}>Field</th>
+                    <th className={th}>Audit</th>
+                    <th className={th}>State</th>
+                    <th className={th}>Verdict</th>
+                    <th className={th}>RMSE_r</th>
+                    <th className={th}>Arms with an offset</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody>
+                  {points.map((p) => (
+                    <tr key={p.auditId} className="border-t border-chalk-line">
+                      <td className={td}>{p.day}</td>
+                      <td className="px-2 py-1">{p.fieldName}</td>
+                      <td className="px-2 py-1">
+                        <TextLink href={`/audits/${p.auditId}/diagnostics`}>{p.title}</TextLink>
+                      </td>
+                      <td className="px-2 py-1">{STATE_NAME[p.state as keyof typeof STATE_NAME] ?? p.state}</td>
+                      <td className="px-2 py-1">{p.passed === null ? "–" : p.passed ? "passed" : "failed"}</td>
+                      <td className={td}>{formatMm(p.rmseR)}</td>
+                      <td className="px-2 py-1">
+                        {p.arms
+                          .filter((a) => a.significant)
+                          .map((a) => `arm ${a.arm ?? "–"} (${formatMm(a.cross)} cross)`)
+                          .join(", ") || "none"}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
           </Panel>
         </>
       ) : (
