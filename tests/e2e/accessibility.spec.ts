@@ -122,7 +122,7 @@ const PAGES: PageCase[] = [
     name: "survey plan",
     role: "technician",
     url: () => `/plans/${demo.planId}`,
-    ready: (p) => expect(p.getByTestId("plan-plot")).toBeVisible(),
+    ready: (p) => expect(p.getByTestId("plan-map-summary")).toBeVisible({ timeout: 20_000 }),
   },
   {
     name: "field sheet",

@@ -90,7 +90,7 @@ describe("upload limits", () => {
     expect((await datasetsRoute.POST(r, ctx({ fieldId }))).status).toBe(413);
   });
 
-  it("upload -- a body that is not multipart, two files, or a field of megabytes gets 422 naming the problem", async () => {
+  it("upload -- a body that is not multipart gets 415; two files or a field of megabytes get 422 naming the problem", async () => {
     const notMultipart = await datasetsRoute.POST(
       new Request(`http://localhost:3000/api/fields/${fieldId}/datasets`, {
         method: "POST",
@@ -99,7 +99,8 @@ describe("upload limits", () => {
       }),
       ctx({ fieldId }),
     );
-    expect(notMultipart.status).toBe(422);
+    // Refused by the route's own cross-site guard (the proxy skips the upload route), as the proxy answers elsewhere.
+    expect(notMultipart.status).toBe(415);
     expect((await notMultipart.json()).error.message).toContain("multipart/form-data");
 
     const two = new FormData();
