@@ -4,7 +4,7 @@ import useSWR from "swr";
 import { fetcher, sendJson, ApiError } from "@/lib/fetcher";
 import { keys } from "@/lib/swr-keys";
 import type { ApiKeyDto } from "@/lib/api-types";
-import { Panel } from "@/app/_components/ui";
+import { Panel, TableScroll } from "@/app/_components/ui";
 import { LocalTime } from "@/app/_components/local-time";
 import { API_KEY_SCOPES, type ApiKeyScope, SCOPE_LABEL, SCOPE_PURPOSE } from "@/lib/security/key-scope";
 
@@ -128,95 +128,99 @@ export function ApiKeysPanel() {
         ) : data.keys.length === 0 ? (
           <p className="text-sm text-ink-faint">No keys yet.</p>
         ) : (
-          <table className="w-full text-left text-sm">
-            <thead className="text-ink-faint">
-              <tr>
-                <th className="py-1 font-medium">Name</th>
-                <th className="font-medium">Starts with</th>
-                <th className="font-medium">May do</th>
-                <th className="font-medium">Created</th>
-                <th className="font-medium">Last used</th>
-                <th className="font-medium">Expiry</th>
-                <th className="font-medium">State</th>
-                <th>
-                  <span className="sr-only">Actions</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-chalk-deep">
-              {data.keys.map((k) => {
-                const expiry = expiryOf(k, now);
-                return (
-                  <tr key={k.id} data-key-name={k.name}>
-                    <td className="py-2">
-                      {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
-                    </td>
-                    <td className="font-mono text-xs">{k.prefix}…</td>
-                    <td title={SCOPE_PURPOSE[k.scope]}>{SCOPE_LABEL[k.scope]}</td>
-                    <td>
-                      <LocalTime iso={k.createdAt} />
-                    </td>
-                    <td>{k.lastUsedAt ? <LocalTime iso={k.lastUsedAt} /> : "never"}</td>
-                    <td>
-                      {!expiry ? (
-                        <span className="text-ink-faint">none</span>
-                      ) : expiry.passed ? (
-                        <span className="text-alarm">expired {expiry.day}</span>
-                      ) : (
-                        <span>expires {expiry.day}</span>
-                      )}
-                    </td>
-                    <td>
-                      {k.revokedAt ? (
-                        <span className="text-alarm">revoked</span>
-                      ) : expiry?.passed ? (
-                        <span className="font-medium text-alarm">expired</span>
-                      ) : (
-                        "live"
-                      )}
-                    </td>
-                    <td className="text-right">
-                      {k.revokedAt ? null : confirming === k.id ? (
-                        <span
-                          role="group"
-                          aria-label={`Confirm revoking ${k.name}`}
-                          className="inline-flex flex-wrap items-center justify-end gap-2 text-sm"
-                          data-testid="revoke-confirm"
-                        >
-                          <span>Revoke “{k.name}”? Scripts using it stop working at once; this cannot be undone.</span>
+          <TableScroll label="API keys">
+            <table className="w-full text-left text-sm">
+              <thead className="text-ink-faint">
+                <tr>
+                  <th className="py-1 font-medium">Name</th>
+                  <th className="font-medium">Starts with</th>
+                  <th className="font-medium">May do</th>
+                  <th className="font-medium">Created</th>
+                  <th className="font-medium">Last used</th>
+                  <th className="font-medium">Expiry</th>
+                  <th className="font-medium">State</th>
+                  <th>
+                    <span className="sr-only">Actions</span>
+                  </th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-chalk-deep">
+                {data.keys.map((k) => {
+                  const expiry = expiryOf(k, now);
+                  return (
+                    <tr key={k.id} data-key-name={k.name}>
+                      <td className="py-2">
+                        {k.name} <span className="text-ink-faint">· {k.createdBy}</span>
+                      </td>
+                      <td className="font-mono text-xs">{k.prefix}…</td>
+                      <td title={SCOPE_PURPOSE[k.scope]}>{SCOPE_LABEL[k.scope]}</td>
+                      <td>
+                        <LocalTime iso={k.createdAt} />
+                      </td>
+                      <td>{k.lastUsedAt ? <LocalTime iso={k.lastUsedAt} /> : "never"}</td>
+                      <td>
+                        {!expiry ? (
+                          <span className="text-ink-faint">none</span>
+                        ) : expiry.passed ? (
+                          <span className="text-alarm">expired {expiry.day}</span>
+                        ) : (
+                          <span>expires {expiry.day}</span>
+                        )}
+                      </td>
+                      <td>
+                        {k.revokedAt ? (
+                          <span className="text-alarm">revoked</span>
+                        ) : expiry?.passed ? (
+                          <span className="font-medium text-alarm">expired</span>
+                        ) : (
+                          "live"
+                        )}
+                      </td>
+                      <td className="text-right">
+                        {k.revokedAt ? null : confirming === k.id ? (
+                          <span
+                            role="group"
+                            aria-label={`Confirm revoking ${k.name}`}
+                            className="inline-flex flex-wrap items-center justify-end gap-2 text-sm"
+                            data-testid="revoke-confirm"
+                          >
+                            <span>
+                              Revoke “{k.name}”? Scripts using it stop working at once; this cannot be undone.
+                            </span>
+                            <button
+                              type="button"
+                              onClick={() => revoke(k.id)}
+                              className="rounded-plot bg-alarm px-2 py-1 font-medium text-white hover:opacity-90"
+                            >
+                              Yes, revoke it
+                            </button>
+                            <button
+                              type="button"
+                              onClick={() => setConfirming(null)}
+                              className="font-medium text-leaf hover:underline"
+                            >
+                              Keep it
+                            </button>
+                          </span>
+                        ) : (
                           <button
                             type="button"
-                            onClick={() => revoke(k.id)}
-                            className="rounded-plot bg-alarm px-2 py-1 font-medium text-white hover:opacity-90"
+                            onClick={() => {
+                              setRevokeError(null);
+                              setConfirming(k.id);
+                            }}
+                            className="text-sm font-medium text-alarm hover:underline"
                           >
-                            Yes, revoke it
+                            Revoke
                           </button>
-                          <button
-                            type="button"
-                            onClick={() => setConfirming(null)}
-                            className="font-medium text-leaf hover:underline"
-                          >
-                            Keep it
-                          </button>
-                        </span>
-                      ) : (
-                        <button
-                          type="button"
-                          onClick={() => {
-                            setRevokeError(null);
-                            setConfirming(k.id);
-                          }}
-                          className="text-sm font-medium text-alarm hover:underline"
-                        >
-                          Revoke
-                        </button>
-                      )}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
+                        )}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </TableScroll>
         )}
         {revokeError ? (
           <p role="alert" className="mt-2 text-sm text-alarm">
