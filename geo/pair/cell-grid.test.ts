@@ -47,16 +47,24 @@ describe("cell grid", () => {
   it("cell grid -- a point exactly at the radius counts, as in kdbush (distance ≤ r)", () => {
     const x = Float64Array.of(0, 0.1, 0.3),
       y = Float64Array.of(0, 0, 0);
+    // kdbush (reference library): within() keeps a point at distance ≤ r
+    expect(kdWithin(x, y, Int32Array.of(0, 1, 2), 0, 0, 0.1)).toEqual([0, 1]);
     expect(gridWithin(x, y, Int32Array.of(0, 1, 2), 0, 0, 0.1)).toEqual([0, 1]);
   });
 
   it("cell grid -- a single long row is gridded along its length", () => {
     const x = Float64Array.from({ length: 400 }, (_, i) => i * 0.25),
       y = new Float64Array(400);
+    // kdbush (reference library) finds the same single plant, 1 cm from the query
+    expect(gridWithin(x, y, Int32Array.from(x.keys()), 50.01, 0, 0.1)).toEqual(
+      kdWithin(x, y, Int32Array.from(x.keys()), 50.01, 0, 0.1),
+    );
     expect(gridWithin(x, y, Int32Array.from(x.keys()), 50.01, 0, 0.1)).toEqual([200]);
   });
 
   it("cell grid -- declines a dense field with one stray fix kilometres away, leaving it to the k-d tree", () => {
+    // common practice, no source: one far point stretches a uniform grid until its cells hold too many points,
+    // where a k-d tree (kdbush) stays fast; the grid declines and pairing uses the tree.
     const n = 20_000; // 0.25 m × 0.5 m spacing: a 50 m × 25 m block, and one point 40 km east
     const x = Float64Array.from({ length: n + 1 }, (_, i) => (i === n ? 40_000 : (i % 200) * 0.25));
     const y = Float64Array.from({ length: n + 1 }, (_, i) => (i === n ? 0 : Math.floor(i / 200) * 0.5));
@@ -65,6 +73,7 @@ describe("cell grid", () => {
   });
 
   it("cell grid -- refuses a query wider than the radius it was built for", () => {
+    // common practice, no source: a grid built for one radius cannot answer a wider query (it would miss cells)
     const g = buildCellGrid(Float64Array.of(0, 0.05), Float64Array.of(0, 0.05), Int32Array.of(0, 1), 0.1);
     expect(g).not.toBeNull();
     expect(() => g?.withinInto(0, 0, 0.2, [])).toThrow(/built for radius 0.1/);

@@ -25,8 +25,9 @@ describe("fCdf", () => {
   it("varianceRatioTest -- two-sided p-value", () => {
     // two-sided p = 2·(1 − F(ratio)); scipy 1.17.1 stats.f.cdf(2, 20, 20) = 0.9352338272090371
     const r = varianceRatioTest(1, 20, 2, 20)!;
-    expect(r.ratio).toBe(2);
+    expect(r.ratio).toBe(2); // NIST/SEMATECH e-Handbook §1.3.5.9: F = s2² / s1² = 2 / 1
     expect(r.p).toBeCloseTo(2 * (1 - 0.9352338272090371), 10); // scipy 1.17.1 as above
+    // NIST/SEMATECH e-Handbook §1.3.5.9: the ratio is undefined when a variance is zero, so no test
     expect(varianceRatioTest(0, 20, 2, 20)).toBeNull();
   });
 });
