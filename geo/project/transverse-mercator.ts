@@ -61,8 +61,8 @@ export function transverseMercatorForward(
   ox: Float64Array,
   oy: Float64Array,
 ): void {
-  const [b0, b1, b2, b3, b4, b5] = t.cbg;
-  const [g0, g1, g2, g3, g4, g5] = t.gtu;
+  const cbg = Float64Array.from(t.cbg),
+    gtu = Float64Array.from(t.gtu);
   const { a, x0, y0, long0, Qn, Zb, over } = t;
   const n = lam.length;
   for (let i = 0; i < n; i++) {
@@ -72,22 +72,14 @@ export function transverseMercatorForward(
     // gatg(cbg, phi)
     const B = phi[i] * scale;
     const cos2B = 2 * Math.cos(2 * B);
-    let h1 = b5,
+    let h1 = cbg[5],
       h2 = 0,
       h = 0;
-    h = -h2 + cos2B * h1 + b4;
-    h2 = h1;
-    h1 = h;
-    h = -h2 + cos2B * h1 + b3;
-    h2 = h1;
-    h1 = h;
-    h = -h2 + cos2B * h1 + b2;
-    h2 = h1;
-    h1 = h;
-    h = -h2 + cos2B * h1 + b1;
-    h2 = h1;
-    h1 = h;
-    h = -h2 + cos2B * h1 + b0;
+    for (let j = 4; j >= 0; j--) {
+      h = -h2 + cos2B * h1 + cbg[j];
+      h2 = h1;
+      h1 = h;
+    }
     let Cn = B + h * Math.sin(2 * B);
     const sinCn = Math.sin(Cn),
       cosCn = Math.cos(Cn),
@@ -113,42 +105,20 @@ export function transverseMercatorForward(
       coshAi = (e + 1 / e) / 2;
     let r = 2 * cosAr * coshAi,
       im = -2 * sinAr * sinhAi;
-    let hr = g5,
+    let hr = gtu[5],
       hi1 = 0,
       hr1 = 0,
       hi = 0,
       hr2 = 0,
       hi2 = 0;
-    hr2 = hr1;
-    hi2 = hi1;
-    hr1 = hr;
-    hi1 = hi;
-    hr = -hr2 + r * hr1 - im * hi1 + g4;
-    hi = -hi2 + im * hr1 + r * hi1;
-    hr2 = hr1;
-    hi2 = hi1;
-    hr1 = hr;
-    hi1 = hi;
-    hr = -hr2 + r * hr1 - im * hi1 + g3;
-    hi = -hi2 + im * hr1 + r * hi1;
-    hr2 = hr1;
-    hi2 = hi1;
-    hr1 = hr;
-    hi1 = hi;
-    hr = -hr2 + r * hr1 - im * hi1 + g2;
-    hi = -hi2 + im * hr1 + r * hi1;
-    hr2 = hr1;
-    hi2 = hi1;
-    hr1 = hr;
-    hi1 = hi;
-    hr = -hr2 + r * hr1 - im * hi1 + g1;
-    hi = -hi2 + im * hr1 + r * hi1;
-    hr2 = hr1;
-    hi2 = hi1;
-    hr1 = hr;
-    hi1 = hi;
-    hr = -hr2 + r * hr1 - im * hi1 + g0;
-    hi = -hi2 + im * hr1 + r * hi1;
+    for (let j = 4; j >= 0; j--) {
+      hr2 = hr1;
+      hi2 = hi1;
+      hr1 = hr;
+      hi1 = hi;
+      hr = -hr2 + r * hr1 - im * hi1 + gtu[j];
+      hi = -hi2 + im * hr1 + r * hi1;
+    }
     r = sinAr * coshAi;
     im = cosAr * sinhAi;
     Cn = Cn + (r * hr - im * hi);
