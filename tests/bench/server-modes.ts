@@ -11,6 +11,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { parseArgs } from "node:util";
+import { healthy } from "../e2e-server/deployment";
 import { freePort } from "../pg/throwaway-postgres.mjs";
 
 const { values, positionals } = parseArgs({
@@ -23,19 +24,6 @@ void positionals;
 
 function exited(child: ChildProcess): Promise<number> {
   return new Promise((resolve) => child.on("exit", (code) => resolve(code ?? 1)));
-}
-
-async function healthy(base: string): Promise<void> {
-  const until = Date.now() + 300_000;
-  for (;;) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok && (await fetch(`${base}/login`)).ok) return;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > until) throw new Error(`${base} did not become healthy`);
-    await new Promise((r) => setTimeout(r, 500));
-  }
 }
 
 async function startEmbedded(): Promise<{ base: string; stop: () => Promise<void> }> {
@@ -54,7 +42,9 @@ async function startEmbedded(): Promise<{ base: string; stop: () => Promise<void
     env: { ...env, AUTH_SIGNIN_PER_MINUTE: "1000" } as unknown as NodeJS.ProcessEnv,
     stdio: ["ignore", log, log],
   });
-  await healthy(base);
+  await healthy(base, 300_000);
+  // The demo is seeded before the first page answers.
+  if (!(await fetch(`${base}/login`)).ok) throw new Error(`${base}: /login did not answer`);
   return {
     base,
     stop: async () => {

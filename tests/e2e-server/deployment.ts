@@ -30,7 +30,7 @@ function start(name: string, args: string[], env: Record<string, string>, log: s
   return child;
 }
 
-async function healthy(base: string, timeoutMs = 240_000): Promise<void> {
+export async function healthy(base: string, timeoutMs = 240_000): Promise<void> {
   const until = Date.now() + timeoutMs;
   for (;;) {
     try {
